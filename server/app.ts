@@ -1,0 +1,88 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import fs from 'node:fs';
+import path from 'node:path';
+import { LIMITS } from '../shared/constants';
+import type { AppContext } from './context';
+import { mountRoutes, type RouteDef } from './lib/route';
+import { installAuth } from './middleware/auth';
+import { csrf } from './middleware/csrf';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { createLimiters } from './middleware/rate-limit';
+import { routeTable } from './routes';
+import { buildOpenApi } from './lib/openapi';
+
+export type CreatedApp = { app: Express; close: () => Promise<void> };
+
+const distDir = path.resolve(process.cwd(), 'dist');
+
+/** Builds the Express app (middleware, module routers, 404, error handler). Does not listen. */
+export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveClient?: boolean } = {}): CreatedApp {
+  const routes = opts.routes ?? routeTable;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', ctx.config.trustProxy ? 1 : false);
+  app.set('query parser', 'extended');
+
+  if (ctx.config.env !== 'test') app.use(pinoHttp({ logger: ctx.logger, autoLogging: { ignore: (req) => req.url?.startsWith('/assets/') ?? false } }));
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // The Markdown editor and charts set style attributes; no script may run inline.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(ctx.config.production ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: ctx.config.production ? { maxAge: 31_536_000, includeSubDomains: true } : false,
+      referrerPolicy: { policy: 'strict-origin-when-cross-origin' },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+
+  app.use('/api', express.json({ limit: LIMITS.jsonBodyBytes, strict: true }));
+  const { pool } = installAuth(app, ctx);
+  app.use('/api', csrf.csrfSynchronisedProtection);
+  app.use('/api', (_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+
+  const api = express.Router();
+  mountRoutes(api, routes, ctx, createLimiters(ctx.config));
+  const openapi = buildOpenApi(routes, { production: ctx.config.production });
+  api.get('/api/openapi.json', (_req, res) => void res.json(openapi));
+  app.use(api);
+  app.use('/api', apiNotFound);
+
+  if (opts.serveClient ?? true) {
+    if (fs.existsSync(path.join(distDir, 'index.html'))) {
+      app.use('/assets', express.static(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
+      app.use(express.static(distDir, { index: false, maxAge: '1h' }));
+      const indexHtml = fs.readFileSync(path.join(distDir, 'index.html'), 'utf8');
+      app.get('/{*splat}', (_req, res) => {
+        res.setHeader('Cache-Control', 'no-cache');
+        res.type('html').send(indexHtml);
+      });
+    } else {
+      app.get('/{*splat}', (_req, res) => {
+        res.status(503).type('text').send('The client is not built yet: run `npm run build` (npm start does this for you).');
+      });
+    }
+  }
+
+  app.use(errorHandler(ctx.logger));
+  return { app, close: () => pool.end() };
+}

@@ -1,0 +1,46 @@
+// Dependency-free checks run by `npm start` and `npm test` before node_modules may exist.
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+
+export const root = path.resolve(path.dirname(new URL(import.meta.url).pathname), '..', '..');
+
+/** Runs `npm ci` when node_modules is missing or older than the lockfile. */
+export function ensureDependencies(log = console.log) {
+  const marker = path.join(root, 'node_modules', '.package-lock.json');
+  const lock = path.join(root, 'package-lock.json');
+  const stale = !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
+  if (!stale) return;
+  log('Installing dependencies (npm ci)…');
+  const r = spawnSync('npm', ['ci', '--include=dev', '--no-audit', '--no-fund'], { cwd: root, stdio: 'inherit' });
+  if (r.status !== 0) throw new Error('npm ci failed');
+}
+
+function newestMtime(p) {
+  if (!fs.existsSync(p)) return 0;
+  const st = fs.statSync(p);
+  if (!st.isDirectory()) return st.mtimeMs;
+  let newest = st.mtimeMs;
+  for (const e of fs.readdirSync(p)) newest = Math.max(newest, newestMtime(path.join(p, e)));
+  return newest;
+}
+
+/** Builds the client when dist/ is missing or older than its sources. */
+export function ensureClientBuild(log = console.log) {
+  const built = path.join(root, 'dist', 'index.html');
+  const sources = ['src', 'shared', 'index.html', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+  const newest = Math.max(...sources.map((s) => newestMtime(path.join(root, s))));
+  if (fs.existsSync(built) && fs.statSync(built).mtimeMs >= newest) return;
+  log('Building the client (vite build)…');
+  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], {
+    cwd: root,
+    stdio: 'inherit',
+  });
+  if (r.status !== 0) throw new Error('vite build failed');
+}
+
+/** Runs a TypeScript entry point with tsx and waits for it. */
+export function runTs(entry, env = process.env, args = []) {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(root, entry), ...args], { cwd: root, env, stdio: 'inherit' });
+  if (r.status !== 0) throw new Error(`${entry} exited with ${r.status}`);
+}

@@ -1,0 +1,79 @@
+// `npm start`: the whole local demo (or a production server) from a fresh clone, dependency-free until npm ci has run.
+import { spawn } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { root, ensureDependencies, ensureClientBuild, runTs } from './deps.mjs';
+import { ensurePostgresInstalled, startCluster, ensureDatabase, freePort, clusterDir } from './postgres.mjs';
+
+const log = (msg) => console.log(`[tunewright] ${msg}`);
+const production = process.env.NODE_ENV === 'production';
+const started = Date.now();
+const children = [];
+let cluster = null;
+let stopping = false;
+
+function stopAll(code = 0) {
+  if (stopping) return;
+  stopping = true;
+  log('Stopping…');
+  for (const child of children) if (child.exitCode === null) child.kill('SIGTERM');
+  const waitChildren = Promise.all(
+    children.map((c) => (c.exitCode !== null ? null : new Promise((r) => { c.once('exit', r); setTimeout(r, 8000); }))),
+  );
+  waitChildren.then(() => {
+    if (cluster) {
+      cluster.stop();
+      log('PostgreSQL stopped.');
+    }
+    process.exit(code);
+  });
+}
+process.on('SIGINT', () => stopAll(0));
+process.on('SIGTERM', () => stopAll(0));
+
+function spawnTs(entry, env, name) {
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, entry)], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
+  child.on('exit', (code, signal) => {
+    if (!stopping) {
+      log(`${name} exited (${signal ?? code}); shutting down.`);
+      stopAll(code || 1);
+    }
+  });
+  children.push(child);
+  return child;
+}
+
+async function main() {
+  ensureDependencies(log);
+  const env = { ...process.env };
+  if (production) {
+    for (const key of ['DATABASE_URL', 'SMTP_URL', 'SESSION_SECRET']) {
+      if (!env[key]) throw new Error(`${key} must be set when NODE_ENV=production`);
+    }
+  } else {
+    const bin = ensurePostgresInstalled(log);
+    const dir = clusterDir(path.join(root, '.data', 'postgres'), `tunewright-demo-${Buffer.from(root).toString('hex').slice(-16)}`);
+    cluster = startCluster({ bin, dir, port: await freePort(), log });
+    ensureDatabase(cluster, 'tunewright');
+    env.DATABASE_URL = cluster.urlFor('tunewright');
+    const smtpPort = await freePort();
+    env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
+    env.MAIL_CATCHER_PORT = String(smtpPort);
+    fs.mkdirSync(path.join(root, '.data'), { recursive: true });
+    fs.writeFileSync(path.join(root, '.data', 'runtime.json'), JSON.stringify({ DATABASE_URL: env.DATABASE_URL, SMTP_URL: env.SMTP_URL }, null, 2), { mode: 0o600 });
+    log(`PostgreSQL running on 127.0.0.1:${cluster.port} (${dir}).`);
+  }
+  runTs('server/db/prepare.ts', { ...env, SEED_DEMO: production ? 'false' : 'true' });
+  ensureClientBuild(log);
+  if (!production) {
+    const catcher = spawnTs('server/bin/mail-catcher.ts', env, 'mail catcher');
+    await new Promise((r) => setTimeout(r, 300));
+    if (catcher.exitCode !== null) throw new Error('mail catcher failed to start');
+  }
+  spawnTs('server/index.ts', { ...env, TW_STARTED_AT: String(started) }, 'app');
+}
+
+main().catch((err) => {
+  console.error(`[tunewright] ${err.message}`);
+  stopAll(1);
+});

@@ -1,0 +1,70 @@
+import { z } from 'zod';
+
+const bool = z
+  .enum(['true', 'false', '1', '0'])
+  .transform((v) => v === 'true' || v === '1');
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_URL: z.string().min(1, 'DATABASE_URL is required'),
+  SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
+  MAIL_FROM: z.string().default('Tunewright <no-reply@tunewright.test>'),
+  APP_URL: z.string().optional(),
+  SESSION_SECRET: z.string().min(16).optional(),
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  RATE_LIMIT_AUTH_PER_15MIN: z.coerce.number().int().min(1).default(20),
+  RATE_LIMIT_UPLOAD_PER_15MIN: z.coerce.number().int().min(1).default(60),
+  UPLOAD_DIR: z.string().optional(),
+  TRUST_PROXY: bool.default(false),
+  OUTBOX_INTERVAL_MS: z.coerce.number().int().min(100).default(5000),
+});
+
+export type Config = {
+  env: 'development' | 'production' | 'test';
+  production: boolean;
+  host: string;
+  port: number;
+  databaseUrl: string;
+  smtpUrl: string;
+  mailFrom: string;
+  appUrl: string;
+  sessionSecret: string;
+  bcryptCost: number;
+  logLevel: string;
+  rateLimits: { authPer15Min: number; uploadPer15Min: number };
+  uploadDir: string;
+  trustProxy: boolean;
+  outboxIntervalMs: number;
+};
+
+/** Parses process.env (or a given map) into the app's configuration; throws with every problem listed. */
+export function loadConfig(source: Record<string, string | undefined> = process.env): Config {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  const production = e.NODE_ENV === 'production';
+  if (production && !e.SESSION_SECRET) throw new Error('Invalid environment:\nSESSION_SECRET: required in production');
+  return {
+    env: e.NODE_ENV,
+    production,
+    host: e.HOST,
+    port: e.PORT,
+    databaseUrl: e.DATABASE_URL,
+    smtpUrl: e.SMTP_URL,
+    mailFrom: e.MAIL_FROM,
+    appUrl: (e.APP_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ''),
+    sessionSecret: e.SESSION_SECRET ?? 'tunewright-local-demo-secret-not-for-production',
+    bcryptCost: e.BCRYPT_COST ?? (e.NODE_ENV === 'test' ? 4 : 12),
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
+    rateLimits: { authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN, uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN },
+    uploadDir: e.UPLOAD_DIR ?? '.data/uploads',
+    trustProxy: e.TRUST_PROXY,
+    outboxIntervalMs: e.OUTBOX_INTERVAL_MS,
+  };
+}

@@ -1,0 +1,10 @@
+import { UserEntity } from '../modules/auth/user.entity';
+import { UserTokenEntity } from '../modules/auth/user-token.entity';
+import { OutboxMessageEntity } from '../modules/mail/outbox-message.entity';
+import { CapturedMailEntity } from '../modules/dev-mail/captured-mail.entity';
+import { AuditLogEntity } from '../modules/audit/audit-log.entity';
+import { DocumentEntity } from '../modules/revisions/document.entity';
+import { RevisionEntity } from '../modules/revisions/revision.entity';
+
+/** Every entity the data source knows; modules add theirs here. */
+export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity];

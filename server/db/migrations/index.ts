@@ -1,0 +1,4 @@
+import { InitialSchema1764633600000 } from './1764633600000-initial-schema';
+
+/** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
+export const migrations = [InitialSchema1764633600000];

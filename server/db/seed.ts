@@ -1,0 +1,29 @@
+import type { DataSource } from 'typeorm';
+import { UserEntity } from '../modules/auth/user.entity';
+import { hashPassword } from '../lib/passwords';
+import { DEMO_ACCOUNTS } from './demo-accounts';
+
+export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
+
+/** Seeds the demo accounts idempotently (by e-mail); existing rows are left as they are. */
+export async function seedDemoAccounts(ds: DataSource, bcryptCost: number) {
+  const repo = ds.getRepository(UserEntity);
+  const byKey = new Map<string, UserEntity>();
+  for (const a of DEMO_ACCOUNTS) {
+    let user = await repo.findOneBy({ email: a.email });
+    if (!user) {
+      user = await repo.save(repo.create({ email: a.email, displayName: a.displayName, role: a.role, passwordHash: await hashPassword(a.password, bcryptCost), emailVerifiedAt: new Date() }));
+    }
+    byKey.set(a.key, user);
+  }
+  return byKey;
+}
+
+/** Seeds everything the app needs; each step is idempotent, keyed by slug or e-mail. */
+export async function seed(ds: DataSource, opts: SeedOptions) {
+  const log = opts.log ?? (() => {});
+  if (opts.demo) {
+    await seedDemoAccounts(ds, opts.bcryptCost);
+    log(`demo accounts ready (${DEMO_ACCOUNTS.length})`);
+  }
+}

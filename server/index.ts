@@ -1,0 +1,50 @@
+import 'reflect-metadata';
+import { loadConfig } from './config/env';
+import { createDataSource } from './db/data-source';
+import { createLogger } from './lib/logger';
+import { createMailer } from './lib/mailer';
+import { createApp } from './app';
+import { DEMO_ACCOUNTS } from './db/demo-accounts';
+import type { AppContext } from './context';
+
+async function main() {
+  const config = loadConfig();
+  const logger = createLogger(config.logLevel);
+  const dataSource = createDataSource(config.databaseUrl);
+  await dataSource.initialize();
+  const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
+  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const { app, close } = createApp(ctx);
+  mailer.start();
+  const server = app.listen(config.port, config.host, () => {
+    const url = `http://${config.host}:${config.port}`;
+    const lines = [`Tunewright is serving on ${url}`];
+    if (!config.production) {
+      lines.push(`Captured mail: ${url}/dev/mail`, 'Demo accounts (local demo only):');
+      for (const a of DEMO_ACCOUNTS.filter((d) => d.printed)) lines.push(`  ${a.role.padEnd(9)} ${a.email.padEnd(24)} ${a.password}`);
+    }
+    const since = Number(process.env.TW_STARTED_AT);
+    if (since) lines.push(`Ready in ${((Date.now() - since) / 1000).toFixed(1)} s`);
+    console.log(lines.join('\n'));
+  });
+
+  let closing = false;
+  const shutdown = async () => {
+    if (closing) return;
+    closing = true;
+    server.close();
+    server.closeIdleConnections();
+    setTimeout(() => server.closeAllConnections(), 3000).unref();
+    await mailer.stop();
+    await close();
+    await dataSource.destroy();
+    process.exit(0);
+  };
+  process.on('SIGTERM', shutdown);
+  process.on('SIGINT', shutdown);
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});

@@ -1,0 +1,41 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { AppError, isDbUnavailable } from '../lib/errors';
+import { toFieldIssues } from '../lib/route';
+import type { Logger } from '../lib/logger';
+import { csrf } from './csrf';
+
+type Shaped = { status: number; code: string; message: string; details?: unknown };
+
+function shape(err: unknown): Shaped | null {
+  if (err instanceof AppError) return { status: err.status, code: err.code, message: err.message, details: err.details };
+  if (err instanceof ZodError) return { status: 400, code: 'validation_failed', message: 'Some fields need attention', details: toFieldIssues(err) };
+  if (err === csrf.invalidCsrfTokenError || (err as { code?: string })?.code === 'EBADCSRFTOKEN') {
+    return { status: 403, code: 'csrf_invalid', message: 'Your session token is missing or out of date. Reload the page and try again.' };
+  }
+  const e = err as { type?: string; status?: number; code?: string; message?: string; field?: string };
+  if (e?.type === 'entity.too.large' || e?.code === 'LIMIT_FILE_SIZE') return { status: 413, code: 'payload_too_large', message: 'That is too large to accept.' };
+  if (e?.type === 'entity.parse.failed') return { status: 400, code: 'invalid_json', message: 'The request body is not valid JSON.' };
+  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') return { status: 415, code: 'unsupported_media_type', message: 'That character set or encoding is not supported.' };
+  if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_')) return { status: 400, code: 'invalid_upload', message: e.message ?? 'The upload was refused.', details: e.field ? [{ path: e.field, message: e.message }] : undefined };
+  if (e?.status && e.status >= 400 && e.status < 500) return { status: e.status, code: 'bad_request', message: 'The request could not be understood.' };
+  if (isDbUnavailable(err)) return { status: 503, code: 'db_unavailable', message: 'The database is unavailable right now. Try again in a moment.' };
+  return null;
+}
+
+/** Renders every failure in the one error shape; unknown errors become internal_error without a stack trace. */
+export function errorHandler(logger: Logger): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    const s = shape(err) ?? { status: 500, code: 'internal_error', message: 'Something went wrong on our side. It has been logged.' };
+    if (s.status >= 500) logger.error({ err, url: req.originalUrl, method: req.method }, 'request failed');
+    if (res.headersSent) return void res.end();
+    if (s.status === 503) res.setHeader('Retry-After', '5');
+    const body: { error: { code: string; message: string; details?: unknown } } = { error: { code: s.code, message: s.message } };
+    if (s.details !== undefined) body.error.details = s.details;
+    res.status(s.status).json(body);
+  };
+}
+
+export const apiNotFound: RequestHandler = (req, res) => {
+  res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.path}` } });
+};

@@ -1,0 +1,163 @@
+import { z } from 'zod';
+import {
+  changePasswordSchema,
+  forgotPasswordSchema,
+  resetPasswordSchema,
+  signInSchema,
+  signUpSchema,
+  updateProfileSchema,
+  userSchema,
+  verifyEmailSchema,
+} from '../../../shared/schemas/user';
+import { defineRoute } from '../../lib/route';
+import { logIn, logOut } from '../../middleware/auth';
+import { csrf } from '../../middleware/csrf';
+import { presentUser } from './presenter';
+import { authService } from './service';
+
+const userData = z.object({ user: userSchema });
+
+export const authRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/api/csrf',
+    summary: 'Get the CSRF token for this session',
+    tags: ['auth'],
+    access: 'public',
+    response: z.object({ token: z.string() }),
+    handler: async ({ req }) => {
+      const token = csrf.generateToken(req);
+      // Store the session before answering, so a POST sent right after the response finds it.
+      await new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+      return { data: { token } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/sign-up',
+    summary: 'Create an account and send the verification mail',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: signUpSchema,
+    response: userData,
+    status: 201,
+    handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).signUp(body)) } }),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/verify',
+    summary: 'Confirm an e-mail address with the single-use token from the mail',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: verifyEmailSchema,
+    response: userData,
+    handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).verifyEmail(body.token)) } }),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/resend-verification',
+    summary: 'Send a new verification mail (answers 202 whether or not the account exists)',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: forgotPasswordSchema,
+    status: 202,
+    handler: async ({ body, ctx }) => {
+      await authService(ctx).resendVerification(body.email);
+      return { status: 202, data: { sent: true } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/sign-in',
+    summary: 'Sign in with e-mail and password',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: signInSchema,
+    response: userData,
+    handler: async ({ body, req, ctx }) => {
+      const user = presentUser(await authService(ctx).authenticate(body.email, body.password));
+      await logIn(req, user);
+      return { data: { user } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/sign-out',
+    summary: 'Sign out and end this session',
+    tags: ['auth'],
+    access: 'public',
+    status: 204,
+    handler: async ({ req, res }) => {
+      if (req.session) await logOut(req);
+      res.clearCookie('tw.sid', { path: '/', httpOnly: true, sameSite: 'lax' });
+      return { status: 204 };
+    },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/auth/me',
+    summary: 'The signed-in account, or null',
+    tags: ['auth'],
+    access: 'public',
+    response: z.object({ user: userSchema.nullable() }),
+    handler: ({ user }) => ({ data: { user } }),
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/forgot-password',
+    summary: 'Mail a password-reset link (answers 202 whether or not the account exists)',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: forgotPasswordSchema,
+    status: 202,
+    handler: async ({ body, ctx }) => {
+      await authService(ctx).forgotPassword(body.email);
+      return { status: 202, data: { sent: true } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/auth/reset-password',
+    summary: 'Choose a new password with the single-use token from the mail',
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: resetPasswordSchema,
+    response: userData,
+    handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).resetPassword(body.token, body.password)) } }),
+  }),
+  defineRoute({
+    method: 'patch',
+    path: '/api/account',
+    summary: 'Change your display name',
+    tags: ['account'],
+    access: 'member',
+    body: updateProfileSchema,
+    response: userData,
+    handler: async ({ body, user, req, ctx }) => {
+      const updated = presentUser(await authService(ctx).updateProfile(user!.id, body.displayName));
+      req.user = updated;
+      return { data: { user: updated } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/account/password',
+    summary: 'Change your password; ends your other sessions and rotates this one',
+    tags: ['account'],
+    access: 'member',
+    rateLimit: 'auth',
+    body: changePasswordSchema,
+    response: userData,
+    handler: async ({ body, user, req, ctx }) => {
+      const updated = presentUser(await authService(ctx).changePassword(user!.id, body.currentPassword, body.newPassword));
+      await logIn(req, updated);
+      return { data: { user: updated } };
+    },
+  }),
+];

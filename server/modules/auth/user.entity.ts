@@ -1,0 +1,33 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import type { Role } from '../../../shared/constants';
+
+@Entity({ name: 'users' })
+export class UserEntity {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  /** Stored lower-cased; unique. */
+  @Column({ type: 'text', unique: true })
+  email: string;
+
+  @Column({ type: 'text', name: 'display_name' })
+  displayName: string;
+
+  @Column({ type: 'text', name: 'password_hash' })
+  passwordHash: string;
+
+  @Column({ type: 'text', default: 'member' })
+  role: Role;
+
+  @Column({ type: 'timestamptz', name: 'email_verified_at', nullable: true })
+  emailVerifiedAt: Date | null;
+
+  @Column({ type: 'timestamptz', name: 'disabled_at', nullable: true })
+  disabledAt: Date | null;
+
+  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ type: 'timestamptz', name: 'updated_at' })
+  updatedAt: Date;
+}

@@ -1,0 +1,26 @@
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+
+/** A mail received by the local catcher (development and tests only). */
+@Entity({ name: 'captured_mail' })
+export class CapturedMailEntity {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  @Column({ type: 'text', name: 'to_address' })
+  to: string;
+
+  @Column({ type: 'text', name: 'from_address' })
+  from: string;
+
+  @Column({ type: 'text' })
+  subject: string;
+
+  @Column({ type: 'text', name: 'text_body' })
+  text: string;
+
+  @Column({ type: 'text', name: 'html_body', nullable: true })
+  html: string | null;
+
+  @Column({ type: 'timestamptz', name: 'received_at' })
+  receivedAt: Date;
+}

@@ -1,0 +1,66 @@
+import { z } from 'zod';
+import { LIMITS, ROLES } from '../constants';
+
+export const roleSchema = z.enum(ROLES);
+
+/** The public shape of an account. */
+export const userSchema = z.object({
+  id: z.uuid(),
+  email: z.string(),
+  displayName: z.string(),
+  role: roleSchema,
+  emailVerified: z.boolean(),
+});
+export type User = z.infer<typeof userSchema>;
+
+/** What administrators see of an account. */
+export const adminUserSchema = userSchema.extend({
+  disabled: z.boolean(),
+  createdAt: z.string(),
+});
+export type AdminUser = z.infer<typeof adminUserSchema>;
+
+export const emailSchema = z
+  .string({ message: 'Enter your e-mail address' })
+  .trim()
+  .toLowerCase()
+  .max(LIMITS.emailMax, 'That e-mail address is too long')
+  .pipe(z.email({ message: 'Enter a valid e-mail address' }));
+
+export const displayNameSchema = z
+  .string({ message: 'Enter a display name' })
+  .trim()
+  .min(2, 'Use at least 2 characters')
+  .max(LIMITS.displayNameMax, `Use at most ${LIMITS.displayNameMax} characters`);
+
+/** Length rules only; the strength check (common passwords) runs on the server. */
+export const passwordSchema = z
+  .string({ message: 'Enter a password' })
+  .min(LIMITS.passwordMin, `Use at least ${LIMITS.passwordMin} characters`)
+  .max(LIMITS.passwordMax, `Use at most ${LIMITS.passwordMax} characters`);
+
+export const signUpSchema = z.object({ email: emailSchema, displayName: displayNameSchema, password: passwordSchema });
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email: emailSchema,
+  password: z.string({ message: 'Enter your password' }).min(1, 'Enter your password').max(LIMITS.passwordMax),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const tokenSchema = z.string({ message: 'The link is missing its token' }).min(20, 'That link is not valid').max(200, 'That link is not valid');
+export const verifyEmailSchema = z.object({ token: tokenSchema });
+export const forgotPasswordSchema = z.object({ email: emailSchema });
+export const resetPasswordSchema = z.object({ token: tokenSchema, password: passwordSchema });
+export const changePasswordSchema = z.object({ currentPassword: z.string().min(1, 'Enter your current password').max(LIMITS.passwordMax), newPassword: passwordSchema });
+export const updateProfileSchema = z.object({ displayName: displayNameSchema });
+
+export const adminUserQuerySchema = z.object({
+  q: z.string().trim().max(100).optional(),
+  role: roleSchema.optional(),
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+});
+export const adminUserPatchSchema = z
+  .object({ role: roleSchema.optional(), disabled: z.boolean().optional() })
+  .refine((v) => v.role !== undefined || v.disabled !== undefined, { message: 'Send a role or disabled' });

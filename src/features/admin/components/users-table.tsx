@@ -1,0 +1,154 @@
+import { useMemo, useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { toast } from 'sonner';
+import { ROLES, type Role } from '@shared/constants';
+import type { AdminUser, User } from '@shared/schemas/user';
+import { Button } from '@/components/ui/button';
+import { Chip, Spinner } from '@/components/ui/card';
+import { Notice } from '@/components/ui/notice';
+import { useDebouncedValue } from '@/lib/use-debounced-value';
+import { adminUserQueries, useUpdateUser } from '../api/users';
+
+const col = createColumnHelper<AdminUser>();
+const PAGE_SIZE = 25;
+
+export function UsersTable({ me }: { me: User }) {
+  const [search, setSearch] = useState('');
+  const [page, setPage] = useState(1);
+  const q = useDebouncedValue(search.trim(), 250);
+  const list = useQuery(adminUserQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
+  const update = useUpdateUser();
+
+  const handleChange = async (user: AdminUser, patch: { role?: Role; disabled?: boolean }) => {
+    try {
+      await update.mutateAsync({ id: user.id, ...patch });
+      toast.success(patch.role ? `${user.displayName} is now ${patch.role}` : patch.disabled ? `${user.displayName} is disabled and signed out` : `${user.displayName} is enabled`);
+    } catch (err) {
+      toast.error((err as Error).message);
+    }
+  };
+
+  const columns = useMemo(
+    () => [
+      col.accessor('displayName', { header: 'Name', cell: (c) => <span className="font-medium">{c.getValue()}</span> }),
+      col.accessor('email', { header: 'E-mail' }),
+      col.accessor('role', {
+        header: 'Role',
+        cell: (c) => {
+          const u = c.row.original;
+          return (
+            <select
+              aria-label={`Role of ${u.displayName}`}
+              className="rounded border border-ink/25 bg-white/80 px-2 py-1 text-sm"
+              value={u.role}
+              disabled={u.id === me.id || update.isPending}
+              onChange={(e) => handleChange(u, { role: e.target.value as Role })}
+            >
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {r}
+                </option>
+              ))}
+            </select>
+          );
+        },
+      }),
+      col.accessor('emailVerified', { header: 'Confirmed', cell: (c) => (c.getValue() ? 'yes' : <Chip>pending</Chip>) }),
+      col.accessor('disabled', {
+        header: 'Status',
+        cell: (c) => {
+          const u = c.row.original;
+          return (
+            <div className="flex items-center gap-2">
+              {u.disabled ? <Chip tone="ink">disabled</Chip> : <Chip>active</Chip>}
+              {u.id !== me.id && (
+                <Button size="sm" variant={u.disabled ? 'secondary' : 'danger'} onClick={() => handleChange(u, { disabled: !u.disabled })} disabled={update.isPending}>
+                  {u.disabled ? 'Enable' : 'Disable'}
+                </Button>
+              )}
+            </div>
+          );
+        },
+      }),
+    ],
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [me.id, update.isPending],
+  );
+
+  const table = useReactTable({ data: list.data?.data ?? [], columns, getCoreRowModel: getCoreRowModel() });
+  const total = list.data?.meta.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-center gap-3">
+        <label className="flex items-center gap-2 text-sm">
+          <span className="font-medium">Search</span>
+          <input
+            type="search"
+            value={search}
+            onChange={(e) => {
+              setSearch(e.target.value);
+              setPage(1);
+            }}
+            placeholder="e-mail or name"
+            className="w-64 rounded-md border border-ink/25 bg-white/80 px-3 py-1.5"
+          />
+        </label>
+        <span className="text-sm text-ink-muted">{total} account{total === 1 ? '' : 's'}</span>
+      </div>
+      {list.isError && <Notice tone="danger">{list.error.message}</Notice>}
+      {list.isPending ? (
+        <Spinner />
+      ) : (
+        <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+          <table className="w-full text-left text-sm">
+            <thead className="bg-paper-deep">
+              {table.getHeaderGroups().map((hg) => (
+                <tr key={hg.id}>
+                  {hg.headers.map((h) => (
+                    <th key={h.id} scope="col" className="px-3 py-2 font-semibold">
+                      {flexRender(h.column.columnDef.header, h.getContext())}
+                    </th>
+                  ))}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {table.getRowModel().rows.map((row) => (
+                <tr key={row.id} className="border-t border-paper-line">
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className="px-3 py-2 align-middle">
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+              ))}
+              {table.getRowModel().rows.length === 0 && (
+                <tr>
+                  <td colSpan={5} className="px-3 py-6 text-center text-ink-muted">
+                    No account matches “{q}”.
+                  </td>
+                </tr>
+              )}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {pages > 1 && (
+        <div className="flex items-center gap-3 text-sm">
+          <Button size="sm" variant="secondary" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
+            Previous
+          </Button>
+          <span>
+            Page {page} of {pages}
+          </span>
+          <Button size="sm" variant="secondary" disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
+            Next
+          </Button>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,83 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { User } from '@shared/schemas/user';
+import { api, resetCsrf, type Envelope } from '@/lib/api-client';
+
+/** Query-option factories for the session (keys general → specific). */
+export const authQueries = {
+  all: () => ['auth'] as const,
+  me: () =>
+    queryOptions({
+      queryKey: [...authQueries.all(), 'me'] as const,
+      queryFn: async () => (await api.get<Envelope<{ user: User | null }>>('/api/auth/me')).data.user,
+      staleTime: 60_000,
+    }),
+};
+
+export function useCurrentUser() {
+  return useQuery(authQueries.me());
+}
+
+/** Forgets everything cached for the previous session. */
+function useSessionChanged() {
+  const qc = useQueryClient();
+  return (user: User | null) => {
+    resetCsrf();
+    qc.removeQueries({ predicate: (q) => q.queryKey[0] !== 'auth' });
+    qc.setQueryData(authQueries.me().queryKey, user);
+  };
+}
+
+export function useSignIn() {
+  const changed = useSessionChanged();
+  return useMutation({
+    mutationFn: async (input: { email: string; password: string }) => (await api.post<Envelope<{ user: User }>>('/api/auth/sign-in', input)).data.user,
+    onSuccess: (user) => changed(user),
+  });
+}
+
+export function useSignOut() {
+  const changed = useSessionChanged();
+  return useMutation({ mutationFn: () => api.post<void>('/api/auth/sign-out'), onSuccess: () => changed(null) });
+}
+
+export function useSignUp() {
+  return useMutation({
+    mutationFn: async (input: { email: string; displayName: string; password: string }) => (await api.post<Envelope<{ user: User }>>('/api/auth/sign-up', input)).data.user,
+  });
+}
+
+export function useVerifyEmail() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async (token: string) => (await api.post<Envelope<{ user: User }>>('/api/auth/verify', { token })).data.user,
+    onSuccess: () => qc.invalidateQueries({ queryKey: authQueries.all() }),
+  });
+}
+
+export function useResendVerification() {
+  return useMutation({ mutationFn: (email: string) => api.post('/api/auth/resend-verification', { email }) });
+}
+
+export function useForgotPassword() {
+  return useMutation({ mutationFn: (email: string) => api.post('/api/auth/forgot-password', { email }) });
+}
+
+export function useResetPassword() {
+  return useMutation({ mutationFn: (input: { token: string; password: string }) => api.post('/api/auth/reset-password', input) });
+}
+
+export function useUpdateProfile() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async (input: { displayName: string }) => (await api.patch<Envelope<{ user: User }>>('/api/account', input)).data.user,
+    onSuccess: (user) => qc.setQueryData(authQueries.me().queryKey, user),
+  });
+}
+
+export function useChangePassword() {
+  const changed = useSessionChanged();
+  return useMutation({
+    mutationFn: async (input: { currentPassword: string; newPassword: string }) => (await api.post<Envelope<{ user: User }>>('/api/account/password', input)).data.user,
+    onSuccess: (user) => changed(user),
+  });
+}

@@ -1,0 +1,15 @@
+import { QueryClient } from '@tanstack/react-query';
+import { ApiError } from './api-client';
+
+export function createQueryClient() {
+  return new QueryClient({
+    defaultOptions: {
+      queries: {
+        staleTime: 30_000,
+        refetchOnWindowFocus: false,
+        // Client errors will not fix themselves; retry only network and server trouble.
+        retry: (count, err) => count < 2 && !(err instanceof ApiError && err.status >= 400 && err.status < 500),
+      },
+    },
+  });
+}
