@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 import { DEMO_ACCOUNTS } from './demo-accounts';
+import { seedGuides, seedParameters } from './seed-content';
 
 export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
 
@@ -22,8 +23,13 @@ export async function seedDemoAccounts(ds: DataSource, bcryptCost: number) {
 /** Seeds everything the app needs; each step is idempotent, keyed by slug or e-mail. */
 export async function seed(ds: DataSource, opts: SeedOptions) {
   const log = opts.log ?? (() => {});
+  const parameters = await seedParameters(ds);
+  log(`parameter library ready (${parameters} new entries)`);
   if (opts.demo) {
-    await seedDemoAccounts(ds, opts.bcryptCost);
+    const users = await seedDemoAccounts(ds, opts.bcryptCost);
     log(`demo accounts ready (${DEMO_ACCOUNTS.length})`);
+    const reviewers = [...users.values()].filter((u) => u.role === 'moderator');
+    const guides = await seedGuides(ds, users, reviewers);
+    log(`demo guides ready (${guides} new)`);
   }
 }

@@ -1,0 +1,34 @@
+import { z } from 'zod';
+import { PARAMETER_CATEGORIES } from '../constants';
+import { slugSchema } from './common';
+
+/** The typical range and step of a parameter, in its unit. */
+export const parameterRangeSchema = z
+  .object({ min: z.number(), max: z.number(), step: z.number().positive() })
+  .refine((r) => r.max >= r.min, { message: 'max must not be below min', path: ['max'] });
+
+/** What a parameter revision holds (the fields an editor can change). */
+export const parameterContentSchema = z.object({
+  name: z.string().trim().min(2).max(80),
+  aliases: z.array(z.string().trim().min(1).max(60)).max(20).default([]),
+  category: z.enum(PARAMETER_CATEGORIES),
+  unit: z.string().max(12).default(''),
+  range: parameterRangeSchema,
+  summary: z.string().trim().min(10).max(400),
+  related: z.array(slugSchema).max(20).default([]),
+  calculator: z.string().max(40).nullable().default(null),
+  body: z.string().max(100_000),
+});
+export type ParameterContent = z.infer<typeof parameterContentSchema>;
+
+/** A row of the parameter library list. */
+export const parameterSummarySchema = z.object({
+  slug: z.string(),
+  name: z.string(),
+  aliases: z.array(z.string()),
+  category: z.enum(PARAMETER_CATEGORIES),
+  unit: z.string(),
+  range: z.object({ min: z.number(), max: z.number(), step: z.number() }),
+  summary: z.string(),
+});
+export type ParameterSummary = z.infer<typeof parameterSummarySchema>;
