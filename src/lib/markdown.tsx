@@ -1,0 +1,80 @@
+import { Children, isValidElement, type ReactElement, type ReactNode } from 'react';
+import ReactMarkdown, { type Components } from 'react-markdown';
+import remarkGfm from 'remark-gfm';
+import rehypeSanitize, { defaultSchema } from 'rehype-sanitize';
+
+// GitHub's sanitizing schema, narrowed: links only http(s) and relative, images only relative or http(s),
+// no raw HTML ever reaches the page (react-markdown does not parse it, and the schema strips what remains).
+const schema = {
+  ...defaultSchema,
+  protocols: { ...defaultSchema.protocols, href: ['http', 'https'], src: ['http', 'https'] },
+};
+
+export const rehypePlugins = [[rehypeSanitize, schema]] as const;
+
+function codeText(node: ReactNode): string {
+  if (typeof node === 'string') return node;
+  if (Array.isArray(node)) return node.map(codeText).join('');
+  if (isValidElement(node)) return codeText((node as ReactElement<{ children?: ReactNode }>).props.children);
+  return '';
+}
+
+function safeHref(href: string | undefined) {
+  if (!href) return undefined;
+  if (/^(https?:)?\/\//i.test(href)) return /^https?:\/\//i.test(href) ? href : undefined;
+  if (/^[a-z][a-z0-9+.-]*:/i.test(href)) return undefined; // any other scheme (javascript:, data:, vbscript:) is dropped
+  return href;
+}
+
+export type MarkdownProps = {
+  children: string;
+  /** Renders a ```worked-example block; without it the block shows as code. */
+  renderWorkedExample?: (body: string, index: number) => ReactNode;
+  /** Rewrites relative links (e.g. parameter slugs to /parameters/<slug>). */
+  resolveHref?: (href: string) => string;
+  className?: string;
+};
+
+/** Markdown as the product renders it everywhere: GFM, sanitized, with live worked-example blocks. */
+export function Markdown({ children, renderWorkedExample, resolveHref, className = 'prose-notebook' }: MarkdownProps) {
+  let exampleIndex = 0;
+  const components: Components = {
+    pre({ children: preChildren }) {
+      const only = Children.toArray(preChildren)[0];
+      if (renderWorkedExample && isValidElement(only)) {
+        const props = (only as ReactElement<{ className?: string; children?: ReactNode }>).props;
+        if (props.className?.split(/\s+/).includes('language-worked-example')) {
+          return <>{renderWorkedExample(codeText(props.children), exampleIndex++)}</>;
+        }
+      }
+      return <pre>{preChildren}</pre>;
+    },
+    a({ href, children: linkChildren }) {
+      const safe = safeHref(href);
+      if (!safe) return <span>{linkChildren}</span>;
+      const external = /^https?:\/\//i.test(safe);
+      const target = !external && resolveHref ? resolveHref(safe) : safe;
+      return external ? (
+        <a href={target} rel="noopener noreferrer nofollow" target="_blank">
+          {linkChildren}
+        </a>
+      ) : (
+        <a href={target}>{linkChildren}</a>
+      );
+    },
+    table({ children: tableChildren }) {
+      return (
+        <div className="table-scroll">
+          <table>{tableChildren}</table>
+        </div>
+      );
+    },
+  };
+  return (
+    <div className={className}>
+      <ReactMarkdown remarkPlugins={[remarkGfm]} rehypePlugins={rehypePlugins as never} components={components}>
+        {children}
+      </ReactMarkdown>
+    </div>
+  );
+}
