@@ -168,8 +168,12 @@ export function unknownKeyMessage(key: string, knownKeys: readonly string[]): st
   let bestDistance = Infinity;
   for (const known of knownKeys) {
     const knownLower = known.toLowerCase();
+    // Also compare with the key minus its unit suffix (dragBrakePct → dragBrake), since people leave units off.
+    const stem = known.replace(/(?<=[a-z])(Pct|PctPerS|Mm|In|Rpm|Deg|DegC|V|S|PerCellV|PerS)$/, '').toLowerCase();
     const distance =
-      knownLower.startsWith(lower) || lower.startsWith(knownLower) ? 1 : editDistance(lower, knownLower);
+      knownLower.startsWith(lower) || lower.startsWith(knownLower)
+        ? 1
+        : Math.min(editDistance(lower, knownLower), editDistance(lower, stem));
     if (distance < bestDistance) {
       best = known;
       bestDistance = distance;
