@@ -16,7 +16,14 @@ const SWEEP_TEETH = 6;
 /** Input of the gearing calculator: spur and pinion teeth, the car's internal ratio and the tyre size. */
 export const gearingInput = inputObject({
   spur: numberInput({ label: 'Spur', unit: 'teeth', min: 10, max: 200, int: true, help: 'Teeth on the spur gear.' }),
-  pinion: numberInput({ label: 'Pinion', unit: 'teeth', min: 5, max: 100, int: true, help: 'Teeth on the motor pinion.' }),
+  pinion: numberInput({
+    label: 'Pinion',
+    unit: 'teeth',
+    min: 5,
+    max: 100,
+    int: true,
+    help: 'Teeth on the motor pinion.',
+  }),
   internalRatio: numberInput({
     label: 'Internal ratio',
     unit: ':1',

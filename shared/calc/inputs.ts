@@ -74,14 +74,14 @@ function fieldMeta(spec: NumberFieldSpec, optional: boolean): Omit<CalcField, 'k
 
 /** A required number field with bounds, coerced from strings, with messages that name the field. */
 export function numberInput(spec: NumberFieldSpec) {
-  return numberCore(spec).meta({ title: spec.label, description: spec.help, calcField: fieldMeta(spec, false) });
+  return numberCore(spec).meta({ title: spec.label, description: spec.help, 'x-calc-field': fieldMeta(spec, false) });
 }
 
 /** An optional number field: left out or blank means "not given". */
 export function optionalNumberInput(spec: NumberFieldSpec) {
   return z
     .preprocess(blankToUndefined, numberCore(spec).optional())
-    .meta({ title: spec.label, description: spec.help, calcField: fieldMeta(spec, true) });
+    .meta({ title: spec.label, description: spec.help, 'x-calc-field': fieldMeta(spec, true) });
 }
 
 type ChoiceFieldSpec<T extends readonly [string, ...string[]]> = {
@@ -134,7 +134,7 @@ function choiceMeta<T extends readonly [string, ...string[]]>(
 export function choiceInput<const T extends readonly [string, ...string[]]>(spec: ChoiceFieldSpec<T>) {
   return z
     .preprocess(normaliseChoice(spec), choiceCore(spec))
-    .meta({ title: spec.label, description: spec.help, calcField: choiceMeta(spec, false) });
+    .meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, false) });
 }
 
 /** A choice that falls back to `fallback` when left out or blank. */
@@ -143,7 +143,7 @@ export function defaultedChoiceInput<const T extends readonly [string, ...string
 ) {
   return z
     .preprocess(normaliseChoice(spec), choiceCore(spec).default(spec.fallback))
-    .meta({ title: spec.label, description: spec.help, calcField: choiceMeta(spec, true) });
+    .meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, true) });
 }
 
 /** Levenshtein distance, small inputs only: used to suggest the field someone probably meant. */
@@ -179,7 +179,8 @@ export function unknownKeyMessage(key: string, knownKeys: readonly string[]): st
       bestDistance = distance;
     }
   }
-  const hint = best !== undefined && bestDistance <= Math.max(2, Math.floor(key.length / 3)) ? ` Did you mean "${best}"?` : '';
+  const hint =
+    best !== undefined && bestDistance <= Math.max(2, Math.floor(key.length / 3)) ? ` Did you mean "${best}"?` : '';
   return `Unknown field "${key}".${hint} Known fields: ${knownKeys.join(', ')}.`;
 }
 

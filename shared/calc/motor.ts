@@ -10,10 +10,7 @@ import { defineCalculator, type CalcWarning } from './types';
 export const HIGH_RPM_CAUTION = 50_000;
 
 /** Accepts an even pole count only: magnets come in north/south pairs. */
-export function checkEvenPoles(
-  value: { poles?: unknown },
-  ctx: z.RefinementCtx,
-): void {
+export function checkEvenPoles(value: { poles?: unknown }, ctx: z.RefinementCtx): void {
   if (typeof value.poles === 'number' && Number.isInteger(value.poles) && value.poles % 2 !== 0) {
     ctx.addIssue({
       code: 'custom',
@@ -25,8 +22,21 @@ export function checkEvenPoles(
 
 /** Input of the motor calculator: speed constant, supply voltage and rotor pole count. */
 export const motorInput = inputObject({
-  kv: numberInput({ label: 'Motor kV', unit: 'rpm/V', min: 100, max: 20_000, help: 'Speed constant: no-load rpm per volt.' }),
-  volts: numberInput({ label: 'Voltage', unit: 'V', min: 1, max: 60, step: 0.01, help: 'Pack voltage under use (e.g. 7.4 V nominal 2S, 8.4 V full).' }),
+  kv: numberInput({
+    label: 'Motor kV',
+    unit: 'rpm/V',
+    min: 100,
+    max: 20_000,
+    help: 'Speed constant: no-load rpm per volt.',
+  }),
+  volts: numberInput({
+    label: 'Voltage',
+    unit: 'V',
+    min: 1,
+    max: 60,
+    step: 0.01,
+    help: 'Pack voltage under use (e.g. 7.4 V nominal 2S, 8.4 V full).',
+  }),
   poles: numberInput({
     label: 'Rotor poles',
     unit: 'poles',

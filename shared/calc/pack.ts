@@ -98,7 +98,7 @@ export function computePack(input: PackInput) {
       code: 'lithium-care',
       message:
         `Charge ${cell.label} packs only with a charger set to this chemistry and cell count, never unattended, on a non-flammable surface or in a fire-resistant bag; ` +
-        'stop using a swollen, punctured or hot pack. Follow the pack maker\'s instructions and the track\'s and sanctioning body\'s rules ' +
+        "stop using a swollen, punctured or hot pack. Follow the pack maker's instructions and the track's and sanctioning body's rules " +
         '(many cap LiPo at 4.20 V per cell at the start of a race and require hard-case packs).',
     });
   } else {
@@ -106,7 +106,7 @@ export function computePack(input: PackInput) {
       level: 'info',
       code: 'nimh-care',
       message:
-        'NiMH packs get hot on charge: use a charger with NiMH peak detection, do not leave it unattended, and follow the pack maker\'s instructions. ' +
+        "NiMH packs get hot on charge: use a charger with NiMH peak detection, do not leave it unattended, and follow the pack maker's instructions. " +
         'NiMH has no storage-voltage target, so no storage voltage is given.',
     });
   }
@@ -114,7 +114,8 @@ export function computePack(input: PackInput) {
     warnings.push({
       level: 'info',
       code: 'lihv-race-rules',
-      message: "Race rules that cap lithium packs at 4.20 V per cell do not allow a LiHV pack charged to 4.35 V: check your class rules.",
+      message:
+        'Race rules that cap lithium packs at 4.20 V per cell do not allow a LiHV pack charged to 4.35 V: check your class rules.',
     });
   }
 

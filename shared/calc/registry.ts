@@ -44,9 +44,7 @@ export function unknownCalculatorMessage(name: unknown): string {
 }
 
 /** Result of {@link runCalculator}. */
-export type RunCalculatorResult =
-  | { ok: true; output: CalcOutput<unknown> }
-  | { ok: false; issues: CalcIssue[] };
+export type RunCalculatorResult = { ok: true; output: CalcOutput<unknown> } | { ok: false; issues: CalcIssue[] };
 
 /**
  * Validates raw input (strings allowed) against a calculator's schema and computes it; every problem
@@ -57,7 +55,13 @@ export function runCalculator(name: string, rawInput: unknown): RunCalculatorRes
   if (!calculator) return { ok: false, issues: [{ path: '', message: unknownCalculatorMessage(name) }] };
   const parsed = calculator.input.safeParse(rawInput);
   if (!parsed.success) {
-    return { ok: false, issues: toCalcIssues(parsed.error, calculator.fields.map((field) => field.key)) };
+    return {
+      ok: false,
+      issues: toCalcIssues(
+        parsed.error,
+        calculator.fields.map((field) => field.key),
+      ),
+    };
   }
   try {
     return { ok: true, output: calculator.compute(parsed.data as never) };

@@ -48,7 +48,14 @@ const tooHotMessage: Record<TemperaturePart, string> = {
 
 /** Input of the temperature calculator: a reading, its unit and the part it was taken on. */
 export const temperatureInput = inputObject({
-  value: numberInput({ label: 'Temperature', unit: '', min: -60, max: 300, step: 1, help: 'The reading, in the unit chosen below.' }),
+  value: numberInput({
+    label: 'Temperature',
+    unit: '',
+    min: -60,
+    max: 300,
+    step: 1,
+    help: 'The reading, in the unit chosen below.',
+  }),
   unit: choiceInput({
     label: 'Unit',
     options: ['C', 'F'],

@@ -34,7 +34,14 @@ export const throttleInput = inputObject({
     step: 10,
     help: 'How fast the output may rise, in percent of full output per second.',
   }),
-  inputPct: optionalNumberInput({ label: 'Stick position', unit: '%', min: 0, max: 100, step: 1, help: 'Throttle stick travel past neutral to read the curve at.' }),
+  inputPct: optionalNumberInput({
+    label: 'Stick position',
+    unit: '%',
+    min: 0,
+    max: 100,
+    step: 1,
+    help: 'Throttle stick travel past neutral to read the curve at.',
+  }),
 });
 
 /** Parsed throttle input. */
@@ -75,7 +82,10 @@ export function computeThrottle(input: ThrottleInput) {
   const chartMs = Math.max(timeToTargetMs * 1.25, 1);
   for (let i = 0; i <= STEP_RESPONSE_POINTS; i++) {
     const timeMs = (chartMs * i) / STEP_RESPONSE_POINTS;
-    stepResponse.push({ timeMs: roundSig(timeMs), outputPct: roundSig(Math.min(target, (punchRatePctPerS * timeMs) / 1000)) });
+    stepResponse.push({
+      timeMs: roundSig(timeMs),
+      outputPct: roundSig(Math.min(target, (punchRatePctPerS * timeMs) / 1000)),
+    });
   }
 
   const warnings: CalcWarning[] = [];

@@ -22,16 +22,86 @@ const CHART_STEPS = 40;
 
 /** Input of the timing-curve calculator. */
 export const timingCurveInput = inputObject({
-  baseDeg: numberInput({ label: 'Base timing', unit: '°', min: 0, max: 60, step: 1, help: 'Fixed advance the controller adds at every speed (electrical degrees).' }),
-  rampDeg: numberInput({ label: 'Ramped advance', unit: '°', min: 0, max: 80, step: 1, help: 'Extra advance added gradually between the ramp start and end speeds.' }),
-  rampStartRpm: numberInput({ label: 'Ramp start', unit: 'rpm', min: 0, max: 100_000, step: 500, help: 'Motor speed where the ramped advance starts to come in.' }),
-  rampEndRpm: numberInput({ label: 'Ramp end', unit: 'rpm', min: 1, max: 100_000, step: 500, help: 'Motor speed where the ramped advance is fully in; must be above the ramp start.' }),
-  atRpm: optionalNumberInput({ label: 'Read at', unit: 'rpm', min: 0, max: 150_000, step: 500, help: 'A motor speed to read the curve at.' }),
-  endbellDeg: optionalNumberInput({ label: 'Endbell timing', unit: '°', min: 0, max: 60, step: 1, help: 'Mechanical timing set on the motor itself, in mechanical degrees.' }),
-  poles: optionalNumberInput({ label: 'Rotor poles', unit: 'poles', min: 2, max: 24, int: true, help: 'Needed to turn endbell (mechanical) degrees into electrical degrees; 2 if left empty.' }),
-  stepDeg: optionalNumberInput({ label: 'Full-throttle advance', unit: '°', min: 0, max: 40, step: 1, help: 'Extra advance added at full throttle once the delay has passed.' }),
-  stepDelayS: optionalNumberInput({ label: 'Full-throttle delay', unit: 's', min: 0, max: 5, step: 0.05, help: 'How long full throttle must be held before the full-throttle advance comes in.' }),
-  maxRpm: optionalNumberInput({ label: 'Chart to', unit: 'rpm', min: 1000, max: 150_000, step: 1000, help: 'Right-hand end of the chart; 25 % past the ramp end if left empty.' }),
+  baseDeg: numberInput({
+    label: 'Base timing',
+    unit: '°',
+    min: 0,
+    max: 60,
+    step: 1,
+    help: 'Fixed advance the controller adds at every speed (electrical degrees).',
+  }),
+  rampDeg: numberInput({
+    label: 'Ramped advance',
+    unit: '°',
+    min: 0,
+    max: 80,
+    step: 1,
+    help: 'Extra advance added gradually between the ramp start and end speeds.',
+  }),
+  rampStartRpm: numberInput({
+    label: 'Ramp start',
+    unit: 'rpm',
+    min: 0,
+    max: 100_000,
+    step: 500,
+    help: 'Motor speed where the ramped advance starts to come in.',
+  }),
+  rampEndRpm: numberInput({
+    label: 'Ramp end',
+    unit: 'rpm',
+    min: 1,
+    max: 100_000,
+    step: 500,
+    help: 'Motor speed where the ramped advance is fully in; must be above the ramp start.',
+  }),
+  atRpm: optionalNumberInput({
+    label: 'Read at',
+    unit: 'rpm',
+    min: 0,
+    max: 150_000,
+    step: 500,
+    help: 'A motor speed to read the curve at.',
+  }),
+  endbellDeg: optionalNumberInput({
+    label: 'Endbell timing',
+    unit: '°',
+    min: 0,
+    max: 60,
+    step: 1,
+    help: 'Mechanical timing set on the motor itself, in mechanical degrees.',
+  }),
+  poles: optionalNumberInput({
+    label: 'Rotor poles',
+    unit: 'poles',
+    min: 2,
+    max: 24,
+    int: true,
+    help: 'Needed to turn endbell (mechanical) degrees into electrical degrees; 2 if left empty.',
+  }),
+  stepDeg: optionalNumberInput({
+    label: 'Full-throttle advance',
+    unit: '°',
+    min: 0,
+    max: 40,
+    step: 1,
+    help: 'Extra advance added at full throttle once the delay has passed.',
+  }),
+  stepDelayS: optionalNumberInput({
+    label: 'Full-throttle delay',
+    unit: 's',
+    min: 0,
+    max: 5,
+    step: 0.05,
+    help: 'How long full throttle must be held before the full-throttle advance comes in.',
+  }),
+  maxRpm: optionalNumberInput({
+    label: 'Chart to',
+    unit: 'rpm',
+    min: 1000,
+    max: 150_000,
+    step: 1000,
+    help: 'Right-hand end of the chart; 25 % past the ramp end if left empty.',
+  }),
 })
   .superRefine((value, ctx) => {
     if (
@@ -102,7 +172,9 @@ export function computeTimingCurve(input: TimingCurveInput) {
     .sort((a, b) => a - b)
     .map((rpm) => {
       const deg = timingAt(rpm, input);
-      return hasStep ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) } : { rpm, deg: roundSig(deg) };
+      return hasStep
+        ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) }
+        : { rpm, deg: roundSig(deg) };
     });
 
   const warnings: CalcWarning[] = [];
@@ -163,7 +235,10 @@ export function computeTimingCurve(input: TimingCurveInput) {
     stepDeg,
     ...(stepDelayS !== undefined ? { stepDelayS } : {}),
     ...(atRpm !== undefined
-      ? { totalDegAt: roundSig(timingAt(atRpm, input)), totalDegAtFullThrottle: roundSig(timingAt(atRpm, input) + stepDeg) }
+      ? {
+          totalDegAt: roundSig(timingAt(atRpm, input)),
+          totalDegAtFullThrottle: roundSig(timingAt(atRpm, input) + stepDeg),
+        }
       : {}),
     ...(endbellElectricalDeg !== undefined ? { endbellElectricalDeg: roundSig(endbellElectricalDeg) } : {}),
     ...(maxCombinedDeg !== undefined ? { maxCombinedDeg: roundSig(maxCombinedDeg) } : {}),

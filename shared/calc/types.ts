@@ -58,12 +58,12 @@ export type AnyCalculator = Omit<Calculator<z.ZodType, unknown, string>, 'fields
 
 type FieldMeta = Omit<CalcField, 'key'>;
 
-/** Reads the form metadata that the input builders in ./inputs attach to each field schema. */
+/** Reads the form metadata that the input builders in ./inputs attach to each field schema (an `x-` key, so JSON Schema and OpenAPI output stay valid). */
 function fieldsFromSchema(schema: z.ZodType): CalcField[] {
   const shape = (schema as unknown as { shape?: Record<string, z.ZodType> }).shape;
   if (!shape) throw new Error('A calculator input must be an object schema');
   return Object.entries(shape).map(([key, fieldSchema]) => {
-    const meta = fieldSchema.meta()?.calcField as FieldMeta | undefined;
+    const meta = fieldSchema.meta()?.['x-calc-field'] as FieldMeta | undefined;
     // Failing here (at module load) is deliberate: a field without metadata would give a form with no label.
     if (!meta) throw new Error(`Calculator field "${key}" was not built with the ./inputs helpers`);
     return { key, ...meta };

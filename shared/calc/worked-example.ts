@@ -42,7 +42,10 @@ export function parseWorkedExample(body: string): WorkedExampleResult {
 
 function parseUnsafe(body: string): WorkedExampleResult {
   if (typeof body !== 'string' || body.trim() === '') {
-    return { ok: false, issues: [{ path: '', message: 'This worked example is empty: it needs a "calc:" line and the inputs.' }] };
+    return {
+      ok: false,
+      issues: [{ path: '', message: 'This worked example is empty: it needs a "calc:" line and the inputs.' }],
+    };
   }
   const document = parseDocument(body, { prettyErrors: true, uniqueKeys: true });
   if (document.errors.length > 0) {
@@ -60,7 +63,9 @@ function parseUnsafe(body: string): WorkedExampleResult {
   if (!isPlainRecord(data)) {
     return {
       ok: false,
-      issues: [{ path: '', message: 'A worked example must be "key: value" lines, starting with "calc: <calculator name>".' }],
+      issues: [
+        { path: '', message: 'A worked example must be "key: value" lines, starting with "calc: <calculator name>".' },
+      ],
     };
   }
   const { calc, ...rawInputs } = data;
@@ -69,7 +74,12 @@ function parseUnsafe(body: string): WorkedExampleResult {
   }
   const calcName = String(calc).trim();
   if (!isCalculatorName(calcName)) {
-    return { ok: false, calc: calcName, rawInputs, issues: [{ path: 'calc', message: unknownCalculatorMessage(calcName) }] };
+    return {
+      ok: false,
+      calc: calcName,
+      rawInputs,
+      issues: [{ path: 'calc', message: unknownCalculatorMessage(calcName) }],
+    };
   }
   const calculator = getCalculator(calcName)!;
   const parsed = calculator.input.safeParse(rawInputs);
@@ -78,7 +88,10 @@ function parseUnsafe(body: string): WorkedExampleResult {
       ok: false,
       calc: calcName,
       rawInputs,
-      issues: toCalcIssues(parsed.error, calculator.fields.map((field) => field.key)),
+      issues: toCalcIssues(
+        parsed.error,
+        calculator.fields.map((field) => field.key),
+      ),
     };
   }
   return { ok: true, calc: calcName, inputs: parsed.data as Record<string, unknown>, rawInputs };

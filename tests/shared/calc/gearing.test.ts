@@ -2,12 +2,23 @@ import convert from 'convert-units';
 import fc from 'fast-check';
 import { evaluate, unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { computeGearing, finalDriveRatio, gearingCalculator, gearingInput, type GearingResults } from '../../../shared/calc/gearing';
+import {
+  computeGearing,
+  finalDriveRatio,
+  gearingCalculator,
+  gearingInput,
+  type GearingResults,
+} from '../../../shared/calc/gearing';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
 describe('gearing calculator', () => {
   it('matches the 84/40, 1.9 internal, 64 mm check vector', () => {
-    const { results } = run<GearingResults>('gearing', { spur: 84, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 });
+    const { results } = run<GearingResults>('gearing', {
+      spur: 84,
+      pinion: 40,
+      internalRatio: 1.9,
+      tyreDiameterMm: 64,
+    });
     expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks; stage ratio relation, Wikipedia "Gear train"
     expect(results.tyreCircumferenceMm).toBeCloseTo(201.06, 2); // REFERENCES.md gearing checks (π × 64 mm)
     expectRelClose(results.tyreCircumferenceMm, evaluate('pi * 64 mm').toNumber('mm'), DISPLAY_REL); // mathjs oracle
@@ -29,7 +40,12 @@ describe('gearing calculator', () => {
   });
 
   it('accepts values as strings, as query strings and worked examples give them', () => {
-    const { results } = run<GearingResults>('gearing', { spur: '84', pinion: ' 40 ', internalRatio: '1.9', tyreDiameterMm: '64' });
+    const { results } = run<GearingResults>('gearing', {
+      spur: '84',
+      pinion: ' 40 ',
+      internalRatio: '1.9',
+      tyreDiameterMm: '64',
+    });
     expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks
   });
 
@@ -104,17 +120,22 @@ describe('gearing calculator', () => {
     expect(issueAt(issues, 'pinion').message).toBe('Pinion must be at least 5 teeth');
     expect(issueAt(issues, 'internalRatio').message).toBe('Internal ratio must be a number (got "two")');
     expect(issueAt(issues, 'tyreSize').message).toMatch(/Unknown field "tyreSize"/);
-    expect(issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe(
-      'Spur must be a whole number',
-    );
-    expect(issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe(
-      'Spur is required',
-    );
+    expect(
+      issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
+    ).toBe('Spur must be a whole number');
+    expect(
+      issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
+    ).toBe('Spur is required');
   });
 
   it('exposes a schema, fields and defaults that agree', () => {
     expect(gearingCalculator.fields.map((f) => f.key)).toEqual(['spur', 'pinion', 'internalRatio', 'tyreDiameterMm']);
     expect(gearingInput.safeParse(gearingCalculator.defaults).success).toBe(true);
-    expect(gearingCalculator.fields.find((f) => f.key === 'tyreDiameterMm')).toMatchObject({ unit: 'mm', kind: 'number', min: 20, max: 250 });
+    expect(gearingCalculator.fields.find((f) => f.key === 'tyreDiameterMm')).toMatchObject({
+      unit: 'mm',
+      kind: 'number',
+      min: 20,
+      max: 250,
+    });
   });
 });

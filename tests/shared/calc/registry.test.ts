@@ -8,18 +8,38 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
     inputs: ['spur', 'pinion', 'internalRatio', 'tyreDiameterMm'],
     results: ['finalDriveRatio', 'rolloutMm', 'rolloutIn', 'kmhPer1000Rpm', 'tyreCircumferenceMm', 'pinionSweep'],
   },
-  motor: { inputs: ['kv', 'volts', 'poles'], results: ['noLoadRpm', 'ktNmPerA', 'polePairs', 'electricalRpm', 'electricalHz'] },
+  motor: {
+    inputs: ['kv', 'volts', 'poles'],
+    results: ['noLoadRpm', 'ktNmPerA', 'polePairs', 'electricalRpm', 'electricalHz'],
+  },
   'top-speed': {
     inputs: ['kv', 'volts', 'spur', 'pinion', 'internalRatio', 'tyreDiameterMm', 'loadFactor'],
     results: ['noLoadRpm', 'finalDriveRatio', 'noLoadKmh', 'noLoadMph', 'loadedKmh', 'loadedMph'],
   },
   'timing-curve': {
-    inputs: ['baseDeg', 'rampDeg', 'rampStartRpm', 'rampEndRpm', 'atRpm', 'endbellDeg', 'poles', 'stepDeg', 'stepDelayS', 'maxRpm'],
+    inputs: [
+      'baseDeg',
+      'rampDeg',
+      'rampStartRpm',
+      'rampEndRpm',
+      'atRpm',
+      'endbellDeg',
+      'poles',
+      'stepDeg',
+      'stepDelayS',
+      'maxRpm',
+    ],
     results: ['points', 'maxTotalDeg'],
   },
-  pack: { inputs: ['chemistry', 'cells', 'cutoffPerCellV'], results: ['fullV', 'nominalV', 'storageV', 'cutoffWindowV', 'perCell'] },
+  pack: {
+    inputs: ['chemistry', 'cells', 'cutoffPerCellV'],
+    results: ['fullV', 'nominalV', 'storageV', 'cutoffWindowV', 'perCell'],
+  },
   throttle: { inputs: ['expoPct', 'punchRatePctPerS', 'inputPct'], results: ['points', 'rampTimeMs'] },
-  brake: { inputs: ['dragBrakePct', 'initialBrakePct', 'brakeStrengthPct', 'brakeStickPct'], results: ['atNeutralPct', 'points', 'neutralFeel'] },
+  brake: {
+    inputs: ['dragBrakePct', 'initialBrakePct', 'brakeStrengthPct', 'brakeStickPct'],
+    results: ['atNeutralPct', 'points', 'neutralFeel'],
+  },
   temperature: { inputs: ['value', 'unit', 'part'], results: ['c', 'f', 'band'] },
 };
 
@@ -59,7 +79,10 @@ describe('calculator registry', () => {
     it('names every missing required field', () => {
       const required = calculator.fields.filter((f) => !f.optional);
       const issues = rejected(name, {});
-      for (const field of required) expect(issueAt(issues, field.key).message).toMatch(new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`));
+      for (const field of required)
+        expect(issueAt(issues, field.key).message).toMatch(
+          new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`),
+        );
     });
 
     it('names every number field that is out of range', () => {
@@ -74,7 +97,10 @@ describe('calculator registry', () => {
 
   it('reports an unknown calculator and non-object input as issues, not exceptions', () => {
     const unknown = runCalculator('gear-ratio', {});
-    expect(unknown).toEqual({ ok: false, issues: [{ path: '', message: expect.stringMatching(/Unknown calculator "gear-ratio"/) }] });
+    expect(unknown).toEqual({
+      ok: false,
+      issues: [{ path: '', message: expect.stringMatching(/Unknown calculator "gear-ratio"/) }],
+    });
     for (const raw of [null, 'spur=84', 42, [1, 2]]) {
       const result = runCalculator('gearing', raw);
       expect(result.ok).toBe(false);
@@ -83,6 +109,8 @@ describe('calculator registry', () => {
   });
 
   it('keeps a boolean from being read as a number', () => {
-    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe('Motor kV must be a number (got true)');
+    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe(
+      'Motor kV must be a number (got true)',
+    );
   });
 });

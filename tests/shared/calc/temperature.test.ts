@@ -19,12 +19,15 @@ describe('temperature calculator', () => {
 
   it('agrees with convert-units and mathjs across the range (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: -60, max: 300, noNaN: true }).filter((v) => Math.abs(v) > 1e-3), (value) => {
-        const fromC = computeTemperature({ value, unit: 'C', part: 'motor' }).results;
-        expect(fromC.f).toBeCloseTo(convert(value).from('C').to('F'), 2); // convert-units oracle
-        const fromF = computeTemperature({ value, unit: 'F', part: 'motor' }).results;
-        expect(fromF.c).toBeCloseTo(unit(value, 'degF').toNumber('degC'), 2); // mathjs oracle
-      }),
+      fc.property(
+        fc.double({ min: -60, max: 300, noNaN: true }).filter((v) => Math.abs(v) > 1e-3),
+        (value) => {
+          const fromC = computeTemperature({ value, unit: 'C', part: 'motor' }).results;
+          expect(fromC.f).toBeCloseTo(convert(value).from('C').to('F'), 2); // convert-units oracle
+          const fromF = computeTemperature({ value, unit: 'F', part: 'motor' }).results;
+          expect(fromF.c).toBeCloseTo(unit(value, 'degF').toNumber('degC'), 2); // mathjs oracle
+        },
+      ),
     );
   });
 
@@ -64,10 +67,17 @@ describe('temperature calculator', () => {
   it('bands never get cooler as the reading rises (property)', () => {
     const order = ['cool', 'warm', 'hot', 'too-hot'];
     fc.assert(
-      fc.property(fc.constantFrom('motor', 'esc', 'pack' as const), fc.double({ min: -60, max: 300, noNaN: true }), fc.double({ min: -60, max: 300, noNaN: true }), (part, a, b) => {
-        const [low, high] = a <= b ? [a, b] : [b, a];
-        expect(order.indexOf(temperatureBand(high, part))).toBeGreaterThanOrEqual(order.indexOf(temperatureBand(low, part)));
-      }),
+      fc.property(
+        fc.constantFrom('motor', 'esc', 'pack' as const),
+        fc.double({ min: -60, max: 300, noNaN: true }),
+        fc.double({ min: -60, max: 300, noNaN: true }),
+        (part, a, b) => {
+          const [low, high] = a <= b ? [a, b] : [b, a];
+          expect(order.indexOf(temperatureBand(high, part))).toBeGreaterThanOrEqual(
+            order.indexOf(temperatureBand(low, part)),
+          );
+        },
+      ),
     );
   });
 
@@ -84,6 +94,8 @@ describe('temperature calculator', () => {
     expect(issueAt(issues, 'value').message).toBe('Temperature is required');
     expect(issueAt(issues, 'unit').message).toBe('Unit must be one of: °C, °F (got "K")');
     expect(issueAt(issues, 'part').message).toMatch(/Part must be one of: Motor, Speed controller \(ESC\), Pack/);
-    expect(issueAt(rejected('temperature', { value: 400, unit: 'C' }), 'value').message).toBe('Temperature must be at most 300');
+    expect(issueAt(rejected('temperature', { value: 400, unit: 'C' }), 'value').message).toBe(
+      'Temperature must be at most 300',
+    );
   });
 });

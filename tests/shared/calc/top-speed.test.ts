@@ -5,7 +5,15 @@ import { describe, expect, it } from 'vitest';
 import { computeTopSpeed, type TopSpeedResults } from '../../../shared/calc/top-speed';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
-const checkVector = { kv: 4000, volts: 8.4, spur: 84, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64, loadFactor: 0.85 };
+const checkVector = {
+  kv: 4000,
+  volts: 8.4,
+  spur: 84,
+  pinion: 40,
+  internalRatio: 1.9,
+  tyreDiameterMm: 64,
+  loadFactor: 0.85,
+};
 
 describe('top-speed calculator', () => {
   it('matches the 33,600 rpm, 84/40, 1.9, 64 mm check vector', () => {
@@ -61,6 +69,8 @@ describe('top-speed calculator', () => {
     const issues = rejected('top-speed', { ...checkVector, loadFactor: 0.4, tyreDiameterMm: undefined });
     expect(issueAt(issues, 'loadFactor').message).toBe('Load factor must be at least 0.5');
     expect(issueAt(issues, 'tyreDiameterMm').message).toBe('Tyre diameter is required');
-    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe('Load factor must be at most 1');
+    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe(
+      'Load factor must be at most 1',
+    );
   });
 });

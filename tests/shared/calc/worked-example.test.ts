@@ -14,17 +14,27 @@ describe('parseWorkedExample', () => {
     });
     if (!result.ok) return;
     const run = runCalculator(result.calc, result.inputs);
-    expect(run.ok && (run.output.results as { finalDriveRatio: number }).finalDriveRatio).toBeCloseTo((78 / 34) * 2.6, 3); // Wikipedia "Gear train"
+    expect(run.ok && (run.output.results as { finalDriveRatio: number }).finalDriveRatio).toBeCloseTo(
+      (78 / 34) * 2.6,
+      3,
+    ); // Wikipedia "Gear train"
   });
 
   it('normalises choices and quoted numbers, and leaves optional fields out', () => {
     const result = parseWorkedExample('calc: pack\nchemistry: LiPo\ncells: "2"\n');
-    expect(result).toMatchObject({ ok: true, calc: 'pack', inputs: { chemistry: 'lipo', cells: 2 }, rawInputs: { chemistry: 'LiPo', cells: '2' } });
+    expect(result).toMatchObject({
+      ok: true,
+      calc: 'pack',
+      inputs: { chemistry: 'lipo', cells: 2 },
+      rawInputs: { chemistry: 'LiPo', cells: '2' },
+    });
     if (result.ok) expect('cutoffPerCellV' in result.inputs && result.inputs.cutoffPerCellV !== undefined).toBe(false);
   });
 
   it('tolerates comments, blank lines and Windows line endings', () => {
-    const result = parseWorkedExample('# a stock buggy on 2S\r\ncalc: brake\r\n\r\ndragBrakePct: 10   # light\r\ninitialBrakePct: 15\r\nbrakeStrengthPct: 80\r\n');
+    const result = parseWorkedExample(
+      '# a stock buggy on 2S\r\ncalc: brake\r\n\r\ndragBrakePct: 10   # light\r\ninitialBrakePct: 15\r\nbrakeStrengthPct: 80\r\n',
+    );
     expect(result.ok).toBe(true);
   });
 
@@ -32,13 +42,16 @@ describe('parseWorkedExample', () => {
     const result = parseWorkedExample('calc: gearbox\nspur: 78\n');
     expect(result).toMatchObject({ ok: false, calc: 'gearbox' });
     if (result.ok) return;
-    expect(result.issues).toEqual([{ path: 'calc', message: expect.stringMatching(/^Unknown calculator "gearbox"\. Known calculators: gearing, /) }]);
+    expect(result.issues).toEqual([
+      { path: 'calc', message: expect.stringMatching(/^Unknown calculator "gearbox"\. Known calculators: gearing, /) },
+    ]);
   });
 
   it('reports a missing calc line', () => {
     const result = parseWorkedExample('spur: 78\npinion: 34\n');
     expect(result.ok).toBe(false);
-    if (!result.ok) expect(result.issues[0]).toEqual({ path: 'calc', message: 'Missing "calc:" line naming the calculator.' });
+    if (!result.ok)
+      expect(result.issues[0]).toEqual({ path: 'calc', message: 'Missing "calc:" line naming the calculator.' });
   });
 
   it('reports an unknown key by name with a suggestion', () => {
@@ -51,9 +64,12 @@ describe('parseWorkedExample', () => {
   });
 
   it('reports a bad value on its field', () => {
-    const result = parseWorkedExample('calc: timing-curve\nbaseDeg: lots\nrampDeg: 30\nrampStartRpm: 10000\nrampEndRpm: 30000\n');
+    const result = parseWorkedExample(
+      'calc: timing-curve\nbaseDeg: lots\nrampDeg: 30\nrampStartRpm: 10000\nrampEndRpm: 30000\n',
+    );
     expect(result.ok).toBe(false);
-    if (!result.ok) expect(result.issues).toEqual([{ path: 'baseDeg', message: 'Base timing must be a number (got "lots")' }]);
+    if (!result.ok)
+      expect(result.issues).toEqual([{ path: 'baseDeg', message: 'Base timing must be a number (got "lots")' }]);
     const range = parseWorkedExample('calc: temperature\nvalue: 75\nunit: K\n');
     expect(!range.ok && range.issues).toEqual([{ path: 'unit', message: 'Unit must be one of: °C, °F (got "K")' }]);
   });
@@ -67,8 +83,14 @@ describe('parseWorkedExample', () => {
   });
 
   it('reports an empty block and a block that is not key: value lines', () => {
-    expect(parseWorkedExample('   \n')).toMatchObject({ ok: false, issues: [{ path: '', message: expect.stringMatching(/empty/) }] });
-    expect(parseWorkedExample('- spur\n- pinion\n')).toMatchObject({ ok: false, issues: [{ path: '', message: expect.stringMatching(/key: value/) }] });
+    expect(parseWorkedExample('   \n')).toMatchObject({
+      ok: false,
+      issues: [{ path: '', message: expect.stringMatching(/empty/) }],
+    });
+    expect(parseWorkedExample('- spur\n- pinion\n')).toMatchObject({
+      ok: false,
+      issues: [{ path: '', message: expect.stringMatching(/key: value/) }],
+    });
     expect(parseWorkedExample('just some text')).toMatchObject({ ok: false, issues: [{ path: '' }] });
   });
 
@@ -81,10 +103,18 @@ describe('parseWorkedExample', () => {
       }),
     );
     fc.assert(
-      fc.property(fc.dictionary(fc.constantFrom('calc', 'spur', 'pinion', 'kv', '[', '&a', '*a', '!!x'), fc.string({ maxLength: 12 })), (entries) => {
-        const body = Object.entries(entries).map(([k, v]) => `${k}: ${v}`).join('\n');
-        expect(() => parseWorkedExample(body)).not.toThrow();
-      }),
+      fc.property(
+        fc.dictionary(
+          fc.constantFrom('calc', 'spur', 'pinion', 'kv', '[', '&a', '*a', '!!x'),
+          fc.string({ maxLength: 12 }),
+        ),
+        (entries) => {
+          const body = Object.entries(entries)
+            .map(([k, v]) => `${k}: ${v}`)
+            .join('\n');
+          expect(() => parseWorkedExample(body)).not.toThrow();
+        },
+      ),
     );
   });
 });
