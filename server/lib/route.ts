@@ -5,6 +5,7 @@ import { ROLE_RANK } from '../../shared/constants';
 import type { User } from '../../shared/schemas/user';
 import { AppError, unauthenticated, validationFailed } from './errors';
 import type { AppContext } from '../context';
+import { findUnstorableInput } from './input-text';
 
 /** Who may call a route: anyone, or a signed-in account of at least this role. */
 export type Access = 'public' | Role;
@@ -104,6 +105,8 @@ export function mountRoutes(router: Router, routes: RouteDef[], ctx: AppContext,
     if (route.before) chain.push(...route.before);
     router[route.method](route.path, ...chain, async (req: Request, res: Response) => {
       const issues: ReturnType<typeof toFieldIssues> = [];
+      for (const where of ['params', 'query', 'body'] as const) findUnstorableInput(req[where], where, issues);
+      if (issues.length) throw validationFailed(issues);
       const params = parsePart(route.params, req.params, 'params', issues);
       const query = parsePart(route.query, req.query, 'query', issues);
       const body = parsePart(route.body, req.body, 'body', issues);

@@ -19,6 +19,9 @@ function shape(err: unknown): Shaped | null {
   if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') return { status: 415, code: 'unsupported_media_type', message: 'That character set or encoding is not supported.' };
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_')) return { status: 400, code: 'invalid_upload', message: e.message ?? 'The upload was refused.', details: e.field ? [{ path: e.field, message: e.message }] : undefined };
   if (e?.status && e.status >= 400 && e.status < 500) return { status: e.status, code: 'bad_request', message: 'The request could not be understood.' };
+  // Text PostgreSQL cannot store (a NUL, an invalid escape) is the caller's input, not our failure.
+  const pgCode = (err as { driverError?: { code?: string }; code?: string })?.driverError?.code ?? e?.code;
+  if (pgCode === '22021' || pgCode === '22P05') return { status: 400, code: 'invalid_text', message: 'The request contains characters that cannot be stored.' };
   if (isDbUnavailable(err)) return { status: 503, code: 'db_unavailable', message: 'The database is unavailable right now. Try again in a moment.' };
   return null;
 }
