@@ -12,6 +12,7 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { createLimiters } from './middleware/rate-limit';
 import { routeTable } from './routes';
 import { buildOpenApi } from './lib/openapi';
+import { renderApiDocs } from './lib/api-docs';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -64,6 +65,8 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   mountRoutes(api, routes, ctx, createLimiters(ctx.config));
   const openapi = buildOpenApi(routes, { production: ctx.config.production });
   api.get('/api/openapi.json', (_req, res) => void res.json(openapi));
+  const docsHtml = renderApiDocs(openapi);
+  api.get('/api/docs', (_req, res) => void res.type('html').send(docsHtml));
   app.use(api);
   app.use('/api', apiNotFound);
 
