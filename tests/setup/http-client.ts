@@ -6,8 +6,10 @@
 export type HttpResponse = { status: number; headers: Headers; text: string; body: unknown; ms: number };
 export type RequestOptions = { json?: unknown; raw?: string; type?: string; csrf?: boolean | string; timeoutMs?: number; headers?: Record<string, string> };
 
-export function httpClient(baseUrl: string) {
+/** `headers` go on every request (e.g. X-Forwarded-Proto: https for an app behind a TLS proxy). */
+export function httpClient(baseUrl: string, defaults: { headers?: Record<string, string> } = {}) {
   const cookies = new Map<string, string>();
+  let base = baseUrl;
   let token = '';
 
   function keepCookies(headers: Headers) {
@@ -22,7 +24,7 @@ export function httpClient(baseUrl: string) {
   }
 
   async function request(method: string, path: string, opts: RequestOptions = {}): Promise<HttpResponse> {
-    const headers: Record<string, string> = { ...opts.headers };
+    const headers: Record<string, string> = { ...defaults.headers, ...opts.headers };
     const wantsCsrf = opts.csrf ?? method.toUpperCase() !== 'GET';
     // The token first: fetching it may start the session whose cookie this request must carry.
     if (wantsCsrf) headers['x-csrf-token'] = typeof wantsCsrf === 'string' ? wantsCsrf : await csrf();
@@ -36,7 +38,7 @@ export function httpClient(baseUrl: string) {
       headers['content-type'] = opts.type ?? 'application/json';
     }
     const started = Date.now();
-    const res = await fetch(baseUrl + path, { method: method.toUpperCase(), headers, body, redirect: 'manual', signal: AbortSignal.timeout(opts.timeoutMs ?? 15_000) });
+    const res = await fetch(base + path, { method: method.toUpperCase(), headers, body, redirect: 'manual', signal: AbortSignal.timeout(opts.timeoutMs ?? 15_000) });
     keepCookies(res.headers);
     const text = await res.text();
     let parsed: unknown;
@@ -68,6 +70,10 @@ export function httpClient(baseUrl: string) {
       token = '';
     },
     cookie: (name = 'tw.sid') => cookies.get(name),
+    /** Send the next requests to another instance, keeping the session (instances share it through PostgreSQL). */
+    useBaseUrl: (url: string) => {
+      base = url;
+    },
     setCookie: (name: string, value: string) => cookies.set(name, value),
     async signIn(email: string, password: string) {
       const res = await request('POST', '/api/auth/sign-in', { json: { email, password } });

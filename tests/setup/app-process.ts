@@ -1,0 +1,73 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import { freePort } from '../../server/bin/postgres.mjs';
+
+export type AppProcess = {
+  port: number;
+  baseUrl: string;
+  child: ChildProcess;
+  /** The last lines the process printed (for failure messages). */
+  output: () => string;
+  /** SIGTERM, then SIGKILL after a grace period; resolves when the process has exited. */
+  stop: () => Promise<void>;
+  /** Sends a signal (e.g. SIGKILL to simulate a crash) and resolves when the process has exited. */
+  kill: (signal: NodeJS.Signals) => Promise<void>;
+};
+
+const root = path.resolve(import.meta.dirname, '..', '..');
+
+/**
+ * The real entry point (server/index.ts) in a child process on a loopback port, as `npm start` runs it,
+ * with the given environment on top of this process's. Resolves once GET /api/health answers.
+ */
+export async function startAppProcess(env: Record<string, string>, opts: { port?: number; readyTimeoutMs?: number } = {}): Promise<AppProcess> {
+  const port = opts.port ?? (await freePort());
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server', 'index.ts')], {
+    cwd: root,
+    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  const lines: string[] = [];
+  const keep = (chunk: Buffer) => {
+    lines.push(...chunk.toString('utf8').split('\n').filter(Boolean));
+    if (lines.length > 200) lines.splice(0, lines.length - 200);
+  };
+  child.stdout!.on('data', keep);
+  child.stderr!.on('data', keep);
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const output = () => lines.join('\n');
+
+  const deadline = Date.now() + (opts.readyTimeoutMs ?? 30_000);
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`app process exited with ${child.exitCode} before it was ready:\n${output()}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/health`, { signal: AbortSignal.timeout(2000) });
+      await res.arrayBuffer();
+      break;
+    } catch {
+      if (Date.now() > deadline) {
+        child.kill('SIGKILL');
+        throw new Error(`app process not ready within ${opts.readyTimeoutMs ?? 30_000} ms:\n${output()}`);
+      }
+      await new Promise((r) => setTimeout(r, 100));
+    }
+  }
+
+  const kill = async (signal: NodeJS.Signals) => {
+    if (child.exitCode === null && child.signalCode === null) child.kill(signal);
+    await exited;
+  };
+  return {
+    port,
+    baseUrl,
+    child,
+    output,
+    kill,
+    stop: async () => {
+      const timer = setTimeout(() => child.kill('SIGKILL'), 8000);
+      await kill('SIGTERM');
+      clearTimeout(timer);
+    },
+  };
+}
