@@ -24,6 +24,8 @@ export function isDbUnavailable(err: unknown): boolean {
   if (!err || typeof err !== 'object') return false;
   const e = err as { code?: string; message?: string; driverError?: unknown };
   if (e.driverError && isDbUnavailable(e.driverError)) return true;
+  // TypeORM releases a transaction's connection when PostgreSQL drops it; the COMMIT then fails with this.
+  if ((err as { name?: string }).name === 'QueryRunnerAlreadyReleasedError') return true;
   const codes = ['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08003', '08006', '08001', '08004'];
   if (e.code && codes.includes(e.code)) return true;
   const msg = e.message ?? '';

@@ -30,7 +30,7 @@ export async function startAppProcess(env: Record<string, string>, opts: { port?
   const lines: string[] = [];
   const keep = (chunk: Buffer) => {
     lines.push(...chunk.toString('utf8').split('\n').filter(Boolean));
-    if (lines.length > 200) lines.splice(0, lines.length - 200);
+    if (lines.length > 5000) lines.splice(0, lines.length - 5000);
   };
   child.stdout!.on('data', keep);
   child.stderr!.on('data', keep);
