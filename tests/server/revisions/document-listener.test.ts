@@ -46,7 +46,8 @@ describe('document listener', () => {
   });
 
   it('reconnects after its connection is killed (as when PostgreSQL restarts) and keeps fanning out', async () => {
-    const listener = createDocumentListener({ connectionString: t.db.url, logger: t.ctx.logger, minRetryMs: 50, maxRetryMs: 200 });
+    // Its own connection name, so only this listener is cut off (the app's own keeps listening).
+    const listener = createDocumentListener({ connectionString: t.db.url, logger: t.ctx.logger, minRetryMs: 50, maxRetryMs: 200, applicationName: 'tw-listener-under-test' });
     const heard: string[] = [];
     let reconnects = 0;
     listener.onDocumentChanged((c) => heard.push(c.slug));
@@ -57,7 +58,7 @@ describe('document listener', () => {
     const admin = new pg.Client({ connectionString: t.db.url });
     await admin.connect();
     try {
-      const killed = await admin.query(`SELECT pg_terminate_backend(pid) AS ok FROM pg_stat_activity WHERE application_name = 'tunewright-document-listener' AND datname = current_database()`);
+      const killed = await admin.query(`SELECT pg_terminate_backend(pid) AS ok FROM pg_stat_activity WHERE application_name = 'tw-listener-under-test' AND datname = current_database()`);
       expect(killed.rows.length).toBeGreaterThanOrEqual(1);
       await until(() => reconnects >= 1);
       expect(listener.listening).toBe(true);
@@ -81,7 +82,12 @@ describe('GET /api/guides/:slug (reading cache across instances)', () => {
     const { client: author } = await signedInClient(t, 'member');
     const { client: mod } = await signedInClient(t, 'moderator');
     const { user: otherMod } = await createUser(t, { role: 'moderator' });
+    const heard = new Set<string>();
+    const off = t.ctx.documentListener.onDocumentChanged((c) => heard.add(c.slug));
     const { slug } = await createPublishedGuide(author, mod, { summary: 'Version one summary for the cache check.' });
+    // This instance hears its own publish too (a second, harmless invalidation): let it pass before caching.
+    await until(() => heard.has(slug));
+    off();
     const visitor = createClient(t.app);
     await visitor.get(`/api/guides/${slug}`).expect(200);
     expect(publishedCache(t.ctx).size).toBeGreaterThan(0);
