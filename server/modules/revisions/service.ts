@@ -509,7 +509,9 @@ export function revisionService(ctx: AppContext) {
       const v = await view(m, rev);
       const liveRev = v.doc.publishedRevisionId && v.doc.publishedRevisionId !== rev.id ? await m.getRepository(RevisionEntity).findOneBy({ id: v.doc.publishedRevisionId }) : null;
       const live = liveRev ? await view(m, liveRev, v.doc) : null;
-      const before = live?.rev.content ?? {};
+      // A waiting proposal is judged against what readers see now; one already decided, against its own base.
+      const baseRev = rev.state !== 'in_review' && rev.baseRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: rev.baseRevisionId }) : null;
+      const before = (rev.state === 'in_review' ? live?.rev.content : baseRev?.content) ?? {};
       return {
         view: v,
         live,

@@ -138,6 +138,11 @@ describe('POST /api/reviews/:revisionId/publish (seeded)', () => {
     expect(res.status).toBe(200);
     const page = await createClient(t.app).get('/api/guides/stadium-truck-harbour-flats-clay').expect(200);
     expect(page.body.data.guide.version).toBe(truck.number);
+    // Opened again after publishing (e.g. from the mail), the review page still shows what it changed.
+    const decided = (await owen.get(`/api/reviews/${truck.revisionId}`).expect(200)).body.data;
+    expect(decided.revision.state).toBe('published');
+    expect(decided.bodyDiff.some((p: { removed?: boolean }) => p.removed)).toBe(true);
+    expect(decided.bodyDiff.some((p: { added?: boolean }) => p.added)).toBe(true);
     // A brand-new guide (no live version yet) goes live with its first publish.
     const fresh = items.find((i) => i.baseNumber === null)!;
     expect((await createClient(t.app).get(`/api/guides/${fresh.slug}`)).status).toBe(404);
