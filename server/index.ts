@@ -3,6 +3,7 @@ import { loadConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
+import { createStorage } from './lib/storage';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
@@ -13,7 +14,7 @@ async function main() {
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const ctx: AppContext = { config, dataSource, mailer, logger, storage: createStorage(config.storage) };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {
