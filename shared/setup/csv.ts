@@ -16,9 +16,11 @@ type Row = [path: string, value: string, unit: string, source: 'record' | 'compu
 
 // Spreadsheets run a cell that starts with one of these as a formula; a leading apostrophe stops
 // that. Only free-text fields get it (numbers like -20 must stay numbers), and import removes it.
-const FORMULA_START = /^[=+\-@\t\r]/;
-const escapeText = (s: string) => (FORMULA_START.test(s) ? `'${s}` : s);
-const unescapeText = (s: string) => (s.startsWith("'") && FORMULA_START.test(s.slice(1)) ? s.slice(1) : s);
+// Text that already starts with apostrophes before such a character gets one more, so the
+// escape is lossless both ways.
+const NEEDS_ESCAPE = /^'*[=+\-@\t\r]/;
+const escapeText = (s: string) => (NEEDS_ESCAPE.test(s) ? `'${s}` : s);
+const unescapeText = (s: string) => (s.startsWith("'") && NEEDS_ESCAPE.test(s.slice(1)) ? s.slice(1) : s);
 
 function cell(value: SetupLeafValue, textField: boolean): string {
   if (typeof value === 'string') return textField ? escapeText(value) : value;
