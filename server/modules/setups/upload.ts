@@ -25,6 +25,7 @@ export function parseSetupUpload(req: Request, res: Response, next: NextFunction
     if (e.code === 'LIMIT_FILE_SIZE') return next(invalidSetup(413, 'That file is too large.', [{ path: 'file', message: `Setup files are at most ${LIMITS.uploadBytes / 1024} KB` }]));
     if (e.code === 'LIMIT_UNEXPECTED_FILE') return next(invalidSetup(400, 'Send one file in the "file" field.', [{ path: e.field ?? 'file', message: 'Send one file, in the field named "file"' }]));
     if (e.code?.startsWith('LIMIT_')) return next(invalidSetup(400, 'The upload was refused.', [{ path: e.field ?? 'file', message: e.message ?? 'Too many parts in the upload' }]));
+    if (/header/i.test(e.message ?? '')) return next(invalidSetup(400, 'The upload could not be read.', [{ path: 'file', message: 'A part header (such as the file name) holds characters that are not allowed; rename the file and try again' }]));
     return next(invalidSetup(400, 'The upload could not be read.', [{ path: 'file', message: 'The multipart body is malformed or was cut off; try again' }]));
   });
 }
