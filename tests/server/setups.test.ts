@@ -31,7 +31,8 @@ async function multipart(client: TestClient) {
   return { req: client.agent.post('/api/setups').set('x-csrf-token', token) };
 }
 const upload = async (client: TestClient, file: Upload) =>
-  (await multipart(client)).req.attach('file', typeof file.body === 'string' ? Buffer.from(file.body) : file.body, { filename: file.name, filepath: file.name, contentType: file.contentType ?? (file.name.endsWith('.csv') ? 'text/csv' : 'application/json') });
+  // form-data keeps a path in the name only when it comes as `filepath` (superagent passes the options through; its types omit it).
+  (await multipart(client)).req.attach('file', typeof file.body === 'string' ? Buffer.from(file.body) : file.body, { filename: file.name, filepath: file.name, contentType: file.contentType ?? (file.name.endsWith('.csv') ? 'text/csv' : 'application/json') } as { filename: string; contentType: string });
 
 beforeAll(async () => {
   t = await createTestApp();
