@@ -25,7 +25,7 @@ export type TestApp = {
 };
 
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
-export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean } = {}): Promise<TestApp> {
+export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean } = {}): Promise<TestApp> {
   const db = await createTestDatabase();
   const uploadDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-uploads-'));
   const catcher = opts.catcher === false ? null : await startMailCatcher({ dataSource: db.dataSource, port: 0 });
@@ -44,7 +44,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
   const logger = createLogger(config.logLevel);
   const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger, storage: createStorage(config.storage) };
-  const created = createApp(ctx, { serveClient: false });
+  const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
     ctx,
