@@ -8,6 +8,7 @@ import { createDataSource } from '../../server/db/data-source';
 import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer } from '../../server/lib/mailer';
+import { createDiskStorage } from '../../server/lib/storage';
 import { createApp } from '../../server/app';
 import type { AppContext } from '../../server/context';
 import type { DataSource } from 'typeorm';
@@ -30,7 +31,7 @@ beforeAll(async () => {
   await ds.runMigrations();
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
   const logger = createLogger('silent');
-  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }) };
+  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), storage: createDiskStorage(path.join(dir, 'uploads')) };
   const created = createApp(ctx, { serveClient: false });
   app = created.app;
   closeApp = created.close;

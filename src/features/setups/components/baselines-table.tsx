@@ -21,7 +21,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
         id: 'guide',
         header: 'Guide',
         cell: (c) => (
-          <Link to={`/guides/${c.row.original.guideSlug}`} className="font-medium">
+          <Link to={`/guides/${c.row.original.guideSlug}`} className="inline-block min-w-48 font-medium">
             {c.getValue()}
           </Link>
         ),
@@ -100,7 +100,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
         </label>
       </div>
       <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
-        <table className="w-full border-collapse text-sm" data-testid="baselines-table">
+        <table className="w-full min-w-[52rem] border-collapse text-sm" data-testid="baselines-table">
           <caption className="sr-only">Published baseline setups, {rows.length} shown</caption>
           <thead>
             {table.getHeaderGroups().map((hg) => (

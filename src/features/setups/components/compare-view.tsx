@@ -62,6 +62,12 @@ export function CompareView() {
   };
   const cmp = useQuery({ ...setupQueries.compare(a, b, rpm), enabled: !!a && !!b });
   const labels = cmp.data ? { a: `A: ${cmp.data.a.label}`, b: `B: ${cmp.data.b.label}` } : { a: 'A', b: 'B' };
+  // Column heads stay short (A, B) so the tables fit a phone; the legend names them.
+  const legend = cmp.data && (
+    <p className="text-sm text-ink-soft">
+      <strong>A</strong> = {cmp.data.a.label} · <strong>B</strong> = {cmp.data.b.label}
+    </p>
+  );
 
   return (
     <div className="flex flex-col gap-6">
@@ -95,6 +101,7 @@ export function CompareView() {
       )}
       {cmp.data && (
         <>
+          {legend}
           <CautionList cautions={cmp.data.cautions} sideLabels={labels} />
           {cmp.data.cautions.length === 0 && <Notice tone="ok">No value of either setup leaves its safe window.</Notice>}
 
@@ -107,8 +114,8 @@ export function CompareView() {
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
                     <th scope="col" className="px-3 py-2">Value</th>
-                    <th scope="col" className="px-3 py-2">{labels.a}</th>
-                    <th scope="col" className="px-3 py-2">{labels.b}</th>
+                    <th scope="col" className="px-3 py-2">A</th>
+                    <th scope="col" className="px-3 py-2">B</th>
                     <th scope="col" className="px-3 py-2">Change A → B</th>
                   </tr>
                 </thead>
@@ -140,9 +147,9 @@ export function CompareView() {
               <table className="w-full text-sm" data-testid="fields-table">
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
-                    <th scope="col" className="px-3 py-2">Field</th>
-                    <th scope="col" className="px-3 py-2">{labels.a}</th>
-                    <th scope="col" className="px-3 py-2">{labels.b}</th>
+                    <th scope="col" className="w-1/3 min-w-32 px-3 py-2">Field</th>
+                    <th scope="col" className="px-3 py-2">A</th>
+                    <th scope="col" className="px-3 py-2">B</th>
                   </tr>
                 </thead>
                 {SETUP_SECTIONS.map((section) => {
