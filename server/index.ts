@@ -4,6 +4,7 @@ import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
 import { createDocumentListener } from './lib/document-listener';
+import { createStorage } from './lib/storage';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
@@ -16,7 +17,7 @@ async function main() {
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();
-  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener };
+  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage) };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {

@@ -4,6 +4,8 @@ import { RouteError } from './routes/route-error';
 
 /** Every page is its own chunk, so readers never download editor, diff or admin code. */
 export const router = createBrowserRouter([
+  // The printable setup sheet has no site chrome at all.
+  { path: 'guides/:slug/setup/print', errorElement: <RouteError />, lazy: () => import('./routes/guide-setup-print').then((m) => ({ Component: m.GuideSetupPrintPage })) },
   {
     element: <AppLayout />,
     errorElement: <RouteError />,
@@ -16,6 +18,9 @@ export const router = createBrowserRouter([
       { path: 'reset-password', lazy: () => import('./routes/auth-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
       { path: 'account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountPage })) },
       { path: 'admin/users', lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
+      { path: 'setups', lazy: () => import('./routes/setups').then((m) => ({ Component: m.SetupsPage })) },
+      { path: 'setups/compare', lazy: () => import('./routes/setups-compare').then((m) => ({ Component: m.SetupsComparePage })) },
+      { path: 'setups/new', lazy: () => import('./routes/setups-new').then((m) => ({ Component: m.SetupsNewPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },
     ],
