@@ -1,0 +1,37 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { chromium, type Browser, type LaunchOptions } from 'playwright-core';
+
+/** Flags that keep headless Chromium quiet and offline (see architecture.md). */
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
+
+/** The system Chromium, driven by playwright-core (never a downloaded browser). */
+export function launchBrowser(opts: LaunchOptions = {}): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    ...opts,
+    args: [...CHROMIUM_ARGS, ...(opts.args ?? [])],
+  });
+}
+
+/** Where a screenshot named `name` (without .png) goes: .test-artifacts/screenshots/, created on demand. */
+export function screenshotPath(name: string): string {
+  const dir = path.resolve(process.cwd(), '.test-artifacts', 'screenshots');
+  fs.mkdirSync(dir, { recursive: true });
+  return path.join(dir, `${name.replace(/[^a-z0-9._-]+/gi, '-')}.png`);
+}
+
+/** Common viewports: a laptop and a 375 px phone. */
+export const VIEWPORTS = {
+  desktop: { width: 1280, height: 900 },
+  phone: { width: 375, height: 780 },
+} as const;
