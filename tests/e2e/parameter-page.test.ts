@@ -93,6 +93,26 @@ describe('parameter page /parameters/ramped-advance', () => {
     await page.close();
   });
 
+  it('shows a broken worked-example block as a message in the card naming the field; the rest of the page still works', async () => {
+    // A live revision whose block has a typo'd key and a bad value, as a careless edit could publish it.
+    const bad = '```worked-example\ncalc: gearing\nspur: 84\npinnion: 40\ninternalRatio: 1.9\ntyreDiameterMm: huge\n```';
+    await server.t.db.dataSource.query(
+      `UPDATE revisions r SET content = jsonb_set(r.content, '{body}', to_jsonb((r.content->>'body') || E'\n\n' || $1::text))
+         FROM documents d WHERE d.published_revision_id = r.id AND d.slug = 'rollout'`,
+      [bad],
+    );
+    const { page, errors } = await openPage('/parameters/rollout');
+    const broken = page.locator('[data-worked-example]').filter({ hasText: 'cannot be computed' });
+    await broken.waitFor();
+    expect(await broken.locator('[data-block-issue="pinnion"]').innerText()).toMatch(/Did you mean "pinion"/);
+    expect(await broken.locator('[data-block-issue="tyreDiameterMm"]').innerText()).toMatch(/Tyre diameter must be a number/);
+    // The entry's good example above it still computes.
+    await page.locator('[data-worked-example] [data-result="rolloutMm"]').first().waitFor();
+    await broken.screenshot({ path: screenshotPath('worked-example-broken-block') });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
   it('shows a broken example as a message naming the field (calculator page: bad query value)', async () => {
     const { page, errors } = await openPage('/calculators/pack?chemistry=lipo&cells=two&cutoffPerCellV=3.2');
     await expect.poll(() => page.locator('[data-field-error="cells"]').innerText()).toMatch(/Cells must be a number/);

@@ -109,7 +109,13 @@ describe('POST /api/calc/:name', () => {
 
   it('top-speed: 4000 kV on 8.4 V through 3.99:1 on 64 mm tyres', async () => {
     const { results, warnings } = await runGood('top-speed', {
-      kv: 4000, volts: 8.4, spur: 84, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64, loadFactor: 1,
+      kv: 4000,
+      volts: 8.4,
+      spur: 84,
+      pinion: 40,
+      internalRatio: 1.9,
+      tyreDiameterMm: 64,
+      loadFactor: 1,
     });
     expect(results.noLoadKmh).toBeCloseTo(101.59, 2); // REFERENCES.md gearing checks (33,600 rpm, no-load)
     expect(Math.abs(results.noLoadMph - 63.12)).toBeLessThan(0.01); // REFERENCES.md (63.12 mph, rounded there)
@@ -124,7 +130,13 @@ describe('POST /api/calc/:name', () => {
 
   it('timing-curve: half-way up a 30° ramp over 10k–30k rpm is 15°; endbell degrees × pole pairs', async () => {
     const { results } = await runGood('timing-curve', {
-      baseDeg: 0, rampDeg: 30, rampStartRpm: 10000, rampEndRpm: 30000, atRpm: 20000, endbellDeg: 10, poles: 4,
+      baseDeg: 0,
+      rampDeg: 30,
+      rampStartRpm: 10000,
+      rampEndRpm: 30000,
+      atRpm: 20000,
+      endbellDeg: 10,
+      poles: 4,
     });
     expect(results.totalDegAt).toBe(15); // REFERENCES.md "Timing advance" linear-ramp model (from memory)
     expect(results.endbellElectricalDeg).toBe(20); // mechanical × pole pairs = electrical (REFERENCES.md)

@@ -1,9 +1,4 @@
-import type {
-  ParameterDetail,
-  ParameterGuideRef,
-  ParameterLiveRevision,
-  ParameterSummary,
-} from '../../../shared/schemas/parameter';
+import type { ParameterDetail, ParameterGuideRef, ParameterLiveRevision, ParameterSummary } from '../../../shared/schemas/parameter';
 import type { LiveParameter } from './service';
 
 export function presentParameterSummary(p: LiveParameter): ParameterSummary {

@@ -1,10 +1,6 @@
 import { z } from 'zod';
 import { slugParam } from '../../../shared/schemas/common';
-import {
-  parameterDetailSchema,
-  parameterLiveRevisionSchema,
-  parameterSummarySchema,
-} from '../../../shared/schemas/parameter';
+import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySchema } from '../../../shared/schemas/parameter';
 import { defineRoute } from '../../lib/route';
 import { presentLiveRevision, presentParameterDetail, presentParameterSummary } from './presenter';
 import { parametersService } from './service';

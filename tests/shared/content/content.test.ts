@@ -35,7 +35,9 @@ describe('content: worked-example blocks', () => {
       for (const block of workedExampleBlocks(fs.readFileSync(file, 'utf8'))) {
         const result = parseWorkedExample(block.body);
         if (!result.ok) {
-          failures.push(`${path.relative(CONTENT_DIR, file)}:${block.line}: ${result.issues.map((i) => `${i.path || '(block)'}: ${i.message}`).join('; ')}`);
+          failures.push(
+            `${path.relative(CONTENT_DIR, file)}:${block.line}: ${result.issues.map((i) => `${i.path || '(block)'}: ${i.message}`).join('; ')}`,
+          );
         }
       }
     }
@@ -45,10 +47,13 @@ describe('content: worked-example blocks', () => {
   it('an entry with a calculator has a worked example for that calculator', () => {
     const missing = readParameterFiles()
       .filter((p) => p.content.calculator)
-      .filter((p) => !workedExampleBlocks(p.content.body).some((b) => {
-        const r = parseWorkedExample(b.body);
-        return r.ok && r.calc === p.content.calculator;
-      }))
+      .filter(
+        (p) =>
+          !workedExampleBlocks(p.content.body).some((b) => {
+            const r = parseWorkedExample(b.body);
+            return r.ok && r.calc === p.content.calculator;
+          }),
+      )
       .map((p) => p.slug);
     expect(missing).toEqual([]);
   });
@@ -63,7 +68,9 @@ describe('content: links between entries', () => {
   });
 
   it('every guide parameters: slug is an entry', () => {
-    const broken = readGuideDirs().flatMap((g) => g.revisions.flatMap((r) => r.content.parameters.filter((s) => !slugs.has(s)).map((s) => `${g.slug} v${r.number} → ${s}`)));
+    const broken = readGuideDirs().flatMap((g) =>
+      g.revisions.flatMap((r) => r.content.parameters.filter((s) => !slugs.has(s)).map((s) => `${g.slug} v${r.number} → ${s}`)),
+    );
     expect(broken).toEqual([]);
   });
 
@@ -79,6 +86,10 @@ describe('content: links between entries', () => {
   });
 
   it('every entry has a Cautions section', () => {
-    expect(readParameterFiles().filter((p) => !/^## Cautions\s*$/m.test(p.content.body)).map((p) => p.slug)).toEqual([]);
+    expect(
+      readParameterFiles()
+        .filter((p) => !/^## Cautions\s*$/m.test(p.content.body))
+        .map((p) => p.slug),
+    ).toEqual([]);
   });
 });

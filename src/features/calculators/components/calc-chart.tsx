@@ -31,13 +31,47 @@ function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
     <ResponsiveContainer width="100%" height={260}>
       <LineChart data={points} margin={{ top: 12, right: 16, bottom: 22, left: 4 }}>
         <CartesianGrid stroke={GRID} strokeDasharray="3 3" />
-        <XAxis dataKey="rpm" type="number" domain={[0, end]} ticks={niceTicks(end)} tickFormatter={rpmTick} tick={AXIS} label={{ value: 'Motor speed (rpm)', position: 'insideBottom', offset: -12, ...AXIS }} />
-        <YAxis tick={AXIS} width={44} allowDecimals={false} label={{ value: 'Timing (°)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }} />
-        <Tooltip formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })}°`} labelFormatter={(l) => `${Number(l).toLocaleString('en-GB')} rpm`} />
+        <XAxis
+          dataKey="rpm"
+          type="number"
+          domain={[0, end]}
+          ticks={niceTicks(end)}
+          tickFormatter={rpmTick}
+          tick={AXIS}
+          label={{ value: 'Motor speed (rpm)', position: 'insideBottom', offset: -12, ...AXIS }}
+        />
+        <YAxis
+          tick={AXIS}
+          width={44}
+          allowDecimals={false}
+          label={{ value: 'Timing (°)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }}
+        />
+        <Tooltip
+          formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })}°`}
+          labelFormatter={(l) => `${Number(l).toLocaleString('en-GB')} rpm`}
+        />
         {hasStep && <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />}
-        {at !== undefined && <ReferenceLine x={at} stroke={INK_FAINT} strokeDasharray="4 3" label={{ value: `${rpmTick(at)} rpm`, position: 'insideTopLeft', ...AXIS }} />}
+        {at !== undefined && (
+          <ReferenceLine
+            x={at}
+            stroke={INK_FAINT}
+            strokeDasharray="4 3"
+            label={{ value: `${rpmTick(at)} rpm`, position: 'insideTopLeft', ...AXIS }}
+          />
+        )}
         <Line type="linear" dataKey="deg" name="Throttle below full" stroke={COPPER} strokeWidth={2.5} dot={false} isAnimationActive={false} />
-        {hasStep && <Line type="linear" dataKey="fullThrottleDeg" name="Full throttle, after the delay" stroke={INK} strokeWidth={2} strokeDasharray="6 4" dot={false} isAnimationActive={false} />}
+        {hasStep && (
+          <Line
+            type="linear"
+            dataKey="fullThrottleDeg"
+            name="Full throttle, after the delay"
+            stroke={INK}
+            strokeWidth={2}
+            strokeDasharray="6 4"
+            dot={false}
+            isAnimationActive={false}
+          />
+        )}
       </LineChart>
     </ResponsiveContainer>
   );
@@ -50,8 +84,21 @@ function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
     <ResponsiveContainer width="100%" height={260}>
       <LineChart data={points} margin={{ top: 12, right: 16, bottom: 22, left: 4 }}>
         <CartesianGrid stroke={GRID} strokeDasharray="3 3" />
-        <XAxis dataKey="inputPct" type="number" domain={[0, 100]} ticks={[0, 25, 50, 75, 100]} tick={AXIS} label={{ value: 'Stick travel (%)', position: 'insideBottom', offset: -12, ...AXIS }} />
-        <YAxis domain={[0, 100]} ticks={[0, 25, 50, 75, 100]} tick={AXIS} width={44} label={{ value: 'Output (%)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }} />
+        <XAxis
+          dataKey="inputPct"
+          type="number"
+          domain={[0, 100]}
+          ticks={[0, 25, 50, 75, 100]}
+          tick={AXIS}
+          label={{ value: 'Stick travel (%)', position: 'insideBottom', offset: -12, ...AXIS }}
+        />
+        <YAxis
+          domain={[0, 100]}
+          ticks={[0, 25, 50, 75, 100]}
+          tick={AXIS}
+          width={44}
+          label={{ value: 'Output (%)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }}
+        />
         <Tooltip formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`} labelFormatter={(l) => `${l} % stick`} />
         <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />
         {at !== undefined && <ReferenceLine x={at} stroke={INK_FAINT} strokeDasharray="4 3" />}
@@ -72,7 +119,10 @@ function GearingChart({ results, inputs }: Omit<Props, 'name'>) {
         <XAxis dataKey="pinion" tick={AXIS} label={{ value: 'Pinion (teeth)', position: 'insideBottom', offset: -12, ...AXIS }} />
         <YAxis tick={AXIS} width={44} label={{ value: 'Rollout (mm)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }} />
         <Tooltip
-          formatter={(v, _n, item) => [`${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} mm (FDR ${(item.payload as { finalDriveRatio: number }).finalDriveRatio.toFixed(2)})`, 'Rollout']}
+          formatter={(v, _n, item) => [
+            `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} mm (FDR ${(item.payload as { finalDriveRatio: number }).finalDriveRatio.toFixed(2)})`,
+            'Rollout',
+          ]}
           labelFormatter={(l) => `${l}-tooth pinion`}
         />
         <Bar dataKey="rolloutMm" name="Rollout" isAnimationActive={false}>

@@ -19,9 +19,7 @@ export function CalculatorIndex() {
                   <span className="font-semibold text-ink-soft">Inputs: </span>
                   {calc.fields.map((f) => (f.unit && f.kind === 'number' ? `${f.label} (${unitLabel(f.unit)})` : f.label)).join(' · ')}
                 </p>
-                <p className="mt-auto pt-3 text-sm font-medium text-copper-dark">
-                  Open {hasChart(name) ? 'with chart ' : ''}→
-                </p>
+                <p className="mt-auto pt-3 text-sm font-medium text-copper-dark">Open {hasChart(name) ? 'with chart ' : ''}→</p>
               </Card>
             </Link>
           </li>

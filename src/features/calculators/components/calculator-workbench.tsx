@@ -57,7 +57,13 @@ export function CalculatorWorkbench({ name }: { name: string }) {
   if (!calculator) return null;
   return (
     <Card className="p-4 sm:p-6">
-      <CalcErrorBoundary fallback={(e) => <Notice tone="danger" title="This calculator hit a snag">{e.message}</Notice>}>
+      <CalcErrorBoundary
+        fallback={(e) => (
+          <Notice tone="danger" title="This calculator hit a snag">
+            {e.message}
+          </Notice>
+        )}
+      >
         <CalculatorPanel
           name={name}
           values={values}

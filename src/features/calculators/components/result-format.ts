@@ -39,8 +39,19 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
       ];
     case 'top-speed':
       return [
-        { key: 'loadedKmh', label: 'Estimated top speed', value: `${num(r.loadedKmh, 1)} km/h`, note: `${num(r.loadedMph, 1)} mph at ${num(r.loadedRpm, 0)} rpm`, primary: true },
-        { key: 'noLoadKmh', label: 'No-load speed', value: `${num(r.noLoadKmh, 1)} km/h`, note: `${num(r.noLoadMph, 1)} mph at ${num(r.noLoadRpm, 0)} rpm` },
+        {
+          key: 'loadedKmh',
+          label: 'Estimated top speed',
+          value: `${num(r.loadedKmh, 1)} km/h`,
+          note: `${num(r.loadedMph, 1)} mph at ${num(r.loadedRpm, 0)} rpm`,
+          primary: true,
+        },
+        {
+          key: 'noLoadKmh',
+          label: 'No-load speed',
+          value: `${num(r.noLoadKmh, 1)} km/h`,
+          note: `${num(r.noLoadMph, 1)} mph at ${num(r.noLoadRpm, 0)} rpm`,
+        },
         { key: 'finalDriveRatio', label: 'Final drive ratio', value: `${num(r.finalDriveRatio, 3)} : 1` },
       ];
     case 'timing-curve': {
@@ -48,7 +59,12 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
       if (has(r, 'totalDegAt')) {
         lines.push({ key: 'totalDegAt', label: `Timing at ${num(Number(inputs.atRpm), 0)} rpm`, value: `${num(r.totalDegAt, 1)}°`, primary: true });
         if (Number(r.stepDeg) > 0) {
-          lines.push({ key: 'totalDegAtFullThrottle', label: 'Same speed, full throttle held', value: `${num(r.totalDegAtFullThrottle, 1)}°`, note: `after ${num(r.stepDelayS ?? 0, 2)} s` });
+          lines.push({
+            key: 'totalDegAtFullThrottle',
+            label: 'Same speed, full throttle held',
+            value: `${num(r.totalDegAtFullThrottle, 1)}°`,
+            note: `after ${num(r.stepDelayS ?? 0, 2)} s`,
+          });
         }
       }
       lines.push({ key: 'maxTotalDeg', label: 'Most the controller adds', value: `${num(r.maxTotalDeg, 1)}°`, primary: !has(r, 'totalDegAt') });
@@ -80,7 +96,12 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
     case 'throttle': {
       const lines: ResultLine[] = [];
       if (has(r, 'outputPctAt')) {
-        lines.push({ key: 'outputPctAt', label: `Output at ${num(Number(inputs.inputPct), 0)} % stick`, value: `${num(r.outputPctAt, 1)} %`, primary: true });
+        lines.push({
+          key: 'outputPctAt',
+          label: `Output at ${num(Number(inputs.inputPct), 0)} % stick`,
+          value: `${num(r.outputPctAt, 1)} %`,
+          primary: true,
+        });
       }
       lines.push({ key: 'rampTimeMs', label: 'Punch: 0 to full output', value: `${num(r.rampTimeMs, 0)} ms`, primary: true });
       if (has(r, 'rampTimeToOutputMs')) {
@@ -94,7 +115,12 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
         { key: 'justPastNeutralPct', label: 'Just past neutral', value: `${num(r.justPastNeutralPct, 0)} %` },
       ];
       if (has(r, 'brakeAtStickPct')) {
-        lines.push({ key: 'brakeAtStickPct', label: `At ${num(Number(inputs.brakeStickPct), 0)} % brake stick`, value: `${num(r.brakeAtStickPct, 1)} %`, primary: true });
+        lines.push({
+          key: 'brakeAtStickPct',
+          label: `At ${num(Number(inputs.brakeStickPct), 0)} % brake stick`,
+          value: `${num(r.brakeAtStickPct, 1)} %`,
+          primary: true,
+        });
       }
       lines.push({ key: 'neutralFeel', label: 'Off-throttle feel', value: String(r.neutralFeel ?? '') });
       return lines;

@@ -10,7 +10,11 @@ import { CalculatorPanel } from './calculator-panel';
 
 function CardShell({ title, calcName, children }: { title: string; calcName?: string; children: ReactNode }) {
   return (
-    <section className="not-prose my-6 rounded-lg border border-copper/35 bg-paper-card font-sans shadow-[0_1px_0_rgba(29,42,68,0.06)]" aria-label={`Worked example: ${title}`} data-worked-example>
+    <section
+      className="not-prose my-6 rounded-lg border border-copper/35 bg-paper-card font-sans shadow-[0_1px_0_rgba(29,42,68,0.06)]"
+      aria-label={`Worked example: ${title}`}
+      data-worked-example
+    >
       <header className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1 rounded-t-lg border-b border-copper/25 bg-copper-wash/60 px-4 py-2">
         <h3 className="m-0 flex flex-wrap items-baseline gap-x-2 font-sans text-[0.95rem] font-semibold text-ink">
           <span className="text-[0.7rem] font-semibold tracking-[0.14em] text-copper-dark uppercase">Worked example</span>
@@ -50,7 +54,10 @@ function LiveCard({ calc, initial }: { calc: string; initial: CalcValues }) {
   const calculator = getCalculator(calc)!;
   const [values, setValues] = useState(initial);
   // Optional inputs the example leaves out wait under "More inputs", so the card shows what the text talks about.
-  const primaryKeys = useMemo(() => new Set(calculator.fields.filter((f) => !f.optional || initial[f.key] !== '').map((f) => f.key)), [calculator, initial]);
+  const primaryKeys = useMemo(
+    () => new Set(calculator.fields.filter((f) => !f.optional || initial[f.key] !== '').map((f) => f.key)),
+    [calculator, initial],
+  );
   const changed = useMemo(() => Object.keys(initial).some((k) => initial[k] !== values[k]), [initial, values]);
   const handleChange = useCallback((key: string, value: string) => setValues((v) => ({ ...v, [key]: value })), []);
   return (

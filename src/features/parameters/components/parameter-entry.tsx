@@ -107,8 +107,20 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
           </Markdown>
           {cautions && (
             <section aria-labelledby="cautions-heading" className="mt-8">
-              <Notice tone="caution" title={<span id="cautions-heading" className="text-base">Cautions</span>} className="px-5 py-4">
-                <Markdown resolveHref={resolveParameterHref} className="font-serif text-[0.97rem] leading-7 text-ink [&_a]:font-medium [&_li]:my-1.5 [&_p]:my-2 [&_ul]:my-1 [&_ul]:list-disc [&_ul]:pl-5">
+              <Notice
+                tone="caution"
+                title={
+                  <span id="cautions-heading" className="text-base">
+                    Cautions
+                  </span>
+                }
+                className="px-5 py-4"
+              >
+                <Markdown
+                  renderWorkedExample={renderWorkedExample}
+                  resolveHref={resolveParameterHref}
+                  className="font-serif text-[0.97rem] leading-7 text-ink [&_a]:font-medium [&_li]:my-1.5 [&_p]:my-2 [&_ul]:my-1 [&_ul]:list-disc [&_ul]:pl-5"
+                >
                   {cautions}
                 </Markdown>
               </Notice>
@@ -163,8 +175,8 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
           )}
           <p className="border-t border-paper-line pt-3 text-xs leading-5 text-ink-muted">
             Live version {revision.number}
-            {revision.publishedAt && <> · published {dateFmt.format(new Date(revision.publishedAt))}</>} · by {revision.author.displayName}. Every change
-            to this entry is reviewed by a moderator before it goes live.
+            {revision.publishedAt && <> · published {dateFmt.format(new Date(revision.publishedAt))}</>} · by {revision.author.displayName}. Every
+            change to this entry is reviewed by a moderator before it goes live.
           </p>
         </aside>
       </div>

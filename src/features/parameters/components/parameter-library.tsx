@@ -16,7 +16,12 @@ import { CATEGORY_INFO, displayUnit, formatRange } from './parameter-format';
 
 const col = createColumnHelper<ParameterSummary>();
 const categoryRank = (c: string) => PARAMETER_CATEGORIES.indexOf(c as (typeof PARAMETER_CATEGORIES)[number]);
-const fold = (s: string) => s.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, ' ').trim();
+const fold = (s: string) =>
+  s
+    .toLowerCase()
+    .normalize('NFKD')
+    .replace(/[^a-z0-9]+/g, ' ')
+    .trim();
 
 /** Matches every word of the filter against name, aliases (misspellings included), unit, category and summary. */
 const matchesEntry: FilterFn<ParameterSummary> = (row, _columnId, value: string) => {
@@ -119,7 +124,11 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
       {grouped && !filter && (
         <nav aria-label="Categories" className="flex flex-wrap gap-1.5">
           {PARAMETER_CATEGORIES.filter((c) => counts.get(c)).map((c) => (
-            <a key={c} href={`#category-${c}`} className="rounded-full border border-paper-line bg-paper-card px-2.5 py-0.5 text-xs font-medium text-ink no-underline hover:border-copper/50">
+            <a
+              key={c}
+              href={`#category-${c}`}
+              className="rounded-full border border-paper-line bg-paper-card px-2.5 py-0.5 text-xs font-medium text-ink no-underline hover:border-copper/50"
+            >
               {CATEGORY_INFO[c].label} <span className="text-ink-muted">{counts.get(c)}</span>
             </a>
           ))}
@@ -128,9 +137,7 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
 
       <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
         <table className="w-full border-collapse text-left text-sm">
-          <caption className="sr-only">
-            Parameter library{grouped ? ', grouped by category' : ''}. Column headers sort the table.
-          </caption>
+          <caption className="sr-only">Parameter library{grouped ? ', grouped by category' : ''}. Column headers sort the table.</caption>
           <thead>
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id} className="border-b-2 border-ink/25 bg-paper-deep">
@@ -143,7 +150,11 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
                       className={`px-3 py-2 font-semibold ${narrowHidden(h.id)} ${h.id === 'name' ? 'w-[58%]' : ''}`}
                     >
-                      <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded text-left text-ink hover:text-copper-dark">
+                      <button
+                        type="button"
+                        onClick={h.column.getToggleSortingHandler()}
+                        className="inline-flex items-center gap-1 rounded text-left text-ink hover:text-copper-dark"
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <span aria-hidden className={`text-xs ${sorted ? 'text-copper' : 'text-ink-faint'}`}>
                           {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
