@@ -24,6 +24,11 @@ const PAGES = [
   { name: 'calculators', path: '/calculators', ready: 'main li a' },
   { name: 'calculator-pack', path: '/calculators/pack', ready: '[data-result="fullV"]' },
   { name: 'calculator-gearing', path: '/calculators/gearing', ready: '[data-chart] .recharts-bar-rectangle' },
+  {
+    name: 'calculator-timing-full-throttle',
+    path: '/calculators/timing-curve?baseDeg=5&rampDeg=20&rampStartRpm=10000&rampEndRpm=30000&atRpm=20000&stepDeg=10&stepDelayS=0.3',
+    ready: '[data-chart] .recharts-line:nth-of-type(2) path.recharts-curve',
+  },
   { name: 'calculator-throttle', path: '/calculators/throttle', ready: '[data-chart] path.recharts-curve' },
 ] as const;
 
