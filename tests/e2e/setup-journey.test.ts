@@ -14,7 +14,7 @@ let browser: Browser;
 let work: string;
 
 beforeAll(async () => {
-  server = await start({ seedContent: true });
+  server = await start();
   browser = await launchBrowser();
   work = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-setup-journey-'));
 });
