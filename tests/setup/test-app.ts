@@ -21,7 +21,7 @@ export type TestApp = {
 };
 
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
-export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean } = {}): Promise<TestApp> {
+export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean } = {}): Promise<TestApp> {
   const db = await createTestDatabase();
   const catcher = opts.catcher === false ? null : await startMailCatcher({ dataSource: db.dataSource, port: 0 });
   const config: Config = loadConfig({
@@ -37,7 +37,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
   const logger = createLogger(config.logLevel);
   const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger };
-  const created = createApp(ctx, { serveClient: false });
+  const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
     ctx,
