@@ -4,6 +4,7 @@ import { loadConfig, type Config } from '../../server/config/env';
 import { createApp } from '../../server/app';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer, type Mailer } from '../../server/lib/mailer';
+import { createDocumentListener } from '../../server/lib/document-listener';
 import { startMailCatcher } from '../../server/lib/mail-catcher';
 import { CapturedMailEntity } from '../../server/modules/dev-mail/captured-mail.entity';
 import type { AppContext } from '../../server/context';
@@ -36,7 +37,9 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
   });
   const logger = createLogger(config.logLevel);
   const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger };
+  const documentListener = createDocumentListener({ connectionString: db.url, logger, minRetryMs: 50, maxRetryMs: 500 });
+  await documentListener.start();
+  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger, documentListener };
   const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
@@ -57,6 +60,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     },
     async close() {
       await mailer.stop();
+      await documentListener.close();
       await created.close();
       if (catcher) await catcher.close();
       await db.drop();
