@@ -75,7 +75,7 @@ export function ParameterPicker({ label, options, value, onChange, exclude }: { 
             </ul>
           </div>
         ))}
-        {options.length === 0 && <p className="text-sm text-ink-muted">The parameter library is loading…</p>}
+        {options.length === 0 && <p className="text-sm text-ink-muted">The parameter library is not available right now; you can add these later.</p>}
       </div>
       {unknown.length > 0 && <p className="text-xs text-caution">Not in the library: {unknown.join(', ')}</p>}
     </fieldset>
