@@ -101,8 +101,10 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
             {rows.map((r) => (
               <tr key={r.id} className={`border-b border-paper-line align-top ${r.number === currentNumber ? 'bg-copper-wash/50' : ''}`}>
                 <th scope="row" className="px-3 py-2 text-left font-semibold whitespace-nowrap">
-                  <Link to={`/guides/${slug}/v/${r.number}`} aria-label={`Version ${r.number}`}>
-                    v{r.number}
+                  <Link to={`/guides/${slug}/v/${r.number}`}>
+                    <span aria-hidden>v</span>
+                    <span className="sr-only">Version </span>
+                    {r.number}
                   </Link>
                 </th>
                 <td className="px-3 py-2">
