@@ -42,7 +42,7 @@ export default function MarkdownEditor({ id, value, onChange, renderWorkedExampl
         value={value}
         onChange={(v) => onChange(v ?? '')}
         height={520}
-        preview="live"
+        preview={typeof window !== 'undefined' && window.matchMedia('(min-width: 768px)').matches ? 'live' : 'edit'}
         visibleDragbar
         textareaProps={{ id, 'aria-describedby': describedBy, spellCheck: true, placeholder: 'Write the guide in Markdown: ## headings, lists, tables and ```worked-example blocks.' }}
         previewOptions={{ rehypePlugins: [[rehypeSanitize]] }}
