@@ -1,6 +1,13 @@
 import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { AppLayout } from '@/components/layout/app-layout';
+import { prefetchGuide } from '@/features/guides/api/guides';
 import { RouteError } from './routes/route-error';
+
+// Loaders run alongside the lazy page chunks: the guide request starts at once instead of after them.
+const guideLoader = ({ params }: { params: { slug?: string } }) => {
+  if (params.slug) prefetchGuide(params.slug);
+  return null;
+};
 
 /** Every page is its own chunk, so readers never download editor, diff or admin code. */
 export const router = createBrowserRouter([
@@ -18,8 +25,8 @@ export const router = createBrowserRouter([
       { path: 'admin/users', lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
       { path: 'guides', lazy: () => import('./routes/guides').then((m) => ({ Component: m.GuidesPage })) },
       { path: 'guides/new', lazy: () => import('./routes/editor').then((m) => ({ Component: m.GuideNewPage })) },
-      { path: 'guides/:slug', lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
-      { path: 'guides/:slug/v/:n', lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
+      { path: 'guides/:slug', loader: guideLoader, lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
+      { path: 'guides/:slug/v/:n', loader: guideLoader, lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
       { path: 'guides/:slug/compare', lazy: () => import('./routes/guide-compare').then((m) => ({ Component: m.GuideComparePage })) },
       { path: 'guides/:slug/edit', lazy: () => import('./routes/editor').then((m) => ({ Component: m.GuideEditPage })) },
       { path: 'parameters/:slug/edit', lazy: () => import('./routes/editor').then((m) => ({ Component: m.ParameterEditPage })) },

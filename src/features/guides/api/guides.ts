@@ -27,6 +27,22 @@ export type GuideFilters = { class?: string; surface?: string; parameter?: strin
 
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
 
+type GuideDetail = { guide: GuideRecord; revision: GuideRevision };
+const fetchDetail = async (slug: string) => (await api.get<Envelope<GuideDetail>>(`/api/guides/${encodeURIComponent(slug)}`)).data;
+const early = new Map<string, Promise<GuideDetail>>();
+
+/**
+ * Starts loading a guide while its page code is still downloading (the route loader calls it), so the
+ * request does not wait for the chunks; the detail query picks the answer up once.
+ */
+export function prefetchGuide(slug: string) {
+  if (!early.has(slug)) {
+    const p = fetchDetail(slug);
+    p.catch(() => early.delete(slug)); // a failure is retried by the query itself
+    early.set(slug, p);
+  }
+}
+
 /** Query-option factories for guides (keys general → specific). */
 export const guideQueries = {
   all: () => ['guides'] as const,
@@ -40,7 +56,11 @@ export const guideQueries = {
   detail: (slug: string) =>
     queryOptions({
       queryKey: [...guideQueries.all(), 'detail', slug] as const,
-      queryFn: async () => (await api.get<Envelope<{ guide: GuideRecord; revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}`)).data,
+      queryFn: () => {
+        const pending = early.get(slug);
+        early.delete(slug);
+        return pending ?? fetchDetail(slug);
+      },
     }),
   revisions: (slug: string) =>
     queryOptions({
