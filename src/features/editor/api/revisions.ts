@@ -1,46 +1,12 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { DocumentKind } from '@shared/constants';
-import type { Revision } from '@shared/schemas/revision';
-import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
-import type { FieldConflict, MergeRegion } from '../lib/merge';
+import type { DocumentStatus, MyRevision, RebaseResult, Revision } from '@shared/schemas/revision';
+import { api, ApiError, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
 /** The fields an author edits, for either kind (validated by the kind's content schema on the server). */
 export type EditableContent = Record<string, unknown> & { body: string };
 
-/**
- * The three-way merge the server computes when the live revision moved on under a draft: `merged`
- * holds the full content with every conflict resolved in the draft's favour.
- */
-export type RebaseResult = {
-  merged: Record<string, unknown>;
-  conflicts: FieldConflict[];
-  bodyRegions: MergeRegion[];
-  currentRevisionId: string;
-  currentNumber: number;
-  stale: boolean;
-};
-
-/** One of the signed-in member's revisions, as the workbench lists them. */
-export type MyRevision = {
-  id: string;
-  kind: DocumentKind;
-  slug: string;
-  title: string;
-  number: number;
-  state: Revision['state'];
-  note: string;
-  reason: string | null;
-  baseRevisionId: string | null;
-  baseNumber: number | null;
-  stale: boolean;
-  createdAt: string;
-  updatedAt: string;
-  submittedAt: string | null;
-  publishedAt: string | null;
-};
-
-/** Where a revision's document stands now, so the editor can tell whether its base went stale. */
-export type DocumentStatus = { kind: DocumentKind; slug: string; publishedRevisionId: string | null; publishedNumber: number | null; hidden: boolean };
+export type { DocumentStatus, MyRevision, RebaseResult };
 
 const plural = (kind: DocumentKind) => (kind === 'guide' ? 'guides' : 'parameters');
 
@@ -57,11 +23,17 @@ export const revisionQueries = {
       queryKey: [...revisionQueries.all(), 'detail', id] as const,
       queryFn: async () => (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus }>>(`/api/revisions/${id}`)).data,
     }),
-  /** The live revision a proposal starts from. */
+  /** The live revision a proposal starts from (read through the history, which both kinds share). */
   live: (kind: DocumentKind, slug: string) =>
     queryOptions({
       queryKey: [...revisionQueries.all(), 'live', kind, slug] as const,
-      queryFn: async () => (await api.get<Envelope<{ revision: Revision }>>(`/api/${plural(kind)}/${encodeURIComponent(slug)}`)).data.revision,
+      queryFn: async () => {
+        const base = `/api/${plural(kind)}/${encodeURIComponent(slug)}`;
+        const history = (await api.get<ListEnvelope<{ number: number; state: Revision['state'] }>>(`${base}/revisions`)).data;
+        const live = history.find((h) => h.state === 'published');
+        if (!live) throw new ApiError(404, 'not_found', 'This has no live version yet.');
+        return (await api.get<Envelope<{ revision: Revision }>>(`${base}/revisions/${live.number}`)).data.revision;
+      },
     }),
 };
 

@@ -1,45 +1,18 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CalcWarning } from '@shared/calc/types';
-import type { Revision } from '@shared/schemas/revision';
-import type { FieldChange, WordChange } from '@/components/diff/word-diff-view';
+import type { ReviewDetail as SharedReviewDetail, ReviewItem, Revision, WorkedExampleCheck } from '@shared/schemas/revision';
 import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
+
+export type { ReviewItem, WorkedExampleCheck };
 
 export type ReviewFilters = { kind?: string; class?: string };
 
-/** What the calculators say about one worked example of the proposal (blocks counted from 0). */
-export type WorkedExampleCheck = { index: number; calc: string | null; ok: boolean; issues: Array<{ path: string; message: string }>; warnings: CalcWarning[] };
-
-/** One proposal in the queue; `own` means the signed-in moderator wrote it, `stale` that its base is no longer live. */
-export type ReviewItem = {
-  revisionId: string;
-  kind: 'guide' | 'parameter';
-  slug: string;
-  title: string;
-  number: number;
-  baseNumber: number | null;
-  author: { id: string; displayName: string };
-  submittedAt: string | null;
-  note: string;
-  class: string | null;
-  own: boolean;
-  stale: boolean;
-};
 
 /** One changed field of the attached setup record. */
 export type SetupChange = { path: string; label?: string; from: unknown; to: unknown; unit?: string };
 
-/** Everything a moderator needs to decide on a proposal. */
-export type ReviewDetail = {
-  revision: Revision;
-  live: Revision | null;
-  bodyDiff: WordChange[];
-  changedFields: FieldChange[];
-  workedExamples: WorkedExampleCheck[];
-  own: boolean;
-  stale: boolean;
-  setupChanges?: SetupChange[] | null;
-  setupWarnings?: CalcWarning[] | null;
-};
+/** Everything a moderator needs to decide on a proposal; setup fields arrive once setup records exist. */
+export type ReviewDetail = SharedReviewDetail & { setupChanges?: SetupChange[] | null; setupWarnings?: CalcWarning[] | null };
 
 /** Query-option factories for the review queue (keys general → specific). */
 export const reviewQueries = {
