@@ -67,6 +67,7 @@ async function main() {
       // LCP is final once the page is idle; a short settle lets the last candidate be reported.
       await page.waitForTimeout(300);
       lcps.push(await page.evaluate(() => (window as unknown as { __lcp: number }).__lcp));
+      if (process.env.BENCH_TRACE && run === 0) console.log(await page.evaluate(() => performance.getEntriesByType('resource').map((e) => `${Math.round(e.startTime)}-${Math.round((e as PerformanceResourceTiming).responseEnd)} ${e.name.replace(location.origin, '')}`).join('\n')));
       if (run === 0) scripts = await Promise.all(seen);
       await context.close();
     }
