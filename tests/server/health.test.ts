@@ -11,8 +11,8 @@ import { createMailer } from '../../server/lib/mailer';
 import { createDiskStorage } from '../../server/lib/storage';
 import { createApp } from '../../server/app';
 import type { AppContext } from '../../server/context';
-import type { DataSource } from 'typeorm';
 import { createDocumentListener } from '../../server/lib/document-listener';
+import type { DataSource } from 'typeorm';
 
 // Its own small cluster, so stopping PostgreSQL here does not disturb the other test files.
 let cluster: Cluster;

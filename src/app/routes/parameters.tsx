@@ -4,7 +4,7 @@ import { Link, useLocation, useParams } from 'react-router-dom';
 import { PageHeader, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
-import { WorkedExampleCard } from '@/features/calculators/components/worked-example-card';
+import { renderWorkedExample } from '../worked-example';
 import { parameterQueries } from '@/features/parameters/api/parameters';
 import { ParameterEntry } from '@/features/parameters/components/parameter-entry';
 import { ParameterLibrary } from '@/features/parameters/components/parameter-library';
@@ -62,5 +62,5 @@ export function ParameterPage() {
       </div>
     );
   }
-  return <ParameterEntry key={slug} data={entry.data} renderWorkedExample={(body, i) => <WorkedExampleCard key={i} body={body} />} />;
+  return <ParameterEntry key={slug} data={entry.data} renderWorkedExample={renderWorkedExample} />;
 }

@@ -12,6 +12,7 @@ const NAV: NavItem[] = [
   { to: '/guides', label: 'Guides' },
   { to: '/setups', label: 'Setups' },
   { to: '/calculators', label: 'Calculators' },
+  { to: '/me/revisions', label: 'Workbench', min: 'member' },
   { to: '/review', label: 'Review', min: 'moderator' },
   { to: '/admin/users', label: 'Admin', min: 'admin' },
 ];
