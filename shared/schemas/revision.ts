@@ -115,6 +115,10 @@ export const reviewDetailSchema = z.object({
   changedFields: z.array(changedFieldSchema),
   bodyDiff: z.array(diffPartSchema),
   workedExamples: z.array(workedExampleCheckSchema),
+  /** Changed fields of the attached baseline setup record (null when neither side has one). */
+  setupChanges: z.array(z.object({ path: z.string(), label: z.string(), unit: z.string(), from: z.unknown(), to: z.unknown() })).nullable(),
+  /** Cautions the calculators raise on the proposal's setup record. */
+  setupWarnings: z.array(z.object({ level: z.enum(['info', 'caution', 'danger']), code: z.string(), message: z.string(), field: z.string().optional() })).nullable(),
   own: z.boolean(),
   stale: z.boolean(),
 });

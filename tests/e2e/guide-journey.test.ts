@@ -41,7 +41,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     const rosa = await signedInPage(browser, server.baseUrl, 'rosa');
     const rosaErrors = watchPageErrors(rosa);
     await rosa.goto(`${server.baseUrl}/guides/new`);
-    await rosa.getByLabel('Title').fill(TITLE);
+    await rosa.getByLabel('Title', { exact: true }).fill(TITLE);
     await rosa.getByLabel('Summary').fill('A baseline for the open summer layout: taller gearing, a light drag brake and the heat checks between rounds.');
     await rosa.getByLabel('Class').selectOption('stadium-truck');
     await rosa.getByLabel('Surface').selectOption('clay');
@@ -54,7 +54,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
 
     // A reload keeps everything (the server has the draft).
     await rosa.reload();
-    await expect.poll(() => rosa.getByLabel('Title').inputValue()).toBe(TITLE);
+    await expect.poll(() => rosa.getByLabel('Title', { exact: true }).inputValue()).toBe(TITLE);
 
     await rosa.getByRole('button', { name: 'Submit for review' }).click();
     const dialog = rosa.getByRole('dialog', { name: 'Submit for review' });
@@ -89,7 +89,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await visitor.getByRole('heading', { name: TITLE, level: 1 }).waitFor();
     await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 1, published on .+ by Rosa Kittering/);
     await visitor.getByText('Start with a light drag brake').waitFor();
-    await visitor.getByText(/Worked example · gearing/).waitFor();
+    await visitor.locator('[aria-label^="Worked example"]').first().waitFor();
     const slug = new URL(visitor.url()).pathname.split('/')[2];
 
     // The expert edits it after a re-layout: version 2.

@@ -227,6 +227,8 @@ export const revisionRoutes: RouteDef[] = [
           changedFields: r.changedFields,
           bodyDiff: r.bodyDiff,
           workedExamples: r.workedExamples,
+          setupChanges: r.setupChanges,
+          setupWarnings: r.setupWarnings,
           own: r.own,
           stale: r.stale,
         },

@@ -9,6 +9,9 @@ import { toFieldIssues } from '../../lib/route';
 import { AuditLogEntity } from '../audit/audit-log.entity';
 import { UserEntity } from '../auth/user.entity';
 import { bodyDiff, changedFields, checkWorkedExamples, threeWayMerge } from './compare';
+import { diffSetupFields } from '../../../shared/setup/compare';
+import { computeSetup } from '../../../shared/setup/computed';
+import type { SetupRecord } from '../../../shared/schemas/setup-record';
 import { DocumentEntity } from './document.entity';
 import { reviewRequestMail, publishedMail, returnedMail } from './mail';
 import {
@@ -512,7 +515,16 @@ export function revisionService(ctx: AppContext) {
       // A waiting proposal is judged against what readers see now; one already decided, against its own base.
       const baseRev = rev.state !== 'in_review' && rev.baseRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: rev.baseRevisionId }) : null;
       const before = (rev.state === 'in_review' ? live?.rev.content : baseRev?.content) ?? {};
+      const beforeSetup = ((rev.state === 'in_review' ? live?.rev.setup : baseRev?.setup) ?? null) as SetupRecord | null;
+      const proposedSetup = (rev.setup ?? null) as SetupRecord | null;
       return {
+        setupChanges:
+          beforeSetup || proposedSetup
+            ? diffSetupFields(beforeSetup, proposedSetup)
+                .filter((d) => d.changed)
+                .map((d) => ({ path: d.path, label: d.label, unit: d.unit, from: d.a, to: d.b }))
+            : null,
+        setupWarnings: proposedSetup ? computeSetup(proposedSetup).cautions.filter((c) => c.level !== 'info') : null,
         view: v,
         live,
         changedFields: changedFields(before, rev.content),

@@ -2,13 +2,61 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import type { DocumentKind } from '@shared/constants';
 import type { Revision } from '@shared/schemas/revision';
-import { PageHeader, Spinner } from '@/components/ui/card';
+import { Card, PageHeader, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { RequireRole } from '@/components/layout/guards';
 import { guideQueries } from '@/features/guides/api/guides';
 import { revisionQueries } from '@/features/editor/api/revisions';
 import { DocumentEditor } from '@/features/editor/components/document-editor';
 import { renderWorkedExample } from '../worked-example';
+import { toast } from 'sonner';
+import type { SetupRecord } from '@shared/schemas/setup-record';
+import { Button } from '@/components/ui/button';
+import { SetupRecordForm } from '@/features/setups/components/setup-record-form';
+import { useAttachSetup } from '@/features/setups/api/setups';
+
+/** The draft's baseline setup record: it belongs to this revision, so every version keeps its own. */
+function BaselineSection({ revisionId, editable, initial }: { revisionId: string | null; editable: boolean; initial: SetupRecord | null }) {
+  const attach = useAttachSetup(revisionId ?? '');
+  const qc = useQueryClient();
+  const handleSave = async (record: SetupRecord | null) => {
+    try {
+      await attach.mutateAsync(record);
+      await qc.invalidateQueries({ queryKey: revisionQueries.detail(revisionId ?? '').queryKey });
+      toast.success(record ? 'Baseline saved with this draft' : 'Baseline removed from this draft');
+    } catch (err) {
+      toast.error((err as Error).message);
+    }
+  };
+  return (
+    <Card className="p-5" aria-labelledby="baseline-title" role="region">
+      <h2 id="baseline-title" className="text-lg font-semibold">
+        Baseline setup record
+      </h2>
+      <p className="mb-4 text-sm text-ink-soft">
+        The setup readers download with this version: fill it in, or load one of your files. Values are checked against the parameter library’s ranges, and the review shows every changed field.
+      </p>
+      {!revisionId ? (
+        <Notice>Give the guide a title, summary, class and surface first; once the draft is saved you can attach its baseline.</Notice>
+      ) : (
+        <fieldset disabled={!editable}>
+          <SetupRecordForm
+            defaultValue={initial}
+            onSubmit={(record) => handleSave(record)}
+            submitLabel="Save baseline"
+            actions={
+              initial ? (
+                <Button type="button" variant="secondary" onClick={() => handleSave(null)} pending={attach.isPending}>
+                  Remove baseline
+                </Button>
+              ) : undefined
+            }
+          />
+        </fieldset>
+      )}
+    </Card>
+  );
+}
 
 function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null }) {
   const [params, setParams] = useSearchParams();
@@ -56,6 +104,7 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
         renderWorkedExample={renderWorkedExample}
         onCreated={handleCreated}
         onSubmitted={() => navigate('/me/revisions')}
+        renderBaseline={(revisionId, editable) => <BaselineSection key={revisionId ?? 'new'} revisionId={revisionId} editable={editable} initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null} />}
       />
     </div>
   );

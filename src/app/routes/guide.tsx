@@ -10,6 +10,7 @@ import { guideQueries } from '@/features/guides/api/guides';
 import { GuideArticle } from '@/features/guides/components/guide-article';
 import { HideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
+import { SetupSheet } from '@/features/setups/components/setup-sheet';
 import { renderWorkedExample } from '../worked-example';
 
 function Missing({ error }: { error: Error }) {
@@ -64,6 +65,17 @@ export function GuidePage() {
           </Notice>
         )}
         <GuideArticle revision={revision} liveNumber={number != null ? liveNumber : null} renderWorkedExample={renderWorkedExample} parameterNames={parameterNames} actions={actions} />
+        {revision.number === liveNumber ? (
+          <section className="mt-10" aria-label="Baseline setup">
+            <SetupSheet slug={slug} />
+          </section>
+        ) : (
+          revision.setup && (
+            <Notice tone="info" className="mt-10" title="This older version had its own baseline setup">
+              Downloads and the comparison use the live version’s baseline. Open the <Link to={`/guides/${slug}`}>live version</Link> to download it.
+            </Notice>
+          )
+        )}
         <section id="history" aria-labelledby="history-title" className="mt-14 border-t border-paper-line pt-6">
           <h2 id="history-title" className="mb-3 text-xl font-semibold">
             History

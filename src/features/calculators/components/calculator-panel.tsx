@@ -94,7 +94,7 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
                 <CalcErrorBoundary
                   fallback={() => <p className="p-4 text-sm text-ink-muted">The chart could not be drawn; the numbers above are still right.</p>}
                 >
-                  <Suspense fallback={<div className="h-[276px] animate-pulse rounded bg-paper-deep/60" aria-label="Loading chart" />}>
+                  <Suspense fallback={<div role="status" className="h-[276px] animate-pulse rounded bg-paper-deep/60"><span className="sr-only">Loading chart…</span></div>}>
                     <CalcChart name={name} results={results} inputs={values} />
                   </Suspense>
                 </CalcErrorBoundary>

@@ -35,6 +35,8 @@ export type DocumentEditorProps = {
   /** The first save created a revision: the page records its id in the URL. */
   onCreated: (revision: Revision, slug: string) => void;
   onSubmitted: (revision: Revision) => void;
+  /** The guide's baseline setup section, composed by the page (editable while the draft is). */
+  renderBaseline?: (revisionId: string | null, editable: boolean) => ReactNode;
 };
 
 const minimalNewGuide = guideContentSchema.pick({ title: true, summary: true, class: true, surface: true });
@@ -56,7 +58,7 @@ function toForm(kind: DocumentKind, content: Record<string, unknown> | null | un
  * The writing screen for guides and parameter entries: fields, the Markdown body, autosave to the
  * server and the browser, submission with an edit note, and the merge screen when the live version moved on.
  */
-export function DocumentEditor({ kind, slug, draft, live, parameterOptions, renderWorkedExample, onCreated, onSubmitted }: DocumentEditorProps) {
+export function DocumentEditor({ kind, slug, draft, live, parameterOptions, renderWorkedExample, onCreated, onSubmitted, renderBaseline }: DocumentEditorProps) {
   const [revisionId, setRevisionId] = useState<string | null>(draft?.id ?? null);
   const [baseRevisionId, setBaseRevisionId] = useState<string | null>(draft ? draft.baseRevisionId : (live?.id ?? null));
   const [state, setState] = useState<Revision['state']>(draft?.state ?? 'draft');
@@ -259,6 +261,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           <BodyField value={content.body} onChange={(body) => update({ body })} error={errors.body} renderWorkedExample={renderWorkedExample} />
         </div>
       </fieldset>
+      {kind === 'guide' && renderBaseline && renderBaseline(revisionId, editable)}
       <Dialog
         open={submitOpen}
         onClose={() => setSubmitOpen(false)}

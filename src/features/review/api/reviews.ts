@@ -1,5 +1,4 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CalcWarning } from '@shared/calc/types';
 import type { ReviewDetail as SharedReviewDetail, ReviewItem, Revision, WorkedExampleCheck } from '@shared/schemas/revision';
 import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
@@ -9,10 +8,10 @@ export type ReviewFilters = { kind?: string; class?: string };
 
 
 /** One changed field of the attached setup record. */
-export type SetupChange = { path: string; label?: string; from: unknown; to: unknown; unit?: string };
+export type SetupChange = NonNullable<SharedReviewDetail['setupChanges']>[number];
 
-/** Everything a moderator needs to decide on a proposal; setup fields arrive once setup records exist. */
-export type ReviewDetail = SharedReviewDetail & { setupChanges?: SetupChange[] | null; setupWarnings?: CalcWarning[] | null };
+/** Everything a moderator needs to decide on a proposal. */
+export type ReviewDetail = SharedReviewDetail;
 
 /** Query-option factories for the review queue (keys general → specific). */
 export const reviewQueries = {
