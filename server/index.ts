@@ -3,6 +3,8 @@ import { loadConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
+import { createDocumentListener } from './lib/document-listener';
+import { createStorage } from './lib/storage';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
@@ -13,7 +15,9 @@ async function main() {
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
+  await documentListener.start();
+  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage) };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {
@@ -36,6 +40,7 @@ async function main() {
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 3000).unref();
     await mailer.stop();
+    await documentListener.close();
     await close();
     await dataSource.destroy();
     process.exit(0);

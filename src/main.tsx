@@ -3,6 +3,7 @@ import { createRoot } from 'react-dom/client';
 import './styles/index.css';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
+import './app/nav-extras-setup';
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

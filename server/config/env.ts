@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { StorageConfig } from '../lib/storage';
 
 const bool = z
   .enum(['true', 'false', '1', '0'])
@@ -18,6 +19,13 @@ const envSchema = z.object({
   RATE_LIMIT_AUTH_PER_15MIN: z.coerce.number().int().min(1).default(20),
   RATE_LIMIT_UPLOAD_PER_15MIN: z.coerce.number().int().min(1).default(60),
   UPLOAD_DIR: z.string().optional(),
+  STORAGE_DRIVER: z.enum(['disk', 's3']).default('disk'),
+  STORAGE_S3_ENDPOINT: z.string().optional(),
+  STORAGE_S3_REGION: z.string().default('us-east-1'),
+  STORAGE_S3_BUCKET: z.string().optional(),
+  STORAGE_S3_ACCESS_KEY_ID: z.string().optional(),
+  STORAGE_S3_SECRET_ACCESS_KEY: z.string().optional(),
+  STORAGE_S3_FORCE_PATH_STYLE: bool.default(true),
   TRUST_PROXY: bool.default(false),
   OUTBOX_INTERVAL_MS: z.coerce.number().int().min(100).default(5000),
 });
@@ -36,6 +44,7 @@ export type Config = {
   logLevel: string;
   rateLimits: { authPer15Min: number; uploadPer15Min: number };
   uploadDir: string;
+  storage: StorageConfig;
   trustProxy: boolean;
   outboxIntervalMs: number;
 };
@@ -49,6 +58,7 @@ export function loadConfig(source: Record<string, string | undefined> = process.
   }
   const e = parsed.data;
   const production = e.NODE_ENV === 'production';
+  if (e.STORAGE_DRIVER === 's3' && !e.STORAGE_S3_BUCKET) throw new Error('Invalid environment:\nSTORAGE_S3_BUCKET: required when STORAGE_DRIVER=s3');
   if (production && !e.SESSION_SECRET) throw new Error('Invalid environment:\nSESSION_SECRET: required in production');
   return {
     env: e.NODE_ENV,
@@ -64,6 +74,20 @@ export function loadConfig(source: Record<string, string | undefined> = process.
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     rateLimits: { authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN, uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN },
     uploadDir: e.UPLOAD_DIR ?? '.data/uploads',
+    storage: {
+      driver: e.STORAGE_DRIVER,
+      uploadDir: e.UPLOAD_DIR ?? '.data/uploads',
+      s3: e.STORAGE_S3_BUCKET
+        ? {
+            endpoint: e.STORAGE_S3_ENDPOINT,
+            region: e.STORAGE_S3_REGION,
+            bucket: e.STORAGE_S3_BUCKET,
+            accessKeyId: e.STORAGE_S3_ACCESS_KEY_ID,
+            secretAccessKey: e.STORAGE_S3_SECRET_ACCESS_KEY,
+            forcePathStyle: e.STORAGE_S3_FORCE_PATH_STYLE,
+          }
+        : null,
+    },
     trustProxy: e.TRUST_PROXY,
     outboxIntervalMs: e.OUTBOX_INTERVAL_MS,
   };

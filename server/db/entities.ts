@@ -5,6 +5,7 @@ import { CapturedMailEntity } from '../modules/dev-mail/captured-mail.entity';
 import { AuditLogEntity } from '../modules/audit/audit-log.entity';
 import { DocumentEntity } from '../modules/revisions/document.entity';
 import { RevisionEntity } from '../modules/revisions/revision.entity';
+import { SetupEntity } from '../modules/setups/setup.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
-export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity];
+export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity];

@@ -5,13 +5,15 @@ import matter from 'gray-matter';
 import type { DataSource, EntityManager } from 'typeorm';
 import { parameterContentSchema } from '../../shared/schemas/parameter';
 import { guideContentSchema } from '../../shared/schemas/guide';
+import { canonicalRecord, type SetupRecord } from '../../shared/schemas/setup-record';
+import { validateSetupObject } from '../../shared/setup/import';
 import { DocumentEntity } from '../modules/revisions/document.entity';
 import { RevisionEntity } from '../modules/revisions/revision.entity';
 import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 
 export const CONTENT_DIR = path.resolve(process.cwd(), 'content');
-const LIBRARY_EMAIL = 'library@tunewright.invalid';
+export const LIBRARY_EMAIL = 'library@tunewright.invalid';
 const DAY = 86_400_000;
 
 /** The account that authors the seeded parameter library; it can never sign in. */
@@ -146,4 +148,35 @@ export async function seedGuides(ds: DataSource, users: Map<string, UserEntity>,
     });
   }
   return created;
+}
+
+/** Reads and validates content/setups/<guide-slug>-v<N>.json against the parameter files; null when there is none. */
+export function readSetupFile(guideSlug: string, number: number, dir = path.join(CONTENT_DIR, 'setups')): SetupRecord | null {
+  const file = path.join(dir, `${guideSlug}-v${number}.json`);
+  if (!fs.existsSync(file)) return null;
+  const library = readParameterFiles().map(({ slug, content }) => ({ slug, name: content.name, unit: content.unit, range: content.range }));
+  const result = validateSetupObject(JSON.parse(fs.readFileSync(file, 'utf8')), library);
+  if (!result.ok) throw new Error(`setups/${path.basename(file)}: ${result.issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`);
+  return canonicalRecord(result.record);
+}
+
+/**
+ * Attaches content/setups baselines to the seeded guide revisions they name. Only revisions
+ * without a baseline are filled, so running it again (or after an author changed one) changes nothing.
+ */
+export async function seedGuideBaselines(ds: DataSource) {
+  let attached = 0;
+  for (const guide of readGuideDirs()) {
+    for (const r of guide.revisions) {
+      const record = readSetupFile(guide.slug, r.number);
+      if (!record) continue;
+      const result: unknown[] = await ds.query(
+        `UPDATE revisions r SET setup = $1::jsonb FROM documents d
+          WHERE r.document_id = d.id AND d.kind = 'guide' AND d.slug = $2 AND r.number = $3 AND r.setup IS NULL RETURNING r.id`,
+        [JSON.stringify(record), guide.slug, r.number],
+      );
+      attached += Array.isArray(result[0]) ? (result[0] as unknown[]).length : result.length;
+    }
+  }
+  return attached;
 }

@@ -2,7 +2,7 @@ import type { DataSource } from 'typeorm';
 import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 import { DEMO_ACCOUNTS } from './demo-accounts';
-import { seedGuides, seedParameters } from './seed-content';
+import { seedGuideBaselines, seedGuides, seedParameters } from './seed-content';
 
 export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
 
@@ -31,5 +31,7 @@ export async function seed(ds: DataSource, opts: SeedOptions) {
     const reviewers = [...users.values()].filter((u) => u.role === 'moderator');
     const guides = await seedGuides(ds, users, reviewers);
     log(`demo guides ready (${guides} new)`);
+    const baselines = await seedGuideBaselines(ds);
+    log(`guide baselines ready (${baselines} attached)`);
   }
 }

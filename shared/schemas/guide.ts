@@ -14,3 +14,52 @@ export const guideContentSchema = z.object({
   body: z.string().max(100_000, 'The body is too long (100,000 characters at most)'),
 });
 export type GuideContent = z.infer<typeof guideContentSchema>;
+
+/** POST /api/guides: a new guide starts as the author's draft (revision 1). */
+export const createGuideSchema = z.strictObject({
+  ...guideContentSchema.shape,
+  body: guideContentSchema.shape.body.default(''),
+  note: z.string().trim().max(1000).optional(),
+});
+export type CreateGuideInput = z.infer<typeof createGuideSchema>;
+
+/** A row of the guide list (published, not hidden). */
+export const guideSummarySchema = z.object({
+  slug: z.string(),
+  title: z.string(),
+  summary: z.string(),
+  class: z.string(),
+  surface: z.string(),
+  conditions: z.string(),
+  tags: z.array(z.string()),
+  parameters: z.array(z.string()),
+  version: z.number().int(),
+  publishedAt: z.string().nullable(),
+  author: z.object({ id: z.uuid(), displayName: z.string() }),
+});
+export type GuideSummary = z.infer<typeof guideSummarySchema>;
+
+/** A guide as its page shows it: the live revision's metadata plus the version it is at. */
+export const guideRecordSchema = guideSummarySchema.extend({
+  publishedRevisionId: z.uuid(),
+  hidden: z.boolean(),
+  hiddenReason: z.string().nullable().optional(),
+});
+export type GuideRecord = z.infer<typeof guideRecordSchema>;
+
+/** Query of GET /api/guides. */
+export const guideListQuerySchema = z.object({
+  class: z.enum(CLASS_SLUGS).optional(),
+  surface: z.enum(SURFACE_SLUGS).optional(),
+  parameter: slugSchema.optional(),
+  q: z.string().trim().max(200).optional(),
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+});
+export type GuideListQuery = z.infer<typeof guideListQuerySchema>;
+
+/** GET /api/taxonomy */
+export const taxonomySchema = z.object({
+  classes: z.array(z.object({ slug: z.string(), name: z.string() })),
+  surfaces: z.array(z.object({ slug: z.string(), name: z.string() })),
+});

@@ -32,3 +32,32 @@ export const parameterSummarySchema = z.object({
   summary: z.string(),
 });
 export type ParameterSummary = z.infer<typeof parameterSummarySchema>;
+
+/** A published guide that discusses a parameter. */
+export const parameterGuideRefSchema = z.object({
+  slug: z.string(),
+  title: z.string(),
+  class: z.string(),
+  surface: z.string(),
+});
+export type ParameterGuideRef = z.infer<typeof parameterGuideRefSchema>;
+
+/** A parameter entry as its page shows it: the summary fields, the body and what it links to. */
+export const parameterDetailSchema = parameterSummarySchema.extend({
+  body: z.string(),
+  related: z.array(z.string()),
+  /** The related entries that are live, with their names, in the order the entry lists them. */
+  relatedParameters: z.array(z.object({ slug: z.string(), name: z.string(), summary: z.string() })),
+  calculator: z.string().nullable(),
+  guides: z.array(parameterGuideRefSchema),
+});
+export type ParameterDetail = z.infer<typeof parameterDetailSchema>;
+
+/** The live revision behind a parameter page. */
+export const parameterLiveRevisionSchema = z.object({
+  id: z.uuid(),
+  number: z.number().int(),
+  publishedAt: z.string().nullable(),
+  author: z.object({ id: z.uuid(), displayName: z.string() }),
+});
+export type ParameterLiveRevision = z.infer<typeof parameterLiveRevisionSchema>;

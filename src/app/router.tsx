@@ -1,9 +1,18 @@
 import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { AppLayout } from '@/components/layout/app-layout';
+import { prefetchGuide } from '@/features/guides/api/guides';
 import { RouteError } from './routes/route-error';
+
+// Loaders run alongside the lazy page chunks: the guide request starts at once instead of after them.
+const guideLoader = ({ params }: { params: { slug?: string } }) => {
+  if (params.slug) prefetchGuide(params.slug);
+  return null;
+};
 
 /** Every page is its own chunk, so readers never download editor, diff or admin code. */
 export const router = createBrowserRouter([
+  // The printable setup sheet has no site chrome at all.
+  { path: 'guides/:slug/setup/print', errorElement: <RouteError />, lazy: () => import('./routes/guide-setup-print').then((m) => ({ Component: m.GuideSetupPrintPage })) },
   {
     element: <AppLayout />,
     errorElement: <RouteError />,
@@ -16,6 +25,23 @@ export const router = createBrowserRouter([
       { path: 'reset-password', lazy: () => import('./routes/auth-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
       { path: 'account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountPage })) },
       { path: 'admin/users', lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
+      { path: 'parameters', lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParametersPage })) },
+      { path: 'parameters/:slug', lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParameterPage })) },
+      { path: 'calculators', lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorsPage })) },
+      { path: 'calculators/:name', lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorPage })) },
+      { path: 'setups', lazy: () => import('./routes/setups').then((m) => ({ Component: m.SetupsPage })) },
+      { path: 'setups/compare', lazy: () => import('./routes/setups-compare').then((m) => ({ Component: m.SetupsComparePage })) },
+      { path: 'setups/new', lazy: () => import('./routes/setups-new').then((m) => ({ Component: m.SetupsNewPage })) },
+      { path: 'guides', lazy: () => import('./routes/guides').then((m) => ({ Component: m.GuidesPage })) },
+      { path: 'guides/new', lazy: () => import('./routes/editor').then((m) => ({ Component: m.GuideNewPage })) },
+      { path: 'guides/:slug', loader: guideLoader, lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
+      { path: 'guides/:slug/v/:n', loader: guideLoader, lazy: () => import('./routes/guide').then((m) => ({ Component: m.GuidePage })) },
+      { path: 'guides/:slug/compare', lazy: () => import('./routes/guide-compare').then((m) => ({ Component: m.GuideComparePage })) },
+      { path: 'guides/:slug/edit', lazy: () => import('./routes/editor').then((m) => ({ Component: m.GuideEditPage })) },
+      { path: 'parameters/:slug/edit', lazy: () => import('./routes/editor').then((m) => ({ Component: m.ParameterEditPage })) },
+      { path: 'me/revisions', lazy: () => import('./routes/workbench').then((m) => ({ Component: m.WorkbenchPage })) },
+      { path: 'review', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewQueuePage })) },
+      { path: 'review/:revisionId', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewDetailPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },
     ],

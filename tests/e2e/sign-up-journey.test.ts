@@ -7,7 +7,7 @@ let server: E2EServer;
 let browser: Browser;
 
 beforeAll(async () => {
-  server = await start();
+  server = await start({ seed: false });
   browser = await launchBrowser();
 });
 afterAll(async () => {

@@ -8,8 +8,10 @@ import { createDataSource } from '../../server/db/data-source';
 import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer } from '../../server/lib/mailer';
+import { createDiskStorage } from '../../server/lib/storage';
 import { createApp } from '../../server/app';
 import type { AppContext } from '../../server/context';
+import { createDocumentListener } from '../../server/lib/document-listener';
 import type { DataSource } from 'typeorm';
 
 // Its own small cluster, so stopping PostgreSQL here does not disturb the other test files.
@@ -30,7 +32,9 @@ beforeAll(async () => {
   await ds.runMigrations();
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
   const logger = createLogger('silent');
-  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }) };
+  const documentListener = createDocumentListener({ connectionString: cluster.urlFor('health'), logger, minRetryMs: 50, maxRetryMs: 500 });
+  await documentListener.start();
+  ctx = { config, dataSource: ds, logger, documentListener, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), storage: createDiskStorage(path.join(dir, 'uploads')) };
   const created = createApp(ctx, { serveClient: false });
   app = created.app;
   closeApp = created.close;
@@ -38,6 +42,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await closeApp?.();
+  await ctx?.documentListener.close();
   await ds?.destroy().catch(() => {});
   cluster?.stop();
   fs.rmSync(dir, { recursive: true, force: true });

@@ -1,21 +1,44 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromium, type Browser, type LaunchOptions, type Page } from 'playwright-core';
 
-export const SCREENSHOT_DIR = path.resolve('.test-artifacts', 'screenshots');
+/** Flags that keep headless Chromium quiet and offline (see architecture.md). */
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
 
-/** Debian's Chromium, headless, with no background traffic (the machine has no outside network). */
-export function launchBrowser(): Promise<Browser> {
+/** The system Chromium, driven by playwright-core (never a downloaded browser). */
+export function launchBrowser(opts: LaunchOptions = {}): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    ...opts,
+    args: [...CHROMIUM_ARGS, ...(opts.args ?? [])],
   });
 }
 
+/** Where a screenshot named `name` (without .png) goes: .test-artifacts/screenshots/, created on demand. */
+export function screenshotPath(name: string): string {
+  const dir = path.resolve(process.cwd(), '.test-artifacts', 'screenshots');
+  fs.mkdirSync(dir, { recursive: true });
+  return path.join(dir, `${name.replace(/[^a-z0-9._-]+/gi, '-')}.png`);
+}
+
+/** Common viewports: a laptop and a 375 px phone. */
+export const VIEWPORTS = {
+  desktop: { width: 1280, height: 900 },
+  phone: { width: 375, height: 780 },
+} as const;
+
 /** Saves a full-page screenshot under .test-artifacts/screenshots/<name>.png. */
 export async function screenshot(page: Page, name: string) {
-  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
-  const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+  const file = screenshotPath(name);
   await page.screenshot({ path: file, fullPage: true });
   return file;
 }

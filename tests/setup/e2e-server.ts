@@ -1,29 +1,54 @@
+import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
-import type { Server } from 'node:http';
+import path from 'node:path';
+import { seed as seedDatabase } from '../../server/db/seed';
 import { createTestApp, type TestApp } from './test-app';
-import { seed } from '../../server/db/seed';
 
-export type E2EServer = { baseUrl: string; t: TestApp; close: () => Promise<void> };
+export type E2EServer = {
+  /** http://127.0.0.1:<port>, no trailing slash. */
+  baseUrl: string;
+  t: TestApp;
+  close: () => Promise<void>;
+};
+
+export type E2EServerOptions = {
+  /** Run seed() (library, demo accounts and guides) before listening. Default true. */
+  seed?: boolean;
+  /** Extra environment for loadConfig (e.g. rate limits). */
+  env?: Record<string, string>;
+  /** Start the loopback mail catcher (sign-up and password flows need it). Default true. */
+  catcher?: boolean;
+};
 
 /**
- * The real app (API + built client from dist/) on a loopback port, on its own test database
- * with a mail catcher. `seedContent` loads the library and demo guides first.
+ * The real app, serving the built client from dist/, on its own test database and a free port, for
+ * browser tests. `npm test` builds dist/ first; run `npx vite build` yourself when running one file alone.
  */
-export async function start(opts: { seedContent?: boolean; env?: Record<string, string> } = {}): Promise<E2EServer> {
-  const t = await createTestApp(opts.env ?? {}, { serveClient: true });
-  if (opts.seedContent) await seed(t.db.dataSource, { demo: true, bcryptCost: 4 });
-  t.mailer.start();
-  const server: Server = await new Promise((resolve) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
-  });
-  const { port } = server.address() as AddressInfo;
-  return {
-    baseUrl: `http://127.0.0.1:${port}`,
-    t,
-    close: async () => {
-      server.closeAllConnections();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      await t.close();
-    },
-  };
+export async function start(opts: E2EServerOptions = {}): Promise<E2EServer> {
+  const index = path.resolve(process.cwd(), 'dist', 'index.html');
+  if (!fs.existsSync(index)) throw new Error('dist/index.html is missing: run `npx vite build` (npm test does it for you).');
+  const t = await createTestApp(opts.env ?? {}, { catcher: opts.catcher ?? true, serveClient: true });
+  try {
+    if (opts.seed ?? true) await seedDatabase(t.db.dataSource, { demo: true, bcryptCost: 4 });
+    t.mailer.start();
+    const server = t.app.listen(0, '127.0.0.1');
+    await new Promise<void>((resolve, reject) => {
+      server.once('listening', resolve);
+      server.once('error', reject);
+    });
+    const { port } = server.address() as AddressInfo;
+    return {
+      baseUrl: `http://127.0.0.1:${port}`,
+      t,
+      async close() {
+        // Browsers keep connections alive; drop them so close() does not wait for their timeout.
+        server.closeAllConnections();
+        await new Promise<void>((resolve) => server.close(() => resolve()));
+        await t.close();
+      },
+    };
+  } catch (err) {
+    await t.close();
+    throw err;
+  }
 }

@@ -4,7 +4,12 @@ import { loadConfig, type Config } from '../../server/config/env';
 import { createApp } from '../../server/app';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer, type Mailer } from '../../server/lib/mailer';
+import { createDocumentListener } from '../../server/lib/document-listener';
 import { startMailCatcher } from '../../server/lib/mail-catcher';
+import { createStorage } from '../../server/lib/storage';
+import os from 'node:os';
+import path from 'node:path';
+import fs from 'node:fs';
 import { CapturedMailEntity } from '../../server/modules/dev-mail/captured-mail.entity';
 import type { AppContext } from '../../server/context';
 import { createTestDatabase, type TestDatabase } from './test-db';
@@ -23,6 +28,7 @@ export type TestApp = {
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
 export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean } = {}): Promise<TestApp> {
   const db = await createTestDatabase();
+  const uploadDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-uploads-'));
   const catcher = opts.catcher === false ? null : await startMailCatcher({ dataSource: db.dataSource, port: 0 });
   const config: Config = loadConfig({
     NODE_ENV: 'test',
@@ -32,11 +38,15 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     RATE_LIMIT_AUTH_PER_15MIN: '10000',
     RATE_LIMIT_UPLOAD_PER_15MIN: '10000',
     OUTBOX_INTERVAL_MS: '200',
+    // Each test app gets its own upload directory, removed on close.
+    UPLOAD_DIR: uploadDir,
     ...overrides,
   });
   const logger = createLogger(config.logLevel);
   const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger };
+  const documentListener = createDocumentListener({ connectionString: db.url, logger, minRetryMs: 50, maxRetryMs: 500 });
+  await documentListener.start();
+  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger, documentListener, storage: createStorage(config.storage) };
   const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
@@ -57,9 +67,11 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     },
     async close() {
       await mailer.stop();
+      await documentListener.close();
       await created.close();
       if (catcher) await catcher.close();
       await db.drop();
+      fs.rmSync(uploadDir, { recursive: true, force: true });
     },
   };
 }

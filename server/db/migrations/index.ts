@@ -1,4 +1,5 @@
 import { InitialSchema1764633600000 } from './1764633600000-initial-schema';
+import { Setups1796166650149 } from './1796166650149-setups';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
-export const migrations = [InitialSchema1764633600000];
+export const migrations = [InitialSchema1764633600000, Setups1796166650149];

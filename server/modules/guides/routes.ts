@@ -1,0 +1,63 @@
+import { z } from 'zod';
+import { CLASSES, SURFACES } from '../../../shared/constants';
+import { slugSchema } from '../../../shared/schemas/common';
+import { createGuideSchema, guideListQuerySchema, guideRecordSchema, guideSummarySchema, taxonomySchema } from '../../../shared/schemas/guide';
+import { revisionSchema } from '../../../shared/schemas/revision';
+import { defineRoute } from '../../lib/route';
+import { presentGuideRecord, presentGuideSummary, presentRevision } from '../revisions/presenter';
+import { revisionService } from '../revisions/service';
+import { isModerator } from '../revisions/policy';
+
+export const guideRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/api/taxonomy',
+    summary: 'Classes and surfaces guides are filed under',
+    tags: ['guides'],
+    access: 'public',
+    response: taxonomySchema,
+    handler: () => ({ data: { classes: CLASSES.map((c) => ({ slug: c.slug, name: c.name })), surfaces: SURFACES.map((s) => ({ slug: s.slug, name: s.name })) } }),
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/guides',
+    summary: 'Live guides, newest first (filters: class, surface, parameter, q)',
+    tags: ['guides'],
+    access: 'public',
+    query: guideListQuerySchema,
+    response: z.array(guideSummarySchema),
+    handler: async ({ query, ctx }) => {
+      const { views, total } = await revisionService(ctx).listLiveGuides(query);
+      return { data: views.map(presentGuideSummary), meta: { total, page: query.page, pageSize: query.pageSize } };
+    },
+  }),
+  defineRoute({
+    method: 'post',
+    path: '/api/guides',
+    summary: 'Start a new guide: the slug comes from the title, revision 1 is your draft',
+    tags: ['guides'],
+    access: 'member',
+    body: createGuideSchema,
+    status: 201,
+    response: z.object({ guide: z.object({ slug: z.string() }), revision: revisionSchema }),
+    handler: async ({ body, user, ctx }) => {
+      const v = await revisionService(ctx).createDocument(user!, 'guide', body);
+      return { data: { guide: { slug: v.doc.slug }, revision: presentRevision(v) } };
+    },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/guides/:slug',
+    summary: 'A live guide with its published revision (404 when hidden, except for moderators)',
+    tags: ['guides'],
+    access: 'public',
+    params: z.object({ slug: slugSchema }),
+    response: z.object({ guide: guideRecordSchema, revision: revisionSchema }),
+    handler: async ({ params, user, ctx }) => ({
+      data: await revisionService(ctx).readLive(user, 'guide', params.slug, 'guide-detail', (v) => ({
+        guide: presentGuideRecord(v, { withHiddenReason: isModerator(user) }),
+        revision: presentRevision(v),
+      })),
+    }),
+  }),
+];

@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import { slugParam } from '../../../shared/schemas/common';
+import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySchema } from '../../../shared/schemas/parameter';
+import { defineRoute } from '../../lib/route';
+import { presentLiveRevision, presentParameterDetail, presentParameterSummary } from './presenter';
+import { parametersService } from './service';
+
+export const parameterRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/api/parameters',
+    summary: 'The parameter library: every live entry, by category then name',
+    tags: ['parameters'],
+    access: 'public',
+    response: z.array(parameterSummarySchema),
+    handler: async ({ ctx }) => ({ data: (await parametersService(ctx).listLive()).map(presentParameterSummary) }),
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/parameters/:slug',
+    summary: 'One parameter entry (its live revision), with related entries and the guides that discuss it',
+    tags: ['parameters'],
+    access: 'public',
+    params: slugParam,
+    response: z.object({ parameter: parameterDetailSchema, revision: parameterLiveRevisionSchema }),
+    handler: async ({ params, ctx }) => {
+      const { parameter, relatedParameters, guides } = await parametersService(ctx).getLive(params.slug);
+      return {
+        data: {
+          parameter: presentParameterDetail(parameter, relatedParameters, guides),
+          revision: presentLiveRevision(parameter),
+        },
+      };
+    },
+  }),
+];

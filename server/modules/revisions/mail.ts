@@ -1,0 +1,59 @@
+import type { DocumentKind } from '../../../shared/constants';
+import type { MailMessage } from '../../lib/mailer';
+
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+function compose(to: string, subject: string, heading: string, paragraphs: string[], link: { label: string; url: string }): MailMessage {
+  const text = `${paragraphs.join('\n\n')}\n\n${link.label}: ${link.url}\n\n-- \nTunewright, the tuning notebook of the Tidewater RC Club\n`;
+  const html =
+    `<div style="font-family:Inter,Arial,sans-serif;color:#1d2a44;max-width:560px">` +
+    `<h1 style="font-size:20px">${esc(heading)}</h1>` +
+    paragraphs.map((p) => `<p style="white-space:pre-wrap">${esc(p)}</p>`).join('') +
+    `<p><a href="${esc(link.url)}" style="color:#b5652b">${esc(link.label)}</a></p>` +
+    `<p style="font-size:12px;color:#555">Tunewright, the tuning notebook of the Tidewater RC Club</p></div>`;
+  return { to, subject, text, html };
+}
+
+const noun = (kind: DocumentKind) => (kind === 'guide' ? 'guide' : 'parameter entry');
+const pagePath = (kind: DocumentKind, slug: string) => (kind === 'guide' ? `/guides/${slug}` : `/parameters/${slug}`);
+
+type About = { appUrl: string; kind: DocumentKind; slug: string; title: string; number: number; revisionId: string };
+
+/** To each moderator when a revision starts waiting for review. */
+export function reviewRequestMail(to: { email: string; displayName: string }, a: About & { authorName: string; note: string; isNew: boolean }): MailMessage {
+  const what = a.isNew ? `a new ${noun(a.kind)}` : `an edit to the ${noun(a.kind)}`;
+  return compose(
+    to.email,
+    `Waiting for review: ${a.title} (version ${a.number})`,
+    'A revision is waiting for review',
+    [`Hello ${to.displayName},`, `${a.authorName} has sent ${what} "${a.title}" (version ${a.number}) for review.`, `Their note: ${a.note}`],
+    { label: 'Open it in the review queue', url: `${a.appUrl}/reviews/${a.revisionId}` },
+  );
+}
+
+/** To the author when their revision goes live. */
+export function publishedMail(to: { email: string; displayName: string }, a: About & { reviewerName: string }): MailMessage {
+  return compose(
+    to.email,
+    `Now live: ${a.title} (version ${a.number})`,
+    'Your revision is live',
+    [`Hello ${to.displayName},`, `${a.reviewerName} reviewed your version ${a.number} of "${a.title}" and published it. Readers now see it. Thank you for the work.`],
+    { label: 'Read it', url: `${a.appUrl}${pagePath(a.kind, a.slug)}/v/${a.number}` },
+  );
+}
+
+/** To the author when a moderator sends their revision back. */
+export function returnedMail(to: { email: string; displayName: string }, a: About & { reviewerName: string; reason: string }): MailMessage {
+  return compose(
+    to.email,
+    `Sent back for changes: ${a.title} (version ${a.number})`,
+    'Your revision was sent back',
+    [
+      `Hello ${to.displayName},`,
+      `${a.reviewerName} reviewed your version ${a.number} of "${a.title}" and sent it back with this reason:`,
+      a.reason,
+      'Your text is kept as it is: change it and send it for review again whenever you are ready.',
+    ],
+    { label: 'Open your revision', url: `${a.appUrl}/revisions/${a.revisionId}` },
+  );
+}

@@ -1,0 +1,26 @@
+import { useParams } from 'react-router-dom';
+import { PageHeader } from '@/components/ui/card';
+import { RequireRole } from '@/components/layout/guards';
+import { ReviewDetailView } from '@/features/review/components/review-detail';
+import { ReviewQueue } from '@/features/review/components/review-queue';
+import { renderWorkedExample } from '../worked-example';
+
+export function ReviewQueuePage() {
+  return (
+    <RequireRole role="moderator">
+      {() => (
+        <>
+          <PageHeader eyebrow="Moderators" title="Review queue">
+            Proposals waiting for a decision, oldest first. Open one to see what it changes against the live version.
+          </PageHeader>
+          <ReviewQueue />
+        </>
+      )}
+    </RequireRole>
+  );
+}
+
+export function ReviewDetailPage() {
+  const { revisionId = '' } = useParams();
+  return <RequireRole role="moderator">{(user) => <ReviewDetailView revisionId={revisionId} currentUserId={user.id} renderWorkedExample={renderWorkedExample} />}</RequireRole>;
+}

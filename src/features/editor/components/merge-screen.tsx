@@ -1,0 +1,162 @@
+import { useEffect, useState } from 'react';
+import { Button } from '@/components/ui/button';
+import { Card, Spinner } from '@/components/ui/card';
+import { Notice } from '@/components/ui/notice';
+import { patchRevision, useRebaseRevision, type RebaseResult } from '../api/revisions';
+import { handEditStart, resolveBody, resolveFields, type ConflictChoice, type ConflictRegion } from '../lib/merge';
+import { writeLocalDraft } from '../lib/autosave';
+
+const LABELS: Record<string, string> = { title: 'Title', summary: 'Summary', class: 'Class', surface: 'Surface', conditions: 'Conditions', tags: 'Tags', parameters: 'Settings discussed', name: 'Name', aliases: 'Also called', category: 'Category', unit: 'Unit', range: 'Typical range', related: 'Related settings', calculator: 'Calculator' };
+
+function show(v: unknown) {
+  if (Array.isArray(v)) return v.join(', ') || '—';
+  if (v && typeof v === 'object') return JSON.stringify(v);
+  return v === null || v === undefined || v === '' ? '—' : String(v);
+}
+
+function Lines({ lines, tone }: { lines: string[]; tone?: 'theirs' | 'ours' }) {
+  const cls = tone === 'theirs' ? 'border-ink/30 bg-paper-card' : tone === 'ours' ? 'border-copper/50 bg-copper-wash/40' : 'border-paper-line bg-paper-deep/60 text-ink-soft';
+  return <pre className={`max-h-72 overflow-auto rounded-md border p-3 font-mono text-[0.8rem] leading-6 whitespace-pre-wrap ${cls}`}>{lines.length ? lines.join('\n') : '(nothing — removed on this side)'}</pre>;
+}
+
+function Hunk({ region, number, liveNumber, choice, onChoose }: { region: ConflictRegion; number: number; liveNumber: number; choice?: ConflictChoice; onChoose: (c: ConflictChoice) => void }) {
+  const picked = choice?.pick;
+  return (
+    <section aria-label={`Overlapping change ${number}`} className="flex flex-col gap-3 rounded-lg border-2 border-caution-line bg-caution-wash/40 p-4">
+      <h3 className="text-sm font-semibold">
+        Overlapping change {number} {picked ? <span className="font-normal text-ok">— {picked === 'theirs' ? 'live text kept' : picked === 'ours' ? 'your text kept' : 'edited by hand'}</span> : <span className="font-normal text-caution">— choose what to keep</span>}
+      </h3>
+      <div className="grid gap-3 md:grid-cols-2">
+        <div className="flex min-w-0 flex-col gap-2">
+          <p className="text-xs font-semibold tracking-wider text-ink-muted uppercase">Live version {liveNumber} (theirs)</p>
+          <Lines lines={region.theirs} tone="theirs" />
+          <Button size="sm" variant={picked === 'theirs' ? 'primary' : 'secondary'} aria-pressed={picked === 'theirs'} onClick={() => onChoose({ pick: 'theirs' })}>
+            Keep the live text
+          </Button>
+        </div>
+        <div className="flex min-w-0 flex-col gap-2">
+          <p className="text-xs font-semibold tracking-wider text-ink-muted uppercase">Your draft (yours)</p>
+          <Lines lines={region.ours} tone="ours" />
+          <Button size="sm" variant={picked === 'ours' ? 'primary' : 'secondary'} aria-pressed={picked === 'ours'} onClick={() => onChoose({ pick: 'ours' })}>
+            Keep my text
+          </Button>
+        </div>
+      </div>
+      {picked === 'custom' ? (
+        <label className="flex flex-col gap-1 text-sm font-medium">
+          Your combined text
+          <textarea className="min-h-40 rounded-md border border-ink/25 bg-white/90 p-3 font-mono text-[0.8rem] leading-6" value={choice?.pick === 'custom' ? choice.text : ''} onChange={(e) => onChoose({ pick: 'custom', text: e.target.value })} />
+        </label>
+      ) : (
+        <Button size="sm" variant="ghost" className="self-start" onClick={() => onChoose({ pick: 'custom', text: handEditStart(region) })}>
+          Edit by hand (start from both)
+        </Button>
+      )}
+    </section>
+  );
+}
+
+/**
+ * The three-way merge screen after the live revision moved on: clean changes are already merged,
+ * each overlapping change is shown side by side to resolve. Saving replaces the draft's content and
+ * moves its base to the live revision; until then the draft (and a browser copy) keep the author's text.
+ */
+export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }: { revisionId: string; kindLabel: string; yours: Record<string, unknown>; onSaved: (content: Record<string, unknown>, currentRevisionId: string) => void; onCancel: () => void }) {
+  const rebase = useRebaseRevision();
+  const [bodyChoices, setBodyChoices] = useState<Record<number, ConflictChoice>>({});
+  const [fieldChoices, setFieldChoices] = useState<Record<string, 'theirs' | 'ours'>>({});
+  const [saving, setSaving] = useState(false);
+  const [error, setError] = useState<string>();
+
+  useEffect(() => {
+    // The author's text as it stood before merging, kept whatever happens next.
+    writeLocalDraft(window.localStorage, `tw:premerge:${revisionId}`, { content: yours, editedAt: Date.now(), savedAt: null });
+    rebase.mutate(revisionId);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [revisionId]);
+
+  if (rebase.isPending || rebase.isIdle) return <Spinner label="Merging your draft with the live version…" />;
+  if (rebase.isError)
+    return (
+      <Notice tone="danger" title="The merge could not be prepared">
+        {rebase.error.message} Your draft is unchanged. <button type="button" className="underline" onClick={onCancel}>Back to the editor</button>
+      </Notice>
+    );
+  const result: RebaseResult = rebase.data;
+  const fieldConflicts = result.conflicts.filter((c) => c.field !== 'body');
+  const hunks = result.bodyRegions.filter((r): r is ConflictRegion => r.kind === 'conflict');
+  const body = resolveBody(result.bodyRegions, bodyChoices);
+  const fields = resolveFields(result.merged, fieldConflicts, fieldChoices);
+  const unresolved = body.unresolved + fields.unresolved;
+  const cleanLines = result.bodyRegions.filter((r) => r.kind === 'ok').reduce((n, r) => n + (r.kind === 'ok' ? r.lines.length : 0), 0);
+
+  const handleSave = async () => {
+    setSaving(true);
+    setError(undefined);
+    const content = { ...fields.content, body: body.body };
+    try {
+      await patchRevision(revisionId, { ...(content as { body: string }), baseRevisionId: result.currentRevisionId });
+      onSaved(content, result.currentRevisionId);
+    } catch (err) {
+      setError(`${(err as Error).message} Your draft is unchanged on the server; try again.`);
+    } finally {
+      setSaving(false);
+    }
+  };
+
+  return (
+    <div className="flex flex-col gap-6">
+      <Notice tone="caution" title={`The live ${kindLabel} moved on to version ${result.currentNumber} while you were writing`}>
+        Changes that do not overlap are merged already ({cleanLines} lines). {unresolved > 0 || hunks.length + fieldConflicts.length > 0 ? `Where you and the live version changed the same thing, choose what to keep.` : 'Nothing overlaps.'} Your text stays in your draft until you save the merge, and a copy is kept in this browser.
+      </Notice>
+      {fieldConflicts.length > 0 && (
+        <Card className="p-4">
+          <h2 className="mb-3 text-base font-semibold">Details changed on both sides</h2>
+          <div className="flex flex-col gap-3">
+            {fieldConflicts.map((c) => (
+              <fieldset key={c.field} className="grid gap-2 rounded-md border border-caution-line p-3 sm:grid-cols-[10rem_1fr_1fr] sm:items-start">
+                <legend className="sr-only">{LABELS[c.field] ?? c.field}</legend>
+                <p className="text-sm font-semibold" aria-hidden>
+                  {LABELS[c.field] ?? c.field}
+                </p>
+                {(['theirs', 'ours'] as const).map((side) => (
+                  <label key={side} className={`flex cursor-pointer gap-2 rounded-md border p-2 text-sm ${fieldChoices[c.field] === side ? 'border-copper bg-copper-wash/50' : 'border-paper-line bg-paper-card'}`}>
+                    <input type="radio" name={`field-${c.field}`} className="mt-1 accent-copper" checked={fieldChoices[c.field] === side} onChange={() => setFieldChoices((f) => ({ ...f, [c.field]: side }))} />
+                    <span>
+                      <span className="block text-xs font-semibold text-ink-muted uppercase">{side === 'theirs' ? `Live version ${result.currentNumber}` : 'Your draft'}</span>
+                      {show(side === 'theirs' ? c.theirs : c.ours)}
+                    </span>
+                  </label>
+                ))}
+              </fieldset>
+            ))}
+          </div>
+        </Card>
+      )}
+      {hunks.length > 0 ? (
+        <div className="flex flex-col gap-4">
+          <h2 className="text-base font-semibold">Overlapping changes in the text ({hunks.length})</h2>
+          {hunks.map((h, i) => (
+            <Hunk key={h.hunk} region={h} number={i + 1} liveNumber={result.currentNumber} choice={bodyChoices[h.hunk]} onChoose={(c) => setBodyChoices((b) => ({ ...b, [h.hunk]: c }))} />
+          ))}
+        </div>
+      ) : (
+        <p className="text-sm text-ink-soft">The text merged without overlaps.</p>
+      )}
+      <details className="rounded-md border border-paper-line bg-paper-card p-3">
+        <summary className="cursor-pointer text-sm font-semibold">The merged text as it will be saved</summary>
+        <Lines lines={body.body.split('\n')} />
+      </details>
+      {error && <Notice tone="danger">{error}</Notice>}
+      <div className="flex flex-wrap items-center gap-3">
+        <Button onClick={handleSave} pending={saving} disabled={unresolved > 0}>
+          Save the merged draft
+        </Button>
+        <Button variant="secondary" onClick={onCancel}>
+          Back to my draft unchanged
+        </Button>
+        {unresolved > 0 && <span className="text-sm text-caution">{unresolved} left to decide</span>}
+      </div>
+    </div>
+  );
+}

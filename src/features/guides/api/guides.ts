@@ -1,0 +1,117 @@
+import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import { CLASSES, SURFACES } from '@shared/constants';
+import type { GuideContent } from '@shared/schemas/guide';
+import type { ParameterSummary } from '@shared/schemas/parameter';
+import type { Revision } from '@shared/schemas/revision';
+import type { FieldChange, WordChange } from '@/components/diff/word-diff-view';
+import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
+
+export type TaxonomyEntry = { slug: string; name: string };
+export type Taxonomy = { classes: TaxonomyEntry[]; surfaces: TaxonomyEntry[] };
+
+/** A row of the guides list (published guides only). */
+export type GuideSummary = { slug: string; title: string; summary: string; class: string; surface: string; conditions?: string; tags?: string[]; parameters?: string[]; version: number; publishedAt: string | null; author: { id: string; displayName: string } };
+
+/** A guide as its page shows it; `hidden` is set when a moderator hid it. */
+export type GuideRecord = GuideSummary & { publishedRevisionId: string; hidden: boolean; hiddenReason?: string | null };
+
+export type GuideRevision = Omit<Revision, 'content'> & { content: GuideContent; baseNumber?: number | null };
+
+/** One row of a guide's history (no content). */
+export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 'note' | 'restoredFromNumber' | 'createdAt' | 'submittedAt' | 'publishedAt'> & { baseNumber: number | null };
+
+/** What the comparison of two revisions returns. */
+export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[] };
+
+export type GuideFilters = { class?: string; surface?: string; parameter?: string; q?: string };
+
+const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
+
+type GuideDetail = { guide: GuideRecord; revision: GuideRevision };
+const fetchDetail = async (slug: string) => (await api.get<Envelope<GuideDetail>>(`/api/guides/${encodeURIComponent(slug)}`)).data;
+const early = new Map<string, Promise<GuideDetail>>();
+
+/**
+ * Starts loading a guide while its page code is still downloading (the route loader calls it), so the
+ * request does not wait for the chunks; the detail query picks the answer up once.
+ */
+export function prefetchGuide(slug: string) {
+  if (!early.has(slug)) {
+    const p = fetchDetail(slug);
+    p.catch(() => early.delete(slug)); // a failure is retried by the query itself
+    early.set(slug, p);
+  }
+}
+
+/** Query-option factories for guides (keys general → specific). */
+export const guideQueries = {
+  all: () => ['guides'] as const,
+  lists: () => [...guideQueries.all(), 'list'] as const,
+  list: (filters: GuideFilters) =>
+    queryOptions({
+      queryKey: [...guideQueries.lists(), filters] as const,
+      queryFn: async () => (await api.get<ListEnvelope<GuideSummary>>('/api/guides', { query: filters })).data,
+      placeholderData: keepPreviousData,
+    }),
+  detail: (slug: string) =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'detail', slug] as const,
+      queryFn: () => {
+        const pending = early.get(slug);
+        early.delete(slug);
+        return pending ?? fetchDetail(slug);
+      },
+    }),
+  revisions: (slug: string) =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'detail', slug, 'revisions'] as const,
+      queryFn: async () => (await api.get<ListEnvelope<HistoryItem>>(`/api/guides/${encodeURIComponent(slug)}/revisions`)).data,
+    }),
+  revision: (slug: string, number: number) =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'detail', slug, 'revisions', number] as const,
+      queryFn: async () => (await api.get<Envelope<{ guide?: GuideRecord; revision: GuideRevision } | GuideRevision>>(`/api/guides/${encodeURIComponent(slug)}/revisions/${number}`)).data,
+      select: (data) => ('revision' in data && data.revision && typeof data.revision === 'object' ? data.revision : (data as GuideRevision)),
+    }),
+  compare: (slug: string, from: number, to: number) =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'detail', slug, 'compare', from, to] as const,
+      queryFn: async () => (await api.get<Envelope<GuideComparison>>(`/api/guides/${encodeURIComponent(slug)}/compare`, { query: { from, to } })).data,
+    }),
+  taxonomy: () =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'taxonomy'] as const,
+      queryFn: async () => (await api.get<Envelope<Taxonomy>>('/api/taxonomy')).data,
+      staleTime: Infinity,
+      placeholderData: fallbackTaxonomy,
+    }),
+  parameterOptions: () =>
+    queryOptions({
+      queryKey: [...guideQueries.all(), 'parameter-options'] as const,
+      queryFn: async () => (await api.get<ListEnvelope<ParameterSummary>>('/api/parameters')).data,
+      staleTime: 10 * 60_000,
+    }),
+};
+
+/** A name for a class or surface slug, falling back to the slug itself. */
+export function taxonomyName(list: TaxonomyEntry[] | undefined, slug: string) {
+  return list?.find((e) => e.slug === slug)?.name ?? slug;
+}
+
+/** Moderator: publish a copy of an older revision as the new live one. */
+export function useRestoreRevision(slug: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async (number: number) => (await api.post<Envelope<{ revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/restore`, { number })).data,
+    onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
+  });
+}
+
+/** Moderator: take a guide out of public view, with a reason for the record. */
+export function useHideGuide(slug: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (reason: string) => api.post(`/api/guides/${encodeURIComponent(slug)}/hide`, { reason }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
+  });
+}

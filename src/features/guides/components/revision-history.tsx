@@ -1,0 +1,158 @@
+import { useState, type FormEvent } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { Link, useNavigate } from 'react-router-dom';
+import { toast } from 'sonner';
+import { REVISION_STATE_LABELS } from '@shared/constants';
+import { Button } from '@/components/ui/button';
+import { Spinner } from '@/components/ui/card';
+import { Dialog } from '@/components/ui/dialog';
+import { Notice } from '@/components/ui/notice';
+import { guideQueries, useRestoreRevision, type HistoryItem } from '../api/guides';
+import { formatDate } from '../lib/format';
+
+function stateTone(state: HistoryItem['state']) {
+  if (state === 'published') return 'bg-ok-wash text-ok border-ok-line';
+  if (state === 'in_review') return 'bg-caution-wash text-caution border-caution-line';
+  if (state === 'returned') return 'bg-danger-wash text-danger border-danger-line';
+  return 'bg-paper-deep text-ink-soft border-paper-line';
+}
+
+/** A revision state in our words, as a small badge. */
+export function StateBadge({ state }: { state: HistoryItem['state'] }) {
+  return <span className={`inline-flex rounded-full border px-2 py-0.5 text-xs font-medium whitespace-nowrap ${stateTone(state)}`}>{REVISION_STATE_LABELS[state]}</span>;
+}
+
+function ComparePicker({ slug, numbers, defaultFrom, defaultTo }: { slug: string; numbers: number[]; defaultFrom: number; defaultTo: number }) {
+  const navigate = useNavigate();
+  const [from, setFrom] = useState(defaultFrom);
+  const [to, setTo] = useState(defaultTo);
+  const handleSubmit = (e: FormEvent) => {
+    e.preventDefault();
+    navigate(`/guides/${slug}/compare?from=${from}&to=${to}`);
+  };
+  const select = 'rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 text-sm';
+  return (
+    <form onSubmit={handleSubmit} className="flex flex-wrap items-end gap-2 text-sm">
+      <label className="flex flex-col gap-1">
+        <span className="font-medium">Compare version</span>
+        <select className={select} value={from} onChange={(e) => setFrom(Number(e.target.value))}>
+          {numbers.map((n) => (
+            <option key={n} value={n}>
+              {n}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label className="flex flex-col gap-1">
+        <span className="font-medium">with version</span>
+        <select className={select} value={to} onChange={(e) => setTo(Number(e.target.value))}>
+          {numbers.map((n) => (
+            <option key={n} value={n}>
+              {n}
+            </option>
+          ))}
+        </select>
+      </label>
+      <Button type="submit" variant="secondary" size="sm" disabled={from === to}>
+        Compare
+      </Button>
+    </form>
+  );
+}
+
+/** Every public revision of a guide, with links to each permalink, comparisons and (moderators) restore. */
+export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: string; canModerate: boolean; currentNumber?: number }) {
+  const revisions = useQuery(guideQueries.revisions(slug));
+  const restore = useRestoreRevision(slug);
+  const [restoring, setRestoring] = useState<HistoryItem | null>(null);
+  if (revisions.isPending) return <Spinner label="Loading history…" />;
+  if (revisions.isError) return <Notice tone="danger" title="The history could not be loaded">{revisions.error.message}</Notice>;
+  const rows = [...revisions.data].sort((a, b) => b.number - a.number);
+  const live = rows.find((r) => r.state === 'published');
+  const numbers = rows.map((r) => r.number).sort((a, b) => a - b);
+  const handleRestore = async () => {
+    if (!restoring) return;
+    try {
+      const res = await restore.mutateAsync(restoring.number);
+      toast.success(`Version ${restoring.number} restored as version ${res.revision.number}`);
+      setRestoring(null);
+    } catch (err) {
+      toast.error((err as Error).message);
+    }
+  };
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="table-scroll">
+        <table className="w-full border-collapse text-sm">
+          <caption className="sr-only">Versions of this guide, newest first</caption>
+          <thead>
+            <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
+              <th scope="col" className="px-3 py-2 font-semibold">Version</th>
+              <th scope="col" className="px-3 py-2 font-semibold">State</th>
+              <th scope="col" className="px-3 py-2 font-semibold">Author</th>
+              <th scope="col" className="px-3 py-2 font-semibold">Date</th>
+              <th scope="col" className="px-3 py-2 font-semibold">Edit note</th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                <span className="sr-only">Actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r.id} className={`border-b border-paper-line align-top ${r.number === currentNumber ? 'bg-copper-wash/50' : ''}`}>
+                <th scope="row" className="px-3 py-2 text-left font-semibold whitespace-nowrap">
+                  <Link to={`/guides/${slug}/v/${r.number}`}>
+                    <span aria-hidden>v</span>
+                    <span className="sr-only">Version </span>
+                    {r.number}
+                  </Link>
+                </th>
+                <td className="px-3 py-2">
+                  <StateBadge state={r.state} />
+                </td>
+                <td className="px-3 py-2 whitespace-nowrap">{r.author.displayName}</td>
+                <td className="px-3 py-2 whitespace-nowrap">{formatDate(r.publishedAt ?? r.submittedAt ?? r.createdAt)}</td>
+                <td className="max-w-md px-3 py-2 text-ink-soft">
+                  {r.note || '—'}
+                  {r.restoredFromNumber != null && <span className="block text-xs text-ink-muted">Restores version {r.restoredFromNumber}</span>}
+                </td>
+                <td className="px-3 py-2">
+                  <div className="flex flex-wrap justify-end gap-2 whitespace-nowrap">
+                    {live && r.number !== live.number && (
+                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`}>Compare with live</Link>
+                    )}
+                    {canModerate && live && r.state === 'archived' && (
+                      <button type="button" className="text-copper-dark underline decoration-copper/40 underline-offset-2 hover:decoration-copper" onClick={() => setRestoring(r)}>
+                        Restore
+                      </button>
+                    )}
+                  </div>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {numbers.length > 1 && <ComparePicker slug={slug} numbers={numbers} defaultFrom={numbers[numbers.length - 2]} defaultTo={numbers[numbers.length - 1]} />}
+      <Dialog
+        open={!!restoring}
+        onClose={() => setRestoring(null)}
+        title={`Restore version ${restoring?.number ?? ''}?`}
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setRestoring(null)}>
+              Cancel
+            </Button>
+            <Button onClick={handleRestore} pending={restore.isPending}>
+              Publish a copy of version {restoring?.number}
+            </Button>
+          </>
+        }
+      >
+        <p className="text-sm text-ink-soft">
+          This publishes a new version with the text and details of version {restoring?.number}. The current live version {live?.number} becomes superseded; nothing is deleted, and the history notes which version was restored.
+        </p>
+      </Dialog>
+    </div>
+  );
+}

@@ -1,0 +1,108 @@
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import type { FieldIssue } from '@shared/schemas/common';
+import type { SettingDefinitionRow, SetupLibrary, SetupUpload, CompareSide } from '@shared/schemas/setup';
+import type { SetupRecord } from '@shared/schemas/setup-record';
+import type { SetupComputed } from '@shared/setup/computed';
+import type { SetupComparison } from '@shared/setup/compare';
+import { api, ApiError, type Envelope } from '@/lib/api-client';
+
+export type CompareResult = SetupComparison & { a: CompareSide; b: CompareSide };
+
+/** Query-option factories for setups (keys general → specific). */
+export const setupQueries = {
+  all: () => ['setups'] as const,
+  library: () => queryOptions({ queryKey: [...setupQueries.all(), 'library'] as const, queryFn: async () => (await api.get<Envelope<SetupLibrary>>('/api/setups')).data }),
+  escSettings: () =>
+    queryOptions({
+      queryKey: [...setupQueries.all(), 'esc-settings'] as const,
+      queryFn: async () => (await api.get<Envelope<SettingDefinitionRow[]>>('/api/setups/esc-settings')).data,
+      staleTime: 10 * 60_000,
+    }),
+  guide: (slug: string) =>
+    queryOptions({
+      queryKey: [...setupQueries.all(), 'guide', slug] as const,
+      queryFn: async () => {
+        const res = await api.get<{ data: SetupRecord; meta: { computed: SetupComputed } }>(`/api/guides/${encodeURIComponent(slug)}/setup`);
+        return { record: res.data, computed: res.meta.computed };
+      },
+    }),
+  compare: (a: string, b: string, rpm?: number) =>
+    queryOptions({
+      queryKey: [...setupQueries.all(), 'compare', a, b, rpm ?? null] as const,
+      queryFn: async () => (await api.get<Envelope<CompareResult>>('/api/setups/compare', { query: { a, b, rpm } })).data,
+    }),
+};
+
+/** Download links of a guide's baseline. */
+export const guideSetupLinks = (slug: string) => ({
+  json: `/api/guides/${encodeURIComponent(slug)}/setup.json`,
+  csv: `/api/guides/${encodeURIComponent(slug)}/setup.csv`,
+  print: `/guides/${encodeURIComponent(slug)}/setup/print`,
+});
+
+async function csrfToken(): Promise<string> {
+  const res = await fetch('/api/csrf', { credentials: 'same-origin' });
+  return ((await res.json()) as { data: { token: string } }).data.token;
+}
+
+/**
+ * Uploads a setup file with XMLHttpRequest, because fetch reports no upload progress.
+ * Resolves with the stored upload; rejects with an ApiError whose details list every problem.
+ */
+export async function uploadSetupFile(file: File, onProgress: (fraction: number) => void): Promise<SetupUpload> {
+  const token = await csrfToken();
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', '/api/setups');
+    xhr.setRequestHeader('x-csrf-token', token);
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.withCredentials = true;
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection and try again; nothing was stored.'));
+    xhr.onload = () => {
+      let body: { data?: SetupUpload; error?: { code: string; message: string; details?: FieldIssue[] } } = {};
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        /* not JSON */
+      }
+      if (xhr.status === 201 && body.data) {
+        onProgress(1);
+        resolve(body.data);
+      } else {
+        reject(new ApiError(xhr.status, body.error?.code ?? 'http_error', body.error?.message ?? `Upload failed (${xhr.status})`, body.error?.details));
+      }
+    };
+    const form = new FormData();
+    form.append('file', file, file.name);
+    xhr.send(form);
+  });
+}
+
+export function useUploadSetup() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: ({ file, onProgress }: { file: File; onProgress: (f: number) => void }) => uploadSetupFile(file, onProgress),
+    onSuccess: () => qc.invalidateQueries({ queryKey: setupQueries.all() }),
+  });
+}
+
+export function useDeleteUpload() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => api.delete<void>(`/api/setups/${id}`),
+    onSuccess: () => qc.invalidateQueries({ queryKey: setupQueries.all() }),
+  });
+}
+
+/** Attaches a baseline to the author's own draft (used by the guide editor). */
+export function useAttachSetup(revisionId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async (record: SetupRecord | null) =>
+      record ? (await api.put<Envelope<SetupRecord>>(`/api/revisions/${revisionId}/setup`, record)).data : (await api.delete<void>(`/api/revisions/${revisionId}/setup`), null),
+    onSuccess: () => qc.invalidateQueries({ queryKey: setupQueries.all() }),
+  });
+}

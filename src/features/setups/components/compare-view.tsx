@@ -1,0 +1,185 @@
+import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { SETUP_SECTIONS } from '@shared/setup/fields';
+import type { SetupDelta } from '@shared/setup/compare';
+import { Card, Spinner } from '@/components/ui/card';
+import { Notice } from '@/components/ui/notice';
+import { setupQueries } from '../api/setups';
+import { CautionList } from './caution-list';
+import { fmt, showValue } from './labels';
+
+function SetupPicker({ label, name, value, onChange }: { label: string; name: string; value: string; onChange: (v: string) => void }) {
+  const library = useQuery(setupQueries.library());
+  return (
+    <label className="flex min-w-0 flex-1 flex-col text-sm font-medium">
+      {label}
+      <select name={name} value={value} onChange={(e) => onChange(e.target.value)} className="mt-1 w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal">
+        <option value="">Choose a setup…</option>
+        <optgroup label="Published baselines">
+          {library.data?.baselines.map((b) => (
+            <option key={b.guideSlug} value={`guide:${b.guideSlug}`}>
+              {b.guideTitle} (v{b.revisionNumber})
+            </option>
+          ))}
+        </optgroup>
+        {!!library.data?.uploads.length && (
+          <optgroup label="Your uploads">
+            {library.data.uploads.map((u) => (
+              <option key={u.id} value={u.id}>
+                {u.originalName} — {new Date(u.createdAt).toLocaleDateString('en-GB')}
+              </option>
+            ))}
+          </optgroup>
+        )}
+      </select>
+    </label>
+  );
+}
+
+function deltaText(d: SetupDelta) {
+  if (d.delta === null) return '—';
+  if (d.delta === 0) return 'no change';
+  const digits = d.unit === 'rpm' ? 0 : d.unit === 'V' ? 2 : 2;
+  const unit = d.unit === ':1' ? '' : d.unit === 'deg' ? '°' : ` ${d.unit}`;
+  return `${d.delta > 0 ? '+' : '−'}${fmt(Math.abs(d.delta), digits)}${unit}`;
+}
+const valueText = (v: number | null, unit: string) => (v === null ? '—' : unit === ':1' ? `${fmt(v, 2)}:1` : unit === 'deg' ? `${fmt(v, 1)}°` : `${fmt(v, unit === 'rpm' ? 0 : 2)} ${unit}`);
+
+/** The comparison page body: pick two setups, then see every field side by side, the computed deltas and the cautions. */
+export function CompareView() {
+  const [params, setParams] = useSearchParams();
+  const a = params.get('a') ?? '';
+  const b = params.get('b') ?? '';
+  const rpmParam = Number(params.get('rpm'));
+  const rpm = Number.isFinite(rpmParam) && rpmParam > 0 ? rpmParam : undefined;
+  const [onlyChanged, setOnlyChanged] = useState(false);
+  const set = (key: string, value: string) => {
+    const next = new URLSearchParams(params);
+    if (value) next.set(key, value);
+    else next.delete(key);
+    setParams(next, { replace: true });
+  };
+  const cmp = useQuery({ ...setupQueries.compare(a, b, rpm), enabled: !!a && !!b });
+  const labels = cmp.data ? { a: `A: ${cmp.data.a.label}`, b: `B: ${cmp.data.b.label}` } : { a: 'A', b: 'B' };
+  // Column heads stay short (A, B) so the tables fit a phone; the legend names them.
+  const legend = cmp.data && (
+    <p className="text-sm text-ink-soft">
+      <strong>A</strong> = {cmp.data.a.label} · <strong>B</strong> = {cmp.data.b.label}
+    </p>
+  );
+
+  return (
+    <div className="flex flex-col gap-6">
+      <Card className="flex flex-col gap-3 p-4 sm:flex-row sm:items-end">
+        <SetupPicker label="A (for instance a guide's baseline)" name="a" value={a} onChange={(v) => set('a', v)} />
+        <SetupPicker label="B (for instance your own setup)" name="b" value={b} onChange={(v) => set('b', v)} />
+        <label className="flex flex-col text-sm font-medium sm:w-40">
+          Timing read at
+          <span className="mt-1 flex items-center gap-1">
+            <input
+              type="number"
+              min={1000}
+              max={150000}
+              step={1000}
+              defaultValue={rpm ?? 20000}
+              onBlur={(e) => set('rpm', e.target.value)}
+              onKeyDown={(e) => e.key === 'Enter' && set('rpm', (e.target as HTMLInputElement).value)}
+              className="w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal tabular-nums"
+            />
+            <span className="font-normal text-ink-muted">rpm</span>
+          </span>
+        </label>
+      </Card>
+
+      {(!a || !b) && <p className="text-ink-soft">Choose two setups to compare: a published baseline and one of your uploads, or any two.</p>}
+      {cmp.isFetching && !cmp.data && <Spinner label="Comparing…" />}
+      {cmp.error && (
+        <Notice tone="danger" title="These setups cannot be compared">
+          {cmp.error.message}
+        </Notice>
+      )}
+      {cmp.data && (
+        <>
+          {legend}
+          <CautionList cautions={cmp.data.cautions} sideLabels={labels} />
+          {cmp.data.cautions.length === 0 && <Notice tone="ok">No value of either setup leaves its safe window.</Notice>}
+
+          <section aria-labelledby="deltas-title">
+            <h2 id="deltas-title" className="mb-2 text-lg font-semibold">
+              Computed differences
+            </h2>
+            <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+              <table className="w-full text-sm" data-testid="deltas-table">
+                <thead>
+                  <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
+                    <th scope="col" className="px-3 py-2">Value</th>
+                    <th scope="col" className="px-3 py-2">A</th>
+                    <th scope="col" className="px-3 py-2">B</th>
+                    <th scope="col" className="px-3 py-2">Change A → B</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {cmp.data.deltas.map((d) => (
+                    <tr key={d.key} className={`border-b border-paper-line ${d.delta ? 'bg-copper-wash/60' : ''}`}>
+                      <th scope="row" className="px-3 py-2 text-left font-medium">{d.label}</th>
+                      <td className="px-3 py-2 tabular-nums">{valueText(d.a, d.unit)}</td>
+                      <td className="px-3 py-2 tabular-nums">{valueText(d.b, d.unit)}</td>
+                      <td className="px-3 py-2 font-semibold tabular-nums">{deltaText(d)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+            <p className="mt-1 text-xs text-ink-muted">Speeds at each pack's nominal voltage, with the motor reaching {Math.round((cmp.data.computed.a.speed?.loadFactor ?? 0.85) * 100)} % of its no-load rpm. Estimates, not measurements.</p>
+          </section>
+
+          <section aria-labelledby="fields-title">
+            <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
+              <h2 id="fields-title" className="text-lg font-semibold">
+                Every field ({cmp.data.differences.length} {cmp.data.differences.length === 1 ? 'difference' : 'differences'})
+              </h2>
+              <label className="flex items-center gap-2 text-sm">
+                <input type="checkbox" checked={onlyChanged} onChange={(e) => setOnlyChanged(e.target.checked)} /> Show only differences
+              </label>
+            </div>
+            <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+              <table className="w-full text-sm" data-testid="fields-table">
+                <thead>
+                  <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
+                    <th scope="col" className="w-1/3 min-w-32 px-3 py-2">Field</th>
+                    <th scope="col" className="px-3 py-2">A</th>
+                    <th scope="col" className="px-3 py-2">B</th>
+                  </tr>
+                </thead>
+                {SETUP_SECTIONS.map((section) => {
+                  const rows = cmp.data.fields.filter((f) => f.section === section.key && (!onlyChanged || f.changed));
+                  if (!rows.length) return null;
+                  return (
+                    <tbody key={section.key}>
+                      <tr>
+                        <th colSpan={3} scope="colgroup" className="bg-paper-deep/60 px-3 py-1 text-left text-xs tracking-wide text-ink-muted uppercase">
+                          {section.title}
+                        </th>
+                      </tr>
+                      {rows.map((f) => (
+                        <tr key={f.path} className={`border-b border-paper-line ${f.changed ? 'bg-copper-wash font-medium' : ''}`} data-changed={f.changed || undefined}>
+                          <th scope="row" className="px-3 py-1.5 text-left font-normal">
+                            {f.changed && <span className="mr-1 text-copper-dark" aria-label="changed">●</span>}
+                            {f.label}
+                          </th>
+                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.a, f.unit)}</td>
+                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.b, f.unit)}</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  );
+                })}
+              </table>
+            </div>
+          </section>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,103 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import S3rver from 's3rver';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seedParameters } from '../../server/db/seed-content';
+import { createDiskStorage, createS3Storage, newStorageKey, type Storage } from '../../server/lib/storage';
+import { createClient, createTestApp, type TestApp } from '../setup/test-app';
+import { signedInClient } from '../factories/user';
+import { buildSetupRecord } from '../factories/setup-record';
+
+const BUCKET = 'tunewright-test';
+// s3rver accepts any credentials; these are placeholders, not secrets.
+const FAKE_KEY = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' };
+
+function driverContract(name: string, make: () => Storage) {
+  describe(`${name} storage driver`, () => {
+    it('puts, gets and deletes an object by key', async () => {
+      const storage = make();
+      const key = newStorageKey('setups', 'json');
+      const body = Buffer.from('{"hello":"harbour flats"}');
+      await storage.put(key, body, 'application/json');
+      expect(await storage.get(key)).toEqual(body);
+      await storage.delete(key);
+      expect(await storage.get(key)).toBeNull();
+      await expect(storage.delete(key)).resolves.toBeUndefined();
+    });
+
+    it('refuses keys it could not have generated', async () => {
+      const storage = make();
+      for (const key of ['../escape.json', 'setups/../../x.json', '/etc/passwd.json', 'Setups/UPPER.json', 'setups/a.exe']) {
+        await expect(storage.put(key, Buffer.from('x'), 'text/plain')).rejects.toThrow(/Refusing storage key/);
+      }
+    });
+  });
+}
+
+describe('storage', () => {
+  let dir: string;
+  let s3: S3rver;
+  let endpoint: string;
+  let s3Dir: string;
+
+  beforeAll(async () => {
+    dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-disk-'));
+    s3Dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-s3rver-'));
+    s3 = new S3rver({ address: '127.0.0.1', port: 0, silent: true, directory: s3Dir, configureBuckets: [{ name: BUCKET }] });
+    const address = await s3.run();
+    endpoint = `http://127.0.0.1:${address.port}`;
+  });
+  afterAll(async () => {
+    await s3?.close();
+    fs.rmSync(dir, { recursive: true, force: true });
+    fs.rmSync(s3Dir, { recursive: true, force: true });
+  });
+
+  driverContract('disk', () => createDiskStorage(dir));
+  driverContract('s3', () => createS3Storage({ endpoint, region: 'us-east-1', bucket: BUCKET, forcePathStyle: true, ...FAKE_KEY }));
+
+  it('disk writes leave no partial files behind', async () => {
+    const storage = createDiskStorage(dir);
+    const keys = Array.from({ length: 20 }, () => newStorageKey('setups', 'csv'));
+    await Promise.all(keys.map((k, i) => storage.put(k, Buffer.from(`row ${i}\r\n`), 'text/csv')));
+    const files = fs.readdirSync(dir, { recursive: true }).map(String);
+    expect(files.filter((f) => f.endsWith('.partial'))).toEqual([]);
+    for (const [i, k] of keys.entries()) expect((await storage.get(k))?.toString()).toBe(`row ${i}\r\n`);
+  });
+
+  describe('POST /api/setups with STORAGE_DRIVER=s3', () => {
+    let t: TestApp;
+    beforeAll(async () => {
+      t = await createTestApp({
+        STORAGE_DRIVER: 's3',
+        STORAGE_S3_ENDPOINT: endpoint,
+        STORAGE_S3_BUCKET: BUCKET,
+        STORAGE_S3_ACCESS_KEY_ID: FAKE_KEY.accessKeyId,
+        STORAGE_S3_SECRET_ACCESS_KEY: FAKE_KEY.secretAccessKey,
+      });
+      await seedParameters(t.db.dataSource);
+    });
+    afterAll(async () => {
+      await t?.close();
+    });
+
+    it('stores the upload in the bucket, serves it back, and deletes it', async () => {
+      expect(t.ctx.storage.driver).toBe('s3');
+      const { client } = await signedInClient(t);
+      const token = (await client.agent.get('/api/csrf')).body.data.token as string;
+      const body = JSON.stringify(buildSetupRecord());
+      const res = await client.agent.post('/api/setups').set('x-csrf-token', token).attach('file', Buffer.from(body), { filename: 'bucket.json', contentType: 'application/json' });
+      expect(res.status, JSON.stringify(res.body)).toBe(201);
+      const key = (await t.db.dataSource.query('SELECT storage_key FROM setups WHERE id = $1', [res.body.data.id]))[0].storage_key as string;
+      const bucketView = createS3Storage({ endpoint, region: 'us-east-1', bucket: BUCKET, forcePathStyle: true, ...FAKE_KEY });
+      expect((await bucketView.get(key))?.toString()).toBe(body);
+      expect(fs.readdirSync(t.ctx.config.uploadDir)).toEqual([]); // nothing went to local disk
+      const dl = await client.get(`/api/setups/${res.body.data.id}/download`);
+      expect(dl.text).toBe(body);
+      expect((await client.delete(`/api/setups/${res.body.data.id}`)).status).toBe(204);
+      expect(await bucketView.get(key)).toBeNull();
+      expect((await createClient(t.app).get(`/api/setups/${res.body.data.id}`)).status).toBe(401);
+    });
+  });
+});

@@ -1,0 +1,139 @@
+import fc from 'fast-check';
+import { evaluate } from 'mathjs';
+import { describe, expect, it } from 'vitest';
+import { computeGearing } from '../../../shared/calc/gearing';
+import { computePack } from '../../../shared/calc/pack';
+import { computeTopSpeed } from '../../../shared/calc/top-speed';
+import { computeSetup, DEFAULT_LOAD_FACTOR } from '../../../shared/setup/computed';
+import { compareSetups, diffSetupFields } from '../../../shared/setup/compare';
+import { buildSetupRecord, contentLibrary, setupRecordArbitrary } from '../../factories/setup-record';
+
+const library = contentLibrary();
+
+describe('computeSetup', () => {
+  it('gives the final drive ratio and rollout of the 84/40, 1.9, 64 mm check vector', () => {
+    const c = computeSetup(buildSetupRecord({ gearing: { spurTeeth: 84, pinionTeeth: 40, internalRatio: 1.9, tyreDiameterMm: 64 } }));
+    expect(c.gearing?.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks (stage ratio, Wikipedia "Gear train")
+    expect(c.gearing?.rolloutMm).toBeCloseTo(50.39, 2); // REFERENCES.md gearing checks
+    expect(c.gearing?.rolloutIn).toBeCloseTo(1.984, 3); // REFERENCES.md gearing checks
+  });
+
+  it('gives 2S LiPo pack voltages and the 3.2 V per cell cutoff as 6.40 V', () => {
+    const c = computeSetup(buildSetupRecord());
+    expect(c.pack?.fullV).toBeCloseTo(8.4, 6); // Wikipedia "Lithium polymer battery": 4.2 V per cell full
+    expect(c.pack?.nominalV).toBeCloseTo(7.4, 6); // same article: 3.7 V nominal
+    expect(c.pack?.cutoffV).toBeCloseTo(6.4, 6); // REFERENCES.md pack checks: 3.2 V/cell on 2S is 6.40 V
+    expect(c.pack?.cutoffCheck).toBe('in-window');
+  });
+
+  it('gives the no-load speed of 5,700 rpm/V on a nominal 3S LiPo (11.1 V) as 63,270 rpm', () => {
+    const c = computeSetup(buildSetupRecord({ motor: { kvRpmPerV: 5700, poles: 2, sensored: true }, battery: { chemistry: 'lipo', cells: 3 } }));
+    expect(c.motor?.volts).toBeCloseTo(11.1, 6); // 3 × 3.7 V, Wikipedia "Lithium polymer battery"
+    expect(c.motor?.noLoadRpm).toBe(63_270); // Wikipedia, "Motor constants": 5,700 rpm/V × 11.1 V = 63,270 rpm
+  });
+
+  it('estimates top speed with the road-speed relation, checked with mathjs units', () => {
+    const c = computeSetup(buildSetupRecord());
+    // common practice relation v = rpm × π d / FDR; mathjs as the independent oracle
+    const expected = evaluate(`2200 * 7.4 * ${DEFAULT_LOAD_FACTOR} / minute * pi * 62 mm / (84 / 32 * 2.6)`).toNumber('km/h');
+    expect(c.speed?.loadedKmh).toBeCloseTo(expected, 2);
+  });
+
+  it('adds controller timing at the chosen rpm to endbell timing in electrical degrees', () => {
+    const c = computeSetup(
+      buildSetupRecord({
+        motor: { kvRpmPerV: 2000, poles: 4, sensored: true, endbellTimingDeg: 10 },
+        escSettings: { 'static-timing': { value: 0, unit: 'deg' }, 'ramped-advance': { value: 30, unit: 'deg' }, 'ramp-start-rpm': { value: 10_000, unit: 'rpm' }, 'ramp-end-rpm': { value: 30_000, unit: 'rpm' } },
+      }),
+      { atRpm: 20_000 },
+    );
+    expect(c.timing?.controllerDeg).toBeCloseTo(15, 6); // REFERENCES.md timing model: 30° over 10k–30k rpm gives 15° at 20k (from memory)
+    expect(c.timing?.endbellElectricalDeg).toBeCloseTo(20, 6); // mechanical degrees × pole pairs (REFERENCES.md, from memory): 10° × 2
+    expect(c.timing?.totalDeg).toBeCloseTo(35, 6);
+  });
+
+  it('counts no electronic timing in zero-timing mode, whatever else is set', () => {
+    const c = computeSetup(buildSetupRecord({ escSettings: { 'zero-timing-mode': { value: 1, unit: '' }, 'static-timing': { value: 10, unit: 'deg' } } }));
+    expect(c.timing?.controllerDeg).toBe(0);
+    expect(c.timing?.totalDeg).toBe(30);
+  });
+
+  it('flags a LiPo cutoff under 3.0 V per cell as danger', () => {
+    const c = computeSetup(buildSetupRecord({ escSettings: { 'low-voltage-cutoff': { value: 2.9, unit: 'V' } } }));
+    expect(c.pack?.cutoffCheck).toBe('below-window');
+    expect(c.cautions[0]).toMatchObject({ level: 'danger', code: 'cutoff-below-window', source: 'pack' });
+  });
+
+  it('asks for zero-timing mode in stock touring', () => {
+    const c = computeSetup(buildSetupRecord({ vehicle: { class: 'touring-stock', chassis: '', drivetrain: '4wd' }, escSettings: {} }));
+    expect(c.cautions.map((w) => w.code)).toContain('zero-timing-class');
+  });
+
+  it('leaves speeds out, with a note, when the motor is given by wind only', () => {
+    const c = computeSetup(buildSetupRecord({ motor: { windTurns: 13.5, poles: 2, sensored: true } }));
+    expect(c.motor).toBeNull();
+    expect(c.speed).toBeNull();
+    expect(c.cautions.map((w) => w.code)).toContain('no-kv');
+  });
+});
+
+describe('compareSetups', () => {
+  const a = buildSetupRecord();
+  const b = buildSetupRecord({ gearing: { ...a.gearing, pinionTeeth: 34 }, escSettings: { ...a.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } } });
+
+  it("gives deltas equal to the calculators' own results", () => {
+    const cmp = compareSetups(a, b);
+    const ga = computeGearing({ spur: 84, pinion: 32, internalRatio: 2.6, tyreDiameterMm: 62 }).results;
+    const gb = computeGearing({ spur: 84, pinion: 34, internalRatio: 2.6, tyreDiameterMm: 62 }).results;
+    const sa = computeTopSpeed({ kv: 2200, volts: 7.4, spur: 84, pinion: 32, internalRatio: 2.6, tyreDiameterMm: 62, loadFactor: DEFAULT_LOAD_FACTOR }).results;
+    const sb = computeTopSpeed({ kv: 2200, volts: 7.4, spur: 84, pinion: 34, internalRatio: 2.6, tyreDiameterMm: 62, loadFactor: DEFAULT_LOAD_FACTOR }).results;
+    const pb = computePack({ chemistry: 'lipo', cells: 2, cutoffPerCellV: 2.9 }).results;
+    const d = Object.fromEntries(cmp.deltas.map((x) => [x.key, x]));
+    expect(d.finalDriveRatio).toMatchObject({ a: ga.finalDriveRatio, b: gb.finalDriveRatio });
+    expect(d.finalDriveRatio.delta).toBeCloseTo(gb.finalDriveRatio - ga.finalDriveRatio, 3);
+    expect(d.rolloutMm.delta).toBeCloseTo(gb.rolloutMm - ga.rolloutMm, 3);
+    expect(d.loadedKmh.delta).toBeCloseTo(sb.loadedKmh - sa.loadedKmh, 3);
+    expect(d.cutoffV.b).toBe(pb.cutoffV);
+    expect(d.cutoffPerCellV.delta).toBeCloseTo(-0.3, 6);
+  });
+
+  it('lists the changed fields and the cutoff danger on the new side', () => {
+    const cmp = compareSetups(a, b);
+    expect(cmp.differences.map((f) => f.path)).toEqual(['escSettings.low-voltage-cutoff', 'gearing.pinionTeeth']);
+    expect(cmp.cautions[0]).toMatchObject({ side: 'b', level: 'danger', code: 'cutoff-below-window' });
+  });
+
+  it('warns about heat when timing goes up on taller gearing', () => {
+    const timed = (pinion: number, ramp: number) =>
+      buildSetupRecord({
+        motor: { kvRpmPerV: 5500, poles: 2, sensored: true, endbellTimingDeg: 30 },
+        gearing: { spurTeeth: 81, pinionTeeth: pinion, internalRatio: 2.5, tyreDiameterMm: 60 },
+        escSettings: { 'static-timing': { value: 10, unit: 'deg' }, 'ramped-advance': { value: ramp, unit: 'deg' }, 'ramp-start-rpm': { value: 14_000, unit: 'rpm' }, 'ramp-end-rpm': { value: 30_000, unit: 'rpm' } },
+      });
+    expect(compareSetups(timed(23, 16), timed(25, 24)).cautions.map((c) => c.code)).toContain('heat-timing-and-gearing');
+    expect(compareSetups(timed(23, 16), timed(21, 24)).cautions.map((c) => c.code)).not.toContain('heat-timing-and-gearing');
+  });
+
+  it('deltas reverse sign when the sides swap, and a record compared with itself has no differences (property)', () => {
+    fc.assert(
+      fc.property(setupRecordArbitrary(library), setupRecordArbitrary(library), (x, y) => {
+        expect(diffSetupFields(x, x).some((f) => f.changed)).toBe(false);
+        const forward = compareSetups(x, y).deltas;
+        const back = compareSetups(y, x).deltas;
+        forward.forEach((d, i) => {
+          if (d.delta === null) expect(back[i].delta).toBeNull();
+          else expect(back[i].delta! + d.delta).toBeCloseTo(0, 2);
+        });
+      }),
+      { numRuns: 100 },
+    );
+  });
+});
+
+describe('diffSetupFields', () => {
+  it('shows a baseline added to a revision that had none', () => {
+    const rows = diffSetupFields(null, buildSetupRecord());
+    expect(rows.length).toBeGreaterThan(10);
+    expect(rows.every((r) => r.a === null && r.changed)).toBe(true);
+  });
+});
