@@ -3,6 +3,7 @@ import { loadConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
+import { createSearchService } from './modules/search/service';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
@@ -13,7 +14,9 @@ async function main() {
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const search = createSearchService({ dataSource, databaseUrl: config.databaseUrl, logger });
+  await search.start();
+  const ctx: AppContext = { config, dataSource, mailer, logger, search };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {
@@ -36,6 +39,7 @@ async function main() {
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 3000).unref();
     await mailer.stop();
+    await search.close();
     await close();
     await dataSource.destroy();
     process.exit(0);

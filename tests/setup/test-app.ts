@@ -4,9 +4,11 @@ import { loadConfig, type Config } from '../../server/config/env';
 import { createApp } from '../../server/app';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer, type Mailer } from '../../server/lib/mailer';
+import { createSearchService } from '../../server/modules/search/service';
 import { startMailCatcher } from '../../server/lib/mail-catcher';
 import { CapturedMailEntity } from '../../server/modules/dev-mail/captured-mail.entity';
 import type { AppContext } from '../../server/context';
+import { createDataSource } from '../../server/db/data-source';
 import { createTestDatabase, type TestDatabase } from './test-db';
 
 export type TestApp = {
@@ -21,8 +23,10 @@ export type TestApp = {
 };
 
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
-export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean } = {}): Promise<TestApp> {
-  const db = await createTestDatabase();
+export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase } = {}): Promise<TestApp> {
+  // Passing `db` puts a second app instance on the same database (as behind a load balancer).
+  const db = opts.db ?? (await createTestDatabase());
+  const dataSource = opts.db ? await createDataSource(db.url, { poolMax: 5 }).initialize() : db.dataSource;
   const catcher = opts.catcher === false ? null : await startMailCatcher({ dataSource: db.dataSource, port: 0 });
   const config: Config = loadConfig({
     NODE_ENV: 'test',
@@ -35,9 +39,11 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     ...overrides,
   });
   const logger = createLogger(config.logLevel);
-  const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
-  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger };
-  const created = createApp(ctx, { serveClient: false });
+  const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
+  const search = createSearchService({ dataSource, databaseUrl: db.url, logger });
+  await search.start();
+  const ctx: AppContext = { config, dataSource, mailer, logger, search };
+  const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
     ctx,
@@ -57,9 +63,11 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     },
     async close() {
       await mailer.stop();
+      await search.close();
       await created.close();
       if (catcher) await catcher.close();
-      await db.drop();
+      if (opts.db) await dataSource.destroy();
+      else await db.drop();
     },
   };
 }
