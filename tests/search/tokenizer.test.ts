@@ -40,12 +40,13 @@ describe('search tokenizer', () => {
 
 describe('markdownToText', () => {
   it('keeps prose, link texts and table cells, and drops markup and worked-example numbers', () => {
-    const md = ['## What it does', '', 'Raise **drag brake** with [initial brake](initial-brake).', '', '| Class | Range |', '| --- | --- |', '| Stock | 5–10 % |', '', '```worked-example', 'calc: brake', 'dragBrakePct: 10', '```'].join('\n');
+    const md = ['## What it does', '', 'Raise **drag brake** with [initial brake](initial-brake).', '', '| Class | Range |', '| --- | --- |', '| Stock | 5–10 % |', '', '```worked-example', 'calc: brake', 'dragBrakePct: 10', '```', '', 'Text after the example counts too.'].join('\n');
     const text = markdownToText(md);
     expect(text).toContain('What it does.');
     expect(text).toContain('Raise drag brake with initial brake.');
     expect(text).toContain('Stock · 5–10 %');
     expect(text).toContain('brake worked example');
+    expect(text).toContain('Text after the example counts too.');
     expect(text).not.toMatch(/[#*[\]|]|dragBrakePct|initial-brake\)/);
   });
 });

@@ -6,16 +6,17 @@
 export function markdownToText(md: string): string {
   const lines: string[] = [];
   let fence: string | null = null;
+  let worked = false;
   for (const raw of md.replace(/\r\n?/g, '\n').split('\n')) {
     const fenceMatch = /^\s*(```+|~~~+)\s*([\w-]*)/.exec(raw);
     if (fence) {
-      if (fenceMatch && fenceMatch[1].startsWith(fence)) fence = null;
-      else if (fence === 'worked' && /^\s*calc:\s*([\w-]+)/.test(raw)) lines.push(`${raw.replace(/^\s*calc:\s*/, '').trim()} worked example.`);
+      if (fenceMatch && fenceMatch[1].startsWith(fence) && !fenceMatch[2]) fence = null;
+      else if (worked && /^\s*calc:\s*([\w-]+)/.test(raw)) lines.push(`${raw.replace(/^\s*calc:\s*/, '').trim()} worked example.`);
       continue;
     }
     if (fenceMatch) {
-      fence = fenceMatch[2] === 'worked-example' ? 'worked' : fenceMatch[1];
-      if (fence === 'worked') fence = 'worked';
+      fence = fenceMatch[1];
+      worked = fenceMatch[2] === 'worked-example';
       continue;
     }
     let line = raw;
