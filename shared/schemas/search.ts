@@ -19,7 +19,7 @@ export const searchQuerySchema = z.object({
     .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Unknown parameter')
     .max(80)
     .optional(),
-  limit: z.coerce.number().int().min(1).max(50).default(20),
+  limit: z.coerce.number().int().min(1).max(50).default(10),
 });
 export type SearchQuery = z.infer<typeof searchQuerySchema>;
 

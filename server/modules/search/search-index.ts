@@ -1,6 +1,6 @@
-import MiniSearch, { type Query, type SearchOptions, type SearchResult } from 'minisearch';
+import MiniSearch from 'minisearch';
 import { CLASSES, SURFACES } from '../../../shared/constants';
-import type { SearchFacets, SearchHit, SearchResponse, SearchSuggestion, SearchType } from '../../../shared/schemas/search';
+import { SEARCH_TYPES, type SearchFacets, type SearchHit, type SearchSuggestion, type SearchType } from '../../../shared/schemas/search';
 import { allowedEdits, editDistance } from './spelling';
 import { SynonymTable, type QueryGroup } from './synonyms';
 import { isNumericTerm, processTerm, tokenize, tokenizeWithSpans, toTerms } from './tokenizer';
@@ -24,60 +24,156 @@ export type SearchDocument = {
 
 export type SearchFilters = { type?: SearchType; class?: string; surface?: string; parameter?: string };
 
+export type IndexSearchResult = { hits: SearchHit[]; facets: SearchFacets; total: number; didYouMean?: string };
+
 const FIELDS = ['title', 'aliases', 'summary', 'body', 'tags', 'class', 'surface', 'parameters'] as const;
 type Field = (typeof FIELDS)[number];
 
 /** Field weights: what a page is called counts most, then how it is described, then its text. */
 export const FIELD_BOOST: Record<Field, number> = { title: 8, aliases: 7, summary: 2.5, body: 1, tags: 3, class: 2.5, surface: 2.5, parameters: 1.2 };
-const SUGGEST_FIELDS: Field[] = ['title', 'aliases', 'tags', 'class', 'surface'];
+/** Fields that say what a page is (rather than what it mentions). */
+const HEADLINE_FIELDS: Field[] = ['title', 'aliases', 'tags', 'class', 'surface'];
+const SUGGEST_FIELDS: Field[] = HEADLINE_FIELDS;
 /** A query that is a parameter's own name or alias puts that parameter first; one that only contains it, less so. */
 const NAMED_PARAMETER_BOOST = { whole: 4, part: 1.5 };
 /** Other names of what was typed count, but less than the words typed. */
-const EXPANSION_WEIGHT = 0.6;
+const EXPANSION_WEIGHT = 0.4;
+/** Typo and prefix matches count for less than the word itself (MiniSearch's own weighting curve). */
 const WEIGHTS = { fuzzy: 0.35, prefix: 0.5 };
+/**
+ * A word found as typed in more than this many items is taken as meant: it gets no typo or prefix
+ * expansion (which would only add noise and cost). Rarer or unknown words get both.
+ */
+const KNOWN_WORD_DOCS = 5;
+const MAX_PREFIX_TERMS = 40;
+/** Query terms are tracked as bits of one 32-bit mask. */
+const MAX_QUERY_TERMS = 30;
+const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
 
 const CLASS_NAMES = new Map<string, string>(CLASSES.map((c) => [c.slug, c.name]));
 const SURFACE_NAMES = new Map<string, string>(SURFACES.map((s) => [s.slug, s.name]));
 const TYPE_LABELS: Record<SearchType, string> = { parameter: 'Parameter', guide: 'Guide', setup: 'Setup' };
+const CLASS_INDEX = new Map<string, number>(CLASSES.map((c, i) => [c.slug, i]));
+const SURFACE_INDEX = new Map<string, number>(SURFACES.map((s, i) => [s.slug, i]));
+const TYPE_INDEX = new Map<string, number>(SEARCH_TYPES.map((t, i) => [t, i]));
 
 const docId = (type: SearchType, slug: string) => `${type}:${slug}`;
 const paramWords = (slug: string) => slug.replace(/-/g, ' ');
 
-function fuzzyFor(term: string) {
-  if (isNumericTerm(term)) return false;
-  return allowedEdits(term.length) || false;
-}
-function prefixFor(term: string) {
-  return isNumericTerm(term) ? /\d$/.test(term) && term.length >= 2 : term.length >= 3;
-}
+type FieldTermData = Map<number, Map<number, number>>;
 
-type Ranked = { doc: SearchDocument; score: number; exactGroups: number; headlineGroups: number; terms: string[] };
-
-/** Fields that say what a page is (rather than what it mentions). */
-const HEADLINE_FIELDS = new Set<string>(['title', 'aliases', 'tags', 'class', 'surface']);
+const isWordChar = (c: string | undefined) => !!c && /[\p{L}\p{N}]/u.test(c);
 
 /**
- * The in-memory index (MiniSearch) with our ranking on top:
+ * Where the written forms of index terms occur in `lower` (already lower-cased): "brake" finds
+ * brake and brakes, "battery" batteries, "3.2v" both 3.2V and 3.2 V. indexOf scans are far cheaper
+ * than a regex over a long body; the window chosen is tokenized properly afterwards.
+ */
+function findWords(lower: string, terms: Set<string>): Array<{ at: number; term: string }> {
+  const out: Array<{ at: number; term: string }> = [];
+  for (const t of terms) {
+    const num = /^(\d+(?:\.\d+)?)([a-z%°]+)$/.exec(t);
+    const needles = num ? [num[1], num[1].replace('.', ',')] : t.endsWith('y') ? [t, `${t.slice(0, -1)}ies`] : [t];
+    for (const needle of new Set(needles)) {
+      for (let at = lower.indexOf(needle); at !== -1; at = lower.indexOf(needle, at + needle.length)) {
+        if (isWordChar(lower[at - 1])) continue;
+        let end = at + needle.length;
+        if (num) {
+          if (lower[end] === ' ' || lower[end] === '-') end++;
+          if (!lower.startsWith(num[2], end)) continue;
+          end += num[2].length;
+        } else if (lower.startsWith('es', end) && !isWordChar(lower[end + 2])) end += 2;
+        else if (lower[end] === 's' && !isWordChar(lower[end + 1])) end += 1;
+        if (isWordChar(lower[end])) continue;
+        out.push({ at, term: t });
+      }
+    }
+  }
+  return out.sort((a, b) => a.at - b.at);
+}
+
+
+/**
+ * MiniSearch keeps the index (terms in a radix tree, postings, field lengths, discard and vacuum);
+ * this subclass reads that table directly to score with flat arrays instead of one object per
+ * matching item, which is what keeps a query over 10,000 guides within a couple of milliseconds.
+ */
+class TermIndex<T> extends MiniSearch<T> {
+  termData(term: string): FieldTermData | undefined {
+    return this._index.get(term);
+  }
+  prefixTerms(prefix: string): Array<[string, FieldTermData]> {
+    return [...this._index.atPrefix(prefix)];
+  }
+  fuzzyTerms(term: string, maxDistance: number): Array<[string, FieldTermData, number]> {
+    return [...this._index.fuzzyGet(term, maxDistance)].map(([t, [data, d]]) => [t, data, d]);
+  }
+  fieldId(field: string) {
+    return this._fieldIds[field];
+  }
+  shortId(id: string) {
+    return this._idToShortId.get(id);
+  }
+  fieldLengths(shortId: number) {
+    return this._fieldLength.get(shortId);
+  }
+  avgFieldLength(fieldId: number) {
+    return this._avgFieldLength[fieldId];
+  }
+  get total() {
+    return this._documentCount;
+  }
+  docFrequency(term: string): number {
+    const fields = this._index.get(term);
+    if (!fields) return 0;
+    let n = 0;
+    for (const docs of fields.values()) n = Math.max(n, docs.size);
+    return n;
+  }
+}
+
+/** Per-item data kept in arrays indexed by MiniSearch's short id. */
+type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[] };
+
+/** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
+type FlatPostings = { gen: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
+const MAX_CACHED_TERMS = 4000;
+
+type Derived = { term: string; data: FieldTermData; weight: number; bit: number; exact: boolean; typed: boolean };
+
+/**
+ * The in-memory index with our ranking:
  * 1. query terms are grouped by the synonym table ("drag break" is one group naming drag brake);
  * 2. each group searches its words exactly, by prefix and with typo tolerance, plus its other names;
  * 3. results are ordered first by how many groups they match EXACTLY (a word or one of its names),
- *    then by score — so an exact match is never drowned by fuzzy or prefix ones.
+ *    then by how many they match in a title, alias, tag, class or surface, then by BM25 score —
+ *    so an exact match is never drowned by fuzzy or prefix ones.
  */
 export class SearchIndex {
   private mini = this.createMini();
   private docs = new Map<string, SearchDocument>();
+  private slots: Array<Slot | undefined> = [];
+  private lengths: Float64Array[] = FIELDS.map(() => new Float64Array(1024));
+  private score = new Float64Array(1024);
+  private mask = new Int32Array(1024);
+  private hmask = new Int32Array(1024);
+  /** 1 where a typed word (or its typo/prefix variant) matched, not only another name of it. */
+  private typed = new Uint8Array(1024);
+  private paramIndex = new Map<string, number>();
   private synonyms = new SynonymTable([]);
   private headline = new Map<string, number>();
+  private flat = new Map<string, FlatPostings>();
+  /** Bumped on every change, so flattened postings (and their idf) are rebuilt when next used. */
+  private gen = 0;
 
   private createMini() {
-    return new MiniSearch<SearchDocument>({
+    return new TermIndex<SearchDocument>({
       idField: 'id',
       fields: [...FIELDS],
       storeFields: [],
       extractField: (doc, field) => this.extract(doc, field as Field | 'id'),
       tokenize,
       processTerm: (t) => processTerm(t) ?? null,
-      searchOptions: { tokenize, processTerm: (t) => processTerm(t) ?? null },
       autoVacuum: { minDirtCount: 200, minDirtFactor: 0.1, batchSize: 2000, batchWait: 5 },
     });
   }
@@ -115,6 +211,50 @@ export class SearchIndex {
     this.synonyms = new SynonymTable(params.map((p) => ({ slug: p.slug, name: p.title, aliases: p.aliases })));
   }
 
+  private grow(n: number) {
+    if (n <= this.score.length) return;
+    let size = this.score.length;
+    while (size < n) size *= 2;
+    const grow = <A extends Float64Array | Int32Array>(a: A, make: (n: number) => A) => {
+      const b = make(size);
+      b.set(a);
+      return b;
+    };
+    this.score = grow(this.score, (k) => new Float64Array(k));
+    this.mask = grow(this.mask, (k) => new Int32Array(k));
+    this.hmask = grow(this.hmask, (k) => new Int32Array(k));
+    const typed = new Uint8Array(size);
+    typed.set(this.typed);
+    this.typed = typed;
+    this.lengths = this.lengths.map((a) => grow(a, (k) => new Float64Array(k)));
+  }
+
+  private paramIdx(slug: string) {
+    let i = this.paramIndex.get(slug);
+    if (i === undefined) {
+      i = this.paramIndex.size;
+      this.paramIndex.set(slug, i);
+    }
+    return i;
+  }
+
+  private attach(doc: SearchDocument) {
+    const id = docId(doc.type, doc.slug);
+    this.docs.set(id, doc);
+    for (const t of this.headlineTerms(doc)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
+    const short = this.mini.shortId(id)!;
+    this.grow(short + 1);
+    const lens = this.mini.fieldLengths(short) ?? [];
+    FIELDS.forEach((f, i) => (this.lengths[i][short] = lens[this.mini.fieldId(f)] ?? 0));
+    this.slots[short] = {
+      doc,
+      type: TYPE_INDEX.get(doc.type) ?? 0,
+      cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
+      surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
+      params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
+    };
+  }
+
   get size() {
     return this.docs.size;
   }
@@ -126,27 +266,30 @@ export class SearchIndex {
   /** Replaces the whole index (start-up, or after the notification channel was lost). */
   load(docs: SearchDocument[]) {
     this.mini = this.createMini();
+    this.gen++;
+    this.flat.clear();
     this.docs.clear();
+    this.slots = [];
     this.headline.clear();
-    for (const d of docs) {
-      this.docs.set(docId(d.type, d.slug), d);
-      for (const t of this.headlineTerms(d)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
+    const unique = new Map(docs.map((d) => [docId(d.type, d.slug), d]));
+    for (const d of unique.values()) {
+      this.mini.add(d);
+      this.attach(d);
     }
-    this.mini.addAll([...this.docs.values()]);
     this.rebuildSynonyms();
   }
 
   /** Adds or replaces one item. */
   put(doc: SearchDocument) {
-    this.remove(doc.type, doc.slug);
-    this.docs.set(docId(doc.type, doc.slug), doc);
-    for (const t of this.headlineTerms(doc)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
+    this.remove(doc.type, doc.slug, false);
+    this.gen++;
     this.mini.add(doc);
+    this.attach(doc);
     if (doc.type === 'parameter') this.rebuildSynonyms();
   }
 
   /** Removes one item if present. */
-  remove(type: SearchType, slug: string) {
+  remove(type: SearchType, slug: string, refreshSynonyms = true) {
     const id = docId(type, slug);
     const old = this.docs.get(id);
     if (!old) return false;
@@ -155,110 +298,274 @@ export class SearchIndex {
       if (n <= 0) this.headline.delete(t);
       else this.headline.set(t, n);
     }
+    const short = this.mini.shortId(id);
+    if (short !== undefined) this.slots[short] = undefined;
     this.docs.delete(id);
+    this.gen++;
     this.mini.discard(id);
-    if (type === 'parameter') this.rebuildSynonyms();
+    if (type === 'parameter' && refreshSynonyms) this.rebuildSynonyms();
     return true;
   }
 
-  private buildQuery(groups: QueryGroup[], opts: { lastPrefix?: boolean }): Query {
-    const all = groups.flatMap((g) => g.terms);
-    const queries: Query[] = [
-      {
-        queries: all,
-        fuzzy: (t) => fuzzyFor(t),
-        prefix: (t, i) => prefixFor(t) || (!!opts.lastPrefix && i === all.length - 1 && !isNumericTerm(t)),
-      },
-    ];
-    for (const g of groups) {
-      for (const e of g.expansions) queries.push({ combineWith: 'AND', queries: e, fuzzy: false, prefix: false, boostTerm: () => EXPANSION_WEIGHT });
+  /** The terms to look up for a query: each typed term (with its typo and prefix variants) and each other name. */
+  private derive(groups: QueryGroup[], opts: { lastPrefix?: boolean }) {
+    const bits = new Map<string, number>();
+    const typed = groups.flatMap((g) => g.terms);
+    const bitOf = (t: string) => {
+      let b = bits.get(t);
+      if (b === undefined && bits.size < MAX_QUERY_TERMS) bits.set(t, (b = bits.size));
+      return b;
+    };
+    typed.forEach(bitOf);
+    for (const g of groups) for (const e of g.expansions) e.forEach(bitOf);
+    const derived: Derived[] = [];
+    const typedSet = new Set(typed);
+    for (const [term, bit] of bits) {
+      const isTyped = typedSet.has(term);
+      const weight = isTyped ? 1 : EXPANSION_WEIGHT;
+      const data = this.mini.termData(term);
+      if (data) derived.push({ term, data, weight, bit, exact: true, typed: isTyped });
+      if (!isTyped) continue;
+      const rare = this.mini.docFrequency(term) <= KNOWN_WORD_DOCS;
+      const last = typed[typed.length - 1] === term;
+      const numeric = isNumericTerm(term);
+      const prefix = (!!opts.lastPrefix && last) || (rare && (numeric ? /\d$/.test(term) && term.length >= 2 : term.length >= 3));
+      const seen = new Set([term]);
+      if (prefix) {
+        const found = this.mini.prefixTerms(term).filter(([t]) => t !== term).sort((a, b) => a[0].length - b[0].length).slice(0, MAX_PREFIX_TERMS);
+        for (const [t, d] of found) {
+          seen.add(t);
+          const distance = t.length - term.length;
+          derived.push({ term: t, data: d, weight: (WEIGHTS.prefix * t.length) / (t.length + 0.3 * distance), bit, exact: false, typed: true });
+        }
+      }
+      const edits = rare && !numeric ? allowedEdits(term.length) : 0;
+      if (edits) {
+        for (const [t, d, distance] of this.mini.fuzzyTerms(term, edits)) {
+          if (seen.has(t) || isNumericTerm(t)) continue;
+          derived.push({ term: t, data: d, weight: (WEIGHTS.fuzzy * t.length) / (t.length + distance), bit, exact: false, typed: true });
+        }
+      }
     }
-    return { combineWith: 'OR', queries };
+    const formMask = (terms: string[]) => {
+      let m = 0;
+      for (const t of terms) {
+        const b = bits.get(t);
+        if (b === undefined) return 0;
+        m |= 1 << b;
+      }
+      return m;
+    };
+    // Flat lists for the hot loop: form masks, and which group each form belongs to.
+    const forms: number[] = [];
+    const formGroup: number[] = [];
+    groups.forEach((g, gi) => {
+      for (const f of [g.terms, ...g.expansions]) {
+        const m = formMask(f);
+        if (m) {
+          forms.push(m);
+          formGroup.push(gi);
+        }
+      }
+    });
+    return { derived, forms: Int32Array.from(forms), formGroup: Int32Array.from(formGroup), groupCount: groups.length };
   }
 
-  private rank(q: string, opts: { fields?: Field[]; lastPrefix?: boolean } = {}): { groups: QueryGroup[]; ranked: Ranked[] } {
+  private flatten(term: string, data: FieldTermData, fields: Field[], scope: string): FlatPostings {
+    const key = `${scope}\u0000${term}`;
+    const cached = this.flat.get(key);
+    if (cached && cached.gen === this.gen) return cached;
+    const N = this.mini.total;
+    const acc = new Map<number, number>();
+    const inHeadline = new Set<number>();
+    for (const field of fields) {
+      const fid = this.mini.fieldId(field);
+      const postings = data.get(fid);
+      if (!postings) continue;
+      const n = postings.size;
+      // Postings of discarded items linger until vacuumed, so n can pass N: keep idf positive.
+      const idf = Math.max(0.01, Math.log(1 + (N - n + 0.5) / (n + 0.5)));
+      const w = FIELD_BOOST[field] * idf;
+      const lens = this.lengths[FIELDS.indexOf(field)];
+      const avg = this.mini.avgFieldLength(fid) || 1;
+      const headline = HEADLINE_FIELDS.includes(field);
+      postings.forEach((tf, doc) => {
+        if (this.slots[doc] === undefined) return; // discarded, not yet vacuumed
+        const v = w * (BM25.d + (tf * (BM25.k + 1)) / (tf + BM25.k * (1 - BM25.b + (BM25.b * lens[doc]) / avg)));
+        acc.set(doc, (acc.get(doc) ?? 0) + v);
+        if (headline) inHeadline.add(doc);
+      });
+    }
+    const docs = new Int32Array(acc.size);
+    const impact = new Float32Array(acc.size);
+    const headline = new Uint8Array(acc.size);
+    let i = 0;
+    for (const [doc, v] of acc) {
+      docs[i] = doc;
+      impact[i] = v;
+      headline[i] = inHeadline.has(doc) ? 1 : 0;
+      i++;
+    }
+    if (this.flat.size >= MAX_CACHED_TERMS) this.flat.clear();
+    const flat = { gen: this.gen, docs, impact, headline };
+    this.flat.set(key, flat);
+    return flat;
+  }
+
+  /** Scores every matching item into the flat arrays; returns the touched short ids. */
+  private scoreAll(derived: Derived[], fields: Field[], scope: string): number[] {
+    const touched: number[] = [];
+    const { score, mask, hmask, typed } = this;
+    for (const d of derived) {
+      const p = this.flatten(d.term, d.data, fields, scope);
+      const bit = 1 << d.bit;
+      const w = d.weight;
+      const isTyped = d.typed ? 1 : 0;
+      const { docs, impact, headline } = p;
+      for (let i = 0; i < docs.length; i++) {
+        const doc = docs[i];
+        if (score[doc] === 0 && typed[doc] === 0 && mask[doc] === 0) touched.push(doc);
+        score[doc] += w * impact[i];
+        typed[doc] |= isTyped;
+        if (d.exact) {
+          mask[doc] |= bit;
+          if (headline[i]) hmask[doc] |= bit;
+        }
+      }
+    }
+    return touched;
+  }
+
+  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean }) {
     const terms = toTerms(q);
-    if (!terms.length) return { groups: [], ranked: [] };
+    if (!terms.length) return null;
     const groups = this.synonyms.group(terms);
-    const named = new Set(groups.flatMap((g) => g.slugs.map((s) => docId('parameter', s))));
+    const { derived, forms, formGroup, groupCount } = this.derive(groups, opts);
+    const seenExact = new Int32Array(groupCount);
+    const seenHeadline = new Int32Array(groupCount);
+    const named = new Set<number>();
+    for (const g of groups) for (const slug of g.slugs) {
+      const short = this.mini.shortId(docId('parameter', slug));
+      if (short !== undefined) named.add(short);
+    }
+    const touched = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
+    const { score, mask, hmask, typed, slots } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
-    const options: SearchOptions = {
-      fields: opts.fields,
-      boost: FIELD_BOOST,
-      weights: WEIGHTS,
-      tokenize: (s) => [s],
-      processTerm: (t) => t,
-      boostDocument: named.size ? (id) => (named.has(id) ? namedBoost : 1) : undefined,
-    };
-    const results = this.mini.search(this.buildQuery(groups, opts), options);
-    const ranked: Ranked[] = [];
-    for (const r of results as SearchResult[]) {
-      const doc = this.docs.get(r.id);
-      if (!doc) continue;
-      const matched = new Set(r.terms);
-      const inHeadline = (t: string) => r.match[t]?.some((f) => HEADLINE_FIELDS.has(f)) ?? false;
+    for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
+    const f = opts.filters ?? {};
+    const fType = f.type ? (TYPE_INDEX.get(f.type) ?? -2) : -1;
+    const fClass = f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1;
+    const fSurface = f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1;
+    const fParam = f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1;
+    const counts = { type: new Int32Array(SEARCH_TYPES.length), class: new Int32Array(CLASSES.length), surface: new Int32Array(SURFACES.length), parameter: new Int32Array(this.paramIndex.size) };
+    const tiers = new Int32Array(touched.length);
+    let maxTier = 0;
+    let anyExact = false;
+    const candidates: number[] = [];
+    for (let i = 0; i < touched.length; i++) {
+      const doc = touched[i];
+      const m = mask[doc];
+      const hm = hmask[doc];
       let exactGroups = 0;
       let headlineGroups = 0;
-      for (const g of groups) {
-        const forms = [g.terms, ...g.expansions];
-        if (forms.some((e) => e.every((t) => matched.has(t)))) exactGroups++;
-        if (forms.some((e) => e.every((t) => matched.has(t) && inHeadline(t)))) headlineGroups++;
+      // Stamp with i + 1 so the per-group arrays need no clearing between items.
+      const stamp = i + 1;
+      for (let k = 0; k < forms.length; k++) {
+        const fm = forms[k];
+        const g = formGroup[k];
+        if ((m & fm) === fm && seenExact[g] !== stamp) {
+          seenExact[g] = stamp;
+          exactGroups++;
+        }
+        if ((hm & fm) === fm && seenHeadline[g] !== stamp) {
+          seenHeadline[g] = stamp;
+          headlineGroups++;
+        }
       }
-      ranked.push({ doc, score: r.score, exactGroups, headlineGroups, terms: r.terms });
+      // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
+      if (!exactGroups && !typed[doc]) continue;
+      if (exactGroups) anyExact = true;
+      const slot = slots[doc]!;
+      const okType = fType < 0 || slot.type === fType;
+      const okClass = fClass < 0 || slot.cls === fClass;
+      const okSurface = fSurface < 0 || slot.surface === fSurface;
+      const okParam = fParam < 0 || slot.params.includes(fParam);
+      // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
+      if (opts.facets) {
+        if (okClass && okSurface && okParam) counts.type[slot.type]++;
+        if (okType && okSurface && okParam && slot.cls >= 0) counts.class[slot.cls]++;
+        if (okType && okClass && okParam && slot.surface >= 0) counts.surface[slot.surface]++;
+        if (okType && okClass && okSurface) for (const p of slot.params) counts.parameter[p]++;
+      }
+      if (okType && okClass && okSurface && okParam) {
+        const tier = exactGroups * 64 + headlineGroups;
+        tiers[candidates.length] = tier;
+        candidates.push(doc);
+        if (tier > maxTier) maxTier = tier;
+      }
     }
-    // Exact before fuzzy/prefix; then pages that ARE about the words before pages that mention them.
-    ranked.sort((a, b) => b.exactGroups - a.exactGroups || b.headlineGroups - a.headlineGroups || b.score - a.score);
-    return { groups, ranked };
+    // Only the page is ordered: keep the best `limit` by (tier, score) in a small sorted buffer.
+    const page: Array<{ doc: number; tier: number }> = [];
+    const better = (tier: number, doc: number, than: { doc: number; tier: number }) => tier > than.tier || (tier === than.tier && score[doc] > score[than.doc]);
+    for (let i = 0; i < candidates.length; i++) {
+      const doc = candidates[i];
+      const tier = tiers[i];
+      if (page.length >= opts.limit && !better(tier, doc, page[page.length - 1])) continue;
+      let at = page.length;
+      while (at > 0 && better(tier, doc, page[at - 1])) at--;
+      page.splice(at, 0, { doc, tier });
+      if (page.length > opts.limit) page.pop();
+    }
+    const results = page.map(({ doc, tier }) => {
+      const matched = new Set<string>();
+      for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) matched.add(d.term);
+      return { doc: slots[doc]!.doc, score: score[doc], exact: tier >= 64, matched };
+    });
+    for (const doc of touched) {
+      score[doc] = 0;
+      mask[doc] = 0;
+      hmask[doc] = 0;
+      typed[doc] = 0;
+    }
+    return { results, total: candidates.length, counts, anyExact };
   }
 
   /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */
-  search(q: string, filters: SearchFilters = {}, limit = 20): Omit<SearchResponse, 'tookMs'> & { total: number } {
-    const { ranked } = this.rank(q);
-    const pass = (d: SearchDocument, skip?: keyof SearchFilters) =>
-      (skip === 'type' || !filters.type || d.type === filters.type) &&
-      (skip === 'class' || !filters.class || d.class === filters.class) &&
-      (skip === 'surface' || !filters.surface || d.surface === filters.surface) &&
-      (skip === 'parameter' || !filters.parameter || d.parameters.includes(filters.parameter));
-    const filtered = ranked.filter((r) => pass(r.doc));
-    const facets = this.facets(ranked, pass);
-    const hits: SearchHit[] = filtered.slice(0, limit).map((r) => ({
-      type: r.doc.type,
-      slug: r.doc.slug,
-      title: r.doc.title,
-      url: r.doc.url,
-      score: Math.round(r.score * 1000) / 1000,
-      snippet: this.snippet(r.doc, new Set(r.terms)),
-      exact: r.exactGroups > 0,
+  search(q: string, filters: SearchFilters = {}, limit = 10): IndexSearchResult {
+    const r = this.run(q, { filters, limit, facets: true });
+    const empty = { type: [], class: [], surface: [], parameter: [] };
+    if (!r) return { hits: [], facets: empty, total: 0 };
+    const hits: SearchHit[] = r.results.map((x) => ({
+      type: x.doc.type,
+      slug: x.doc.slug,
+      title: x.doc.title,
+      url: x.doc.url,
+      score: Math.round(x.score * 1000) / 1000,
+      snippet: this.snippet(x.doc, x.matched),
+      exact: x.exact,
     }));
-    const anyExact = ranked.some((r) => r.exactGroups > 0);
-    const didYouMean = anyExact ? undefined : this.didYouMean(q);
-    return { hits, facets, total: filtered.length, ...(didYouMean ? { didYouMean } : {}) };
+    const list = (arr: Int32Array, value: (i: number) => string, label: (v: string) => string) =>
+      [...arr]
+        .map((count, i) => ({ value: value(i), count }))
+        .filter((x) => x.count > 0)
+        .sort((a, b) => b.count - a.count || a.value.localeCompare(b.value))
+        .map((x) => ({ value: x.value, label: label(x.value), count: x.count }));
+    const paramSlugs = [...this.paramIndex.keys()];
+    const facets: SearchFacets = {
+      type: list(r.counts.type, (i) => SEARCH_TYPES[i], (v) => TYPE_LABELS[v as SearchType]),
+      class: list(r.counts.class, (i) => CLASSES[i].slug, (v) => CLASS_NAMES.get(v) ?? v),
+      surface: list(r.counts.surface, (i) => SURFACES[i].slug, (v) => SURFACE_NAMES.get(v) ?? v),
+      parameter: list(r.counts.parameter, (i) => paramSlugs[i], (v) => this.docs.get(docId('parameter', v))?.title ?? paramWords(v)),
+    };
+    const didYouMean = r.anyExact ? undefined : this.didYouMean(q);
+    return { hits, facets, total: r.total, ...(didYouMean ? { didYouMean } : {}) };
   }
 
   /** Titles to offer while typing: names, aliases, tags and class words, the last word as a prefix. */
   suggest(q: string, limit = 8): SearchSuggestion[] {
-    let { ranked } = this.rank(q, { fields: SUGGEST_FIELDS, lastPrefix: true });
-    if (!ranked.length) ranked = this.rank(q, { lastPrefix: true }).ranked;
-    return ranked.slice(0, limit).map((r) => ({ type: r.doc.type, slug: r.doc.slug, title: r.doc.title, url: r.doc.url }));
-  }
-
-  private facets(ranked: Ranked[], pass: (d: SearchDocument, skip?: keyof SearchFilters) => boolean): SearchFacets {
-    // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
-    const count = (skip: keyof SearchFilters, values: (d: SearchDocument) => Array<string | null>) => {
-      const m = new Map<string, number>();
-      for (const r of ranked) {
-        if (!pass(r.doc, skip)) continue;
-        for (const v of new Set(values(r.doc))) if (v) m.set(v, (m.get(v) ?? 0) + 1);
-      }
-      return [...m.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]));
-    };
-    const paramName = (slug: string) => this.docs.get(docId('parameter', slug))?.title ?? paramWords(slug);
-    return {
-      type: count('type', (d) => [d.type]).map(([value, n]) => ({ value, label: TYPE_LABELS[value as SearchType], count: n })),
-      class: count('class', (d) => [d.class]).map(([value, n]) => ({ value, label: CLASS_NAMES.get(value) ?? value, count: n })),
-      surface: count('surface', (d) => [d.surface]).map(([value, n]) => ({ value, label: SURFACE_NAMES.get(value) ?? value, count: n })),
-      parameter: count('parameter', (d) => d.parameters).map(([value, n]) => ({ value, label: paramName(value), count: n })),
-    };
+    let r = this.run(q, { fields: SUGGEST_FIELDS, lastPrefix: true, limit, facets: false });
+    if (r && !r.results.length) r = this.run(q, { lastPrefix: true, limit, facets: false });
+    return (r?.results ?? []).map((x) => ({ type: x.doc.type, slug: x.doc.slug, title: x.doc.title, url: x.doc.url }));
   }
 
   /**
@@ -266,28 +573,22 @@ export class SearchIndex {
    * with any literal mark tags removed, so the client can split on them and render text nodes only.
    */
   snippet(doc: SearchDocument, matched: Set<string>, width = 220): string {
-    const sources = [doc.summary, doc.body].map((s) => s.replace(/<\/?mark>/gi, ''));
-    let best = { text: sources[0] || sources[1] || '', spans: [] as Array<{ start: number; end: number }>, score: -1, from: 0 };
-    for (const text of sources) {
-      if (!text) continue;
-      const spans = tokenizeWithSpans(text).filter((t) => {
-        const p = processTerm(t.token);
-        return p !== null && matched.has(p);
-      });
-      if (!spans.length) {
-        if (best.score < 0) best = { text, spans: [], score: 0, from: 0 };
-        continue;
-      }
+    const sources = [doc.summary, doc.body].filter(Boolean).map((s) => s.replace(/<\/?mark>/gi, ''));
+    if (!sources.length) return '';
+    // Find candidate places cheaply, then tokenize only the chosen window.
+    let best = { text: sources[0], from: 0, score: -1 };
+    for (const [i, text] of sources.entries()) {
+      const hits = findWords(text.toLowerCase(), matched);
+      if (!hits.length && best.score < 0) best = { text, from: 0, score: 0 };
       // The window of `width` characters holding the most distinct matched words, then the most hits.
-      for (let i = 0; i < spans.length; i++) {
-        const from = spans[i].start;
-        const inWin = spans.filter((s) => s.start >= from && s.end <= from + width);
-        const distinct = new Set(inWin.map((s) => processTerm(text.slice(s.start, s.end).toLowerCase()))).size;
-        const score = distinct * 100 + inWin.length + (text === sources[0] ? 1 : 0);
-        if (score > best.score) best = { text, spans: inWin, score, from };
+      for (let a = 0, b = 0; a < hits.length; a++) {
+        while (b < hits.length && hits[b].at < hits[a].at + width) b++;
+        const distinct = new Set(hits.slice(a, b).map((h) => h.term)).size;
+        const score = distinct * 100 + (b - a) + (i === 0 ? 1 : 0);
+        if (score > best.score) best = { text, from: hits[a].at, score };
       }
     }
-    const { text, spans } = best;
+    const { text } = best;
     let start = Math.max(0, best.from - 60);
     if (start > 0) {
       const sentence = text.lastIndexOf('. ', best.from);
@@ -298,14 +599,16 @@ export class SearchIndex {
       const space = text.lastIndexOf(' ', end);
       if (space > start) end = space;
     }
+    const window = text.slice(start, end);
     let out = start > 0 ? '…' : '';
-    let pos = start;
-    for (const s of spans) {
-      if (s.start < pos || s.end > end) continue;
-      out += text.slice(pos, s.start) + '<mark>' + text.slice(s.start, s.end) + '</mark>';
+    let pos = 0;
+    for (const s of tokenizeWithSpans(window)) {
+      const term = processTerm(s.token);
+      if (!term || !matched.has(term)) continue;
+      out += window.slice(pos, s.start) + '<mark>' + window.slice(s.start, s.end) + '</mark>';
       pos = s.end;
     }
-    out += text.slice(pos, end) + (end < text.length ? '…' : '');
+    out += window.slice(pos) + (end < text.length ? '…' : '');
     return out;
   }
 

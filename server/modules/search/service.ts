@@ -65,7 +65,7 @@ export function createSearchService(deps: Deps): SearchService {
         index.remove('setup', slug);
       }
     },
-    search(query, filters = {}, limit = 20) {
+    search(query, filters = {}, limit = 10) {
       const t0 = performance.now();
       const r = index.search(query, filters, limit);
       return { ...r, tookMs: Math.round((performance.now() - t0) * 100) / 100 };
