@@ -16,6 +16,7 @@ export const router = createBrowserRouter([
       { path: 'reset-password', lazy: () => import('./routes/auth-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
       { path: 'account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountPage })) },
       { path: 'admin/users', lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
+      { path: 'search', lazy: () => import('./routes/search').then((m) => ({ Component: m.SearchPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },
     ],
