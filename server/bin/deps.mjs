@@ -1,19 +1,29 @@
 // Dependency-free checks run by `npm start` and `npm test` before node_modules may exist.
 import { spawnSync } from 'node:child_process';
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 
 export const root = path.resolve(path.dirname(new URL(import.meta.url).pathname), '..', '..');
 
-/** Runs `npm ci` when node_modules is missing or older than the lockfile. */
+const lockHash = (file) => crypto.createHash('sha256').update(fs.readFileSync(file)).digest('hex');
+
+/**
+ * Runs `npm ci` when node_modules is missing or older than the lockfile. A lockfile that is only
+ * newer on disk (a checkout, a merge) but has the content node_modules was installed from is no reason to reinstall.
+ */
 export function ensureDependencies(log = console.log) {
   const marker = path.join(root, 'node_modules', '.package-lock.json');
+  const stamp = path.join(root, 'node_modules', '.tunewright-lock-sha256');
   const lock = path.join(root, 'package-lock.json');
-  const stale = !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
-  if (!stale) return;
+  const installed = fs.existsSync(marker);
+  const older = installed && fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
+  const sameContent = fs.existsSync(stamp) && fs.readFileSync(stamp, 'utf8').trim() === lockHash(lock);
+  if (installed && (!older || sameContent)) return;
   log('Installing dependencies (npm ci)…');
   const r = spawnSync('npm', ['ci', '--include=dev', '--no-audit', '--no-fund'], { cwd: root, stdio: 'inherit' });
   if (r.status !== 0) throw new Error('npm ci failed');
+  fs.writeFileSync(stamp, lockHash(lock));
 }
 
 function newestMtime(p) {

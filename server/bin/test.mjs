@@ -42,7 +42,7 @@ async function main() {
   });
   cleanup();
   let passed = 0;
-  let failed = 0;
+  let failed;
   if (fs.existsSync(report)) {
     const json = JSON.parse(fs.readFileSync(report, 'utf8'));
     passed = json.numPassedTests ?? 0;

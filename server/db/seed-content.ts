@@ -11,7 +11,7 @@ import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 
 export const CONTENT_DIR = path.resolve(process.cwd(), 'content');
-const LIBRARY_EMAIL = 'library@tunewright.invalid';
+export const LIBRARY_EMAIL = 'library@tunewright.invalid';
 const DAY = 86_400_000;
 
 /** The account that authors the seeded parameter library; it can never sign in. */

@@ -40,18 +40,17 @@ export function createMailer(opts: { dataSource: DataSource; smtpUrl: string; fr
           .setOnLocked('skip_locked')
           .getMany();
         for (const row of rows) {
+          row.attempts += 1;
           try {
             await transport.sendMail({ from: opts.from, to: row.to, subject: row.subject, text: row.text, html: row.html ?? undefined });
             row.sentAt = new Date();
             row.lastError = null;
             sent++;
           } catch (err) {
-            row.attempts += 1;
             row.lastError = String((err as Error).message ?? err).slice(0, 500);
             row.nextAttemptAt = new Date(Date.now() + Math.min(MAX_BACKOFF_MS, 1000 * 2 ** Math.min(row.attempts, 12)));
             opts.logger.warn({ to: row.to, attempts: row.attempts, err: row.lastError }, 'mail delivery failed; will retry');
           }
-          row.attempts = row.sentAt ? row.attempts + 1 : row.attempts;
           await m.getRepository(OutboxMessageEntity).save(row);
         }
         return rows.length;

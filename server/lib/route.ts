@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { Role } from '../../shared/constants';
 import { ROLE_RANK } from '../../shared/constants';
 import type { User } from '../../shared/schemas/user';
-import { AppError, forbidden, unauthenticated, validationFailed } from './errors';
+import { AppError, unauthenticated, validationFailed } from './errors';
 import type { AppContext } from '../context';
 
 /** Who may call a route: anyone, or a signed-in account of at least this role. */
@@ -78,7 +78,9 @@ function parsePart<T>(schema: z.ZodType<T> | undefined, value: unknown, where: s
 export function checkAccess(access: Access, user: User | null) {
   if (access === 'public') return;
   if (!user) throw unauthenticated();
-  if (ROLE_RANK[user.role] < ROLE_RANK[access]) throw forbidden(access === 'admin' ? 'Only administrators can do that' : access === 'moderator' ? 'Only moderators can do that' : undefined);
+  if (ROLE_RANK[user.role] < ROLE_RANK[access]) {
+    throw new AppError(403, 'role_required', access === 'admin' ? 'Only administrators can do that' : access === 'moderator' ? 'Only moderators can do that' : 'You are not allowed to do that');
+  }
 }
 
 /** Mounts route definitions on an Express router: access → validation → handler → envelope. */

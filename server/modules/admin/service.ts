@@ -5,11 +5,13 @@ import type { AppContext } from '../../context';
 import { UserEntity } from '../auth/user.entity';
 import { AuditLogEntity } from '../audit/audit-log.entity';
 import { endSessions } from '../auth/service';
+import { LIBRARY_EMAIL } from '../../db/seed-content';
 
 export function adminService(ctx: AppContext) {
   return {
     async listUsers(q: { q?: string; role?: Role; page: number; pageSize: number }) {
-      const qb = ctx.dataSource.getRepository(UserEntity).createQueryBuilder('u');
+      // The seeded library's authoring account is not a person; it is not listed.
+      const qb = ctx.dataSource.getRepository(UserEntity).createQueryBuilder('u').where('u.email <> :library', { library: LIBRARY_EMAIL });
       if (q.q) {
         const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`).toLowerCase()}%`;
         qb.andWhere(new Brackets((w) => w.where('u.email LIKE :like', { like }).orWhere('lower(u.displayName) LIKE :like', { like })));

@@ -44,7 +44,7 @@ function HeaderSearch() {
     if (q.trim()) navigate(`/search?q=${encodeURIComponent(q.trim())}`);
   };
   return (
-    <form role="search" onSubmit={handleSubmit} className="w-full sm:w-64">
+    <form role="search" onSubmit={handleSubmit} className="w-full sm:w-56 lg:w-48 xl:w-60">
       <label className="sr-only" htmlFor="header-search">
         Search settings and guides
       </label>
@@ -106,7 +106,7 @@ export function AppLayout() {
         Skip to content
       </a>
       <header className="no-print border-b border-paper-line bg-paper/95 backdrop-blur">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-3 px-4 py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-3 px-4 py-3">
           <Brand />
           <button type="button" className="ml-auto rounded-md border border-ink/20 px-3 py-1.5 text-sm md:hidden" aria-expanded={menuOpen} aria-controls="main-nav" onClick={() => setMenuOpen((o) => !o)}>
             Menu
@@ -117,7 +117,7 @@ export function AppLayout() {
                 key={n.to}
                 to={n.to}
                 onClick={() => setMenuOpen(false)}
-                className={({ isActive }) => `rounded-md px-2.5 py-1.5 text-sm font-medium no-underline ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`}
+                className={({ isActive }) => `rounded-md px-2 py-1.5 text-sm font-medium no-underline ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`}
               >
                 {n.label}
                 {n.to === '/review' && Badge && <Badge />}

@@ -21,6 +21,7 @@ export function UsersTable({ me }: { me: User }) {
   const update = useUpdateUser();
 
   const handleChange = async (user: AdminUser, patch: { role?: Role; disabled?: boolean }) => {
+    if (patch.disabled && !window.confirm(`Disable ${user.displayName}? They are signed out everywhere at once and cannot sign in until enabled again.`)) return;
     try {
       await update.mutateAsync({ id: user.id, ...patch });
       toast.success(patch.role ? `${user.displayName} is now ${patch.role}` : patch.disabled ? `${user.displayName} is disabled and signed out` : `${user.displayName} is enabled`);
@@ -63,7 +64,7 @@ export function UsersTable({ me }: { me: User }) {
             <div className="flex items-center gap-2">
               {u.disabled ? <Chip tone="ink">disabled</Chip> : <Chip>active</Chip>}
               {u.id !== me.id && (
-                <Button size="sm" variant={u.disabled ? 'secondary' : 'danger'} onClick={() => handleChange(u, { disabled: !u.disabled })} disabled={update.isPending}>
+                <Button size="sm" variant="secondary" className={u.disabled ? '' : 'text-danger!'} onClick={() => handleChange(u, { disabled: !u.disabled })} disabled={update.isPending}>
                   {u.disabled ? 'Enable' : 'Disable'}
                 </Button>
               )}

@@ -1,0 +1,78 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { start, type E2EServer } from '../setup/e2e-server';
+import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
+
+let server: E2EServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  server = await start();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+describe('sign-up journey in Chromium', () => {
+  it('signs up, opens the verification mail, verifies, signs in, sees the account page and signs out', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const errors = watchPageErrors(page);
+    const email = 'harbour-newcomer@tidewater.test';
+    const password = 'lantern-quay-pinion-snail-8';
+
+    await page.goto(`${server.baseUrl}/`);
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('tuning notebook');
+    await screenshot(page, 'skeleton-home');
+
+    await page.getByRole('link', { name: 'Join' }).click();
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Display name').fill('Harbour Newcomer');
+    await page.getByLabel('Password').fill('password1234');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByText(/too easy to guess/i).first().waitFor();
+    await screenshot(page, 'skeleton-sign-up-weak-password');
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByText('Check your mail').waitFor();
+
+    // The mail catcher captured the verification mail; the dev mailbox page shows it.
+    await server.t.waitForMail(email, /confirm/i);
+    await page.goto(`${server.baseUrl}/dev/mail`);
+    await page.getByText('Confirm your e-mail for Tunewright').first().waitFor();
+    await screenshot(page, 'skeleton-dev-mail');
+    const link = page.locator('a[href*="/verify?token="]').first();
+    await link.click();
+    await page.getByText('E-mail confirmed').waitFor();
+
+    await page.getByRole('link', { name: 'sign in', exact: true }).click();
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL('**/account');
+    await page.getByRole('heading', { name: 'Harbour Newcomer' }).waitFor();
+    await screenshot(page, 'skeleton-account');
+
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
+    await page.waitForURL(`${server.baseUrl}/`);
+    const me = await page.evaluate(() => fetch('/api/auth/me').then((r) => r.json()));
+    expect(me.data.user).toBeNull();
+    expect(errors).toEqual([]);
+
+    await page.setViewportSize({ width: 375, height: 800 });
+    await page.goto(`${server.baseUrl}/sign-in`);
+    await screenshot(page, 'skeleton-sign-in-phone');
+    await page.close();
+  }, 60_000);
+
+  it('shows the guarded pages to the wrong people as "sign in" and "not allowed"', async () => {
+    const page = await browser.newPage();
+    await page.goto(`${server.baseUrl}/admin/users`);
+    await page.getByRole('heading', { name: 'Sign in to continue' }).waitFor();
+    await page.goto(`${server.baseUrl}/no/such/page`);
+    await page.getByRole('heading', { name: 'No page here' }).waitFor();
+    await page.close();
+  });
+});

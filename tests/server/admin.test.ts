@@ -1,0 +1,101 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createClient, createTestApp, type TestApp } from '../setup/test-app';
+import { createUser, signedInClient } from '../factories/user';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp({}, { catcher: false });
+});
+afterAll(async () => {
+  await t.close();
+});
+
+describe('GET /api/admin/users', () => {
+  it('lists and searches accounts for an admin', async () => {
+    const { client } = await signedInClient(t, 'admin');
+    await createUser(t, { email: 'findme-quill@tidewater.test', displayName: 'Quill Findable' });
+    const all = await client.get('/api/admin/users');
+    expect(all.status).toBe(200);
+    expect(all.body.meta.total).toBeGreaterThanOrEqual(2);
+    expect(all.body.data[0]).toHaveProperty('disabled');
+    const byName = await client.get('/api/admin/users?q=quill');
+    expect(byName.body.data.map((u: { email: string }) => u.email)).toEqual(['findme-quill@tidewater.test']);
+    const byMail = await client.get('/api/admin/users?q=FINDME');
+    expect(byMail.body.data).toHaveLength(1);
+    const bad = await client.get('/api/admin/users?page=0');
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details[0].path).toBe('query.page');
+  });
+
+  it('refuses members (403) and visitors (401)', async () => {
+    const { client } = await signedInClient(t, 'member');
+    expect((await client.get('/api/admin/users')).status).toBe(403);
+    expect((await createClient(t.app).get('/api/admin/users')).status).toBe(401);
+  });
+});
+
+describe('PATCH /api/admin/users/:id', () => {
+  it('grants the moderator role and writes an audit row', async () => {
+    const { client, user: admin } = await signedInClient(t, 'admin');
+    const { user } = await createUser(t);
+    const res = await client.patch(`/api/admin/users/${user.id}`, { role: 'moderator' });
+    expect(res.status).toBe(200);
+    expect(res.body.data.user.role).toBe('moderator');
+    const audit = await t.db.dataSource.query(`SELECT actor_id, action, from_value, to_value FROM audit_log WHERE subject_id = $1`, [user.id]);
+    expect(audit).toEqual([{ actor_id: admin.id, action: 'user.role', from_value: 'member', to_value: 'moderator' }]);
+  });
+
+  it('disabling an account ends its sessions at once', async () => {
+    const { client: admin } = await signedInClient(t, 'admin');
+    const { client: victim, user } = await signedInClient(t, 'member');
+    expect((await victim.get('/api/auth/me')).body.data.user.id).toBe(user.id);
+    const res = await admin.patch(`/api/admin/users/${user.id}`, { disabled: true });
+    expect(res.body.data.user.disabled).toBe(true);
+    expect((await victim.get('/api/auth/me')).body.data.user).toBeNull();
+    const sessions = await t.db.dataSource.query(`SELECT count(*)::int n FROM session WHERE sess->'passport'->>'user' = $1`, [user.id]);
+    expect(sessions[0].n).toBe(0);
+    // …and the disabled account cannot sign back in.
+    const again = await createClient(t.app).post('/api/auth/sign-in', { email: user.email, password: 'tidal-gearbox-lantern-42' });
+    expect(again.status).toBe(401);
+  });
+
+  it('refuses changing yourself, unknown ids and empty patches', async () => {
+    const { client, user } = await signedInClient(t, 'admin');
+    const self = await client.patch(`/api/admin/users/${user.id}`, { role: 'member' });
+    expect(self.status).toBe(409);
+    expect(self.body.error.code).toBe('cannot_change_self');
+    expect((await client.patch('/api/admin/users/00000000-0000-4000-8000-000000000000', { role: 'member' })).status).toBe(404);
+    expect((await client.patch('/api/admin/users/not-a-uuid', { role: 'member' })).status).toBe(400);
+    expect((await client.patch(`/api/admin/users/${user.id}`, {})).status).toBe(400);
+    expect((await client.patch(`/api/admin/users/${user.id}`, { role: 'superuser' })).body.error.details[0].path).toBe('body.role');
+  });
+});
+
+describe('account', () => {
+  it('PATCH /api/account changes the display name', async () => {
+    const { client } = await signedInClient(t, 'member');
+    const res = await client.patch('/api/account', { displayName: 'Pit Lane Regular' });
+    expect(res.status).toBe(200);
+    expect((await client.get('/api/auth/me')).body.data.user.displayName).toBe('Pit Lane Regular');
+  });
+
+  it('POST /api/account/password rotates the session and ends the others', async () => {
+    const { user, password } = await createUser(t);
+    const a = createClient(t.app);
+    const b = createClient(t.app);
+    await a.post('/api/auth/sign-in', { email: user.email, password });
+    await b.post('/api/auth/sign-in', { email: user.email, password });
+    a.resetCsrf();
+    const before = String((await a.get('/api/auth/me')).request.cookies ?? '');
+    const wrong = await a.post('/api/account/password', { currentPassword: 'nope-nope-nope-nope', newPassword: 'another-long-tidal-phrase-7' });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error.details[0].path).toBe('body.currentPassword');
+    const ok = await a.post('/api/account/password', { currentPassword: password, newPassword: 'another-long-tidal-phrase-7' });
+    expect(ok.status).toBe(200);
+    expect(String(ok.headers['set-cookie'])).toMatch(/tw\.sid=/);
+    expect(String(ok.headers['set-cookie'])).not.toContain(before || 'never-matches');
+    a.resetCsrf();
+    expect((await a.get('/api/auth/me')).body.data.user?.id).toBe(user.id);
+    expect((await b.get('/api/auth/me')).body.data.user).toBeNull();
+  });
+});

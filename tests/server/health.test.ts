@@ -1,0 +1,98 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { startCluster, freePort, ensureDatabase, type Cluster } from '../../server/bin/postgres.mjs';
+import { createDataSource } from '../../server/db/data-source';
+import { loadConfig } from '../../server/config/env';
+import { createLogger } from '../../server/lib/logger';
+import { createMailer } from '../../server/lib/mailer';
+import { createApp } from '../../server/app';
+import type { AppContext } from '../../server/context';
+import type { DataSource } from 'typeorm';
+
+// Its own small cluster, so stopping PostgreSQL here does not disturb the other test files.
+let cluster: Cluster;
+let ds: DataSource;
+let ctx: AppContext;
+let closeApp: () => Promise<void>;
+let app: ReturnType<typeof createApp>['app'];
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-health-pg-'));
+
+beforeAll(async () => {
+  const bin = process.env.TEST_PG_BIN;
+  if (!bin) throw new Error('run with npm test (TEST_PG_BIN)');
+  cluster = startCluster({ bin, dir, port: await freePort(), log: () => {} });
+  ensureDatabase(cluster, 'health');
+  ds = createDataSource(cluster.urlFor('health'));
+  await ds.initialize();
+  await ds.runMigrations();
+  const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
+  const logger = createLogger('silent');
+  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }) };
+  const created = createApp(ctx, { serveClient: false });
+  app = created.app;
+  closeApp = created.close;
+}, 60_000);
+
+afterAll(async () => {
+  await closeApp?.();
+  await ds?.destroy().catch(() => {});
+  cluster?.stop();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+describe('GET /api/health', () => {
+  it('reports ok, then 503 with db down while PostgreSQL is stopped, and recovers by itself', async () => {
+    const ok = await request(app).get('/api/health');
+    expect(ok.status).toBe(200);
+    expect(ok.body.data).toMatchObject({ status: 'ok', db: 'ok' });
+    expect(ok.body.data.version).toMatch(/^\d+\.\d+\.\d+/);
+
+    cluster.stop();
+    const started = Date.now();
+    const down = await request(app).get('/api/health');
+    expect(Date.now() - started).toBeLessThan(5000);
+    expect(down.status).toBe(503);
+    expect(down.body.data).toMatchObject({ status: 'degraded', db: 'down' });
+    // Routes that need the database fail fast in the error shape, not with a 500 or a hang.
+    const me = await request(app).get('/api/auth/me').set('Cookie', 'tw.sid=s%3Aabc.def');
+    expect([200, 503]).toContain(me.status);
+    const csrf = await request(app).get('/api/csrf');
+    expect(csrf.status).toBe(503);
+    expect(csrf.body.error.code).toBe('db_unavailable');
+
+    cluster = startCluster({ bin: process.env.TEST_PG_BIN!, dir, port: cluster.port, log: () => {} });
+    let back = await request(app).get('/api/health');
+    for (let i = 0; i < 20 && back.status !== 200; i++) {
+      await new Promise((r) => setTimeout(r, 250));
+      back = await request(app).get('/api/health');
+    }
+    expect(back.status).toBe(200);
+    expect(back.body.data.db).toBe('ok');
+  }, 60_000);
+});
+
+describe('security headers', () => {
+  it('sets a CSP without inline script, nosniff, frame-ancestors and a referrer policy', async () => {
+    const res = await request(app).get('/api/health');
+    const csp = String(res.headers['content-security-policy']);
+    expect(csp).toContain("script-src 'self'");
+    expect(csp).not.toMatch(/script-src[^;]*unsafe-inline/);
+    expect(csp).toContain("frame-ancestors 'none'");
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['referrer-policy']).toBe('strict-origin-when-cross-origin');
+    expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+});
+
+describe('GET /api/openapi.json', () => {
+  it('documents every route of the table', async () => {
+    const res = await request(app).get('/api/openapi.json');
+    expect(res.status).toBe(200);
+    expect(res.body.openapi).toBe('3.1.0');
+    expect(res.body.paths['/api/admin/users/{id}'].patch.requestBody).toBeDefined();
+    expect(res.body.paths['/api/auth/sign-up'].post.responses['201']).toBeDefined();
+  });
+});
