@@ -7,6 +7,7 @@ import { startCluster, freePort, ensureDatabase, type Cluster } from '../../serv
 import { createDataSource } from '../../server/db/data-source';
 import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
+import { createSearchService } from '../../server/modules/search/service';
 import { createMailer } from '../../server/lib/mailer';
 import { createApp } from '../../server/app';
 import type { AppContext } from '../../server/context';
@@ -30,7 +31,7 @@ beforeAll(async () => {
   await ds.runMigrations();
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
   const logger = createLogger('silent');
-  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }) };
+  ctx = { config, dataSource: ds, logger, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), search: createSearchService({ dataSource: ds, databaseUrl: cluster.urlFor('health'), logger, listen: false }) };
   const created = createApp(ctx, { serveClient: false });
   app = created.app;
   closeApp = created.close;
