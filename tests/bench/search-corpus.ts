@@ -16,11 +16,55 @@ export function rng(seed: number) {
 }
 
 // Invented places and the trade's own words; nothing here names a real track, club or maker.
-const TRACKS = ['Harbour Flats Indoor', 'Saltings Meadow', 'the Tidewater car park', 'Brackwater Barn', 'Gullrock Hall', 'Fenmarsh Raceway', 'Cobble Quay', 'Heronmere Park', 'Lanternfield', 'Shingle End', 'Mudlark Arena', 'Wrackline Common'];
-const LAYOUTS = ['tight layout', 'flowing layout', 'long straight', 'technical infield', 'big jumps', 'sweeping layout', 'short pass', 'winter layout', 'spring re-layout', 'club night'];
+const TRACKS = [
+  'Harbour Flats Indoor',
+  'Saltings Meadow',
+  'the Tidewater car park',
+  'Brackwater Barn',
+  'Gullrock Hall',
+  'Fenmarsh Raceway',
+  'Cobble Quay',
+  'Heronmere Park',
+  'Lanternfield',
+  'Shingle End',
+  'Mudlark Arena',
+  'Wrackline Common',
+];
+const LAYOUTS = [
+  'tight layout',
+  'flowing layout',
+  'long straight',
+  'technical infield',
+  'big jumps',
+  'sweeping layout',
+  'short pass',
+  'winter layout',
+  'spring re-layout',
+  'club night',
+];
 const WINDS = ['21.5T', '17.5T', '13.5T', '10.5T', '8.5T', '6.5T', '5.5T', '4.5T'];
 const CELLS = ['1S', '2S', '3S', '4S', '6S'];
-const EXTRA_TAGS = ['indoor', 'outdoor', 'blinky', 'sensored', 'sensorless', 'motor heat', 'dusty', 'high grip', 'low grip', 'wet', 'summer', 'winter', 'rollout', 'timing', 'launch', 'jumps', 'tyre wear', 'club race', 'beginner'];
+const EXTRA_TAGS = [
+  'indoor',
+  'outdoor',
+  'blinky',
+  'sensored',
+  'sensorless',
+  'motor heat',
+  'dusty',
+  'high grip',
+  'low grip',
+  'wet',
+  'summer',
+  'winter',
+  'rollout',
+  'timing',
+  'launch',
+  'jumps',
+  'tyre wear',
+  'club race',
+  'beginner',
+];
 const CLASS_WORDS: Record<string, string> = {
   'buggy-2wd-stock': 'Stock 2WD buggy',
   'buggy-2wd-mod': 'Modified 2WD buggy',
@@ -42,7 +86,18 @@ const OPENERS = [
   'Write down what you change, and go back if the lap times do not improve.',
 ];
 const MOVES = ['raise', 'lower', 'keep', 'add a little', 'take out some', 'start at', 'try'];
-const EFFECTS = ['for a calmer corner entry', 'so the car carries more speed', 'to stop the rear stepping out', 'for more bite on exit', 'to keep the motor temperature down', 'so the pack lasts the whole main', 'for a smoother launch', 'to help on the jumps', 'because the grip came up late in the day', 'to free the car in the hairpins'];
+const EFFECTS = [
+  'for a calmer corner entry',
+  'so the car carries more speed',
+  'to stop the rear stepping out',
+  'for more bite on exit',
+  'to keep the motor temperature down',
+  'so the pack lasts the whole main',
+  'for a smoother launch',
+  'to help on the jumps',
+  'because the grip came up late in the day',
+  'to free the car in the hairpins',
+];
 const CHECKS = [
   'Check the motor temperature after five minutes; stop if it is too hot to hold.',
   'Charge on a fire-safe surface and never leave a charging lithium pack unattended.',
@@ -89,7 +144,10 @@ export function syntheticGuides(n: number, seed = 20_240_601): SearchDocument[] 
       const unit = p.content.unit ? ` ${p.content.unit}` : '';
       sentences.push(`${pick(r, MOVES)} ${name} ${r() < 0.5 ? `to ${Number(value.toFixed(2))}${unit}` : ''} ${pick(r, EFFECTS)}.`.replace(/\s+/g, ' '));
       if (r() < 0.25) sentences.push(pick(r, CHECKS));
-      if (r() < 0.15) sentences.push(`The ${pick(r, ['spur', 'pinion', 'final drive ratio', 'rollout'])} ended up at ${Math.round(20 + r() * 70)} after the ${pick(r, ['first', 'second', 'third'])} qualifier.`);
+      if (r() < 0.15)
+        sentences.push(
+          `The ${pick(r, ['spur', 'pinion', 'final drive ratio', 'rollout'])} ended up at ${Math.round(20 + r() * 70)} after the ${pick(r, ['first', 'second', 'third'])} qualifier.`,
+        );
     }
     const slug = `synthetic-${i}`;
     out.push({
@@ -98,7 +156,10 @@ export function syntheticGuides(n: number, seed = 20_240_601): SearchDocument[] 
       title,
       url: searchUrls.guide(slug),
       aliases: [],
-      summary: `A ${wind} ${CLASS_WORDS[cls].toLowerCase()} baseline for ${track}, covering ${discussed.slice(0, 3).map((p) => p.content.name.toLowerCase()).join(', ')}.`,
+      summary: `A ${wind} ${CLASS_WORDS[cls].toLowerCase()} baseline for ${track}, covering ${discussed
+        .slice(0, 3)
+        .map((p) => p.content.name.toLowerCase())
+        .join(', ')}.`,
       body: sentences.map((s) => s[0].toUpperCase() + s.slice(1)).join(' '),
       tags: [wind, cells, ...sample(r, EXTRA_TAGS, 2 + Math.floor(r() * 3))],
       class: cls,

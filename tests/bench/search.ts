@@ -101,7 +101,12 @@ async function main() {
   const corpus: SearchDocument[] = [...library, ...synthetic];
   const words = corpus.reduce((n, d) => n + d.body.split(' ').length, 0);
   console.log(`corpus: ${library.length} library items + ${synthetic.length} synthetic guides, ${(words / 1e6).toFixed(1)} M body words`);
-  console.log(`machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}, node ${process.version}`);
+  console.log(
+    `machine: ${os.cpus().length} cores, load average ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(' ')}, node ${process.version}`,
+  );
 
   // ---- ours: build and heap
   gc();
@@ -172,7 +177,18 @@ async function main() {
   await admin.query(`CREATE DATABASE ${dbName}`);
   const client = new pg.Client({ connectionString: pgServer.url.replace(/\/[^/]*$/, `/${dbName}`) });
   await client.connect();
-  let pgResult: { loadMs: number; indexMs: number; sizeMb: number; and: number[]; or: number[]; andBig: ReturnType<typeof hitRate>; orBig: ReturnType<typeof hitRate>; andSmall: ReturnType<typeof hitRate>; orSmall: ReturnType<typeof hitRate>; upd: number[] };
+  let pgResult: {
+    loadMs: number;
+    indexMs: number;
+    sizeMb: number;
+    and: number[];
+    or: number[];
+    andBig: ReturnType<typeof hitRate>;
+    orBig: ReturnType<typeof hitRate>;
+    andSmall: ReturnType<typeof hitRate>;
+    orSmall: ReturnType<typeof hitRate>;
+    upd: number[];
+  };
   try {
     await client.query(`CREATE TABLE docs (id text PRIMARY KEY, synthetic boolean NOT NULL, title text, aliases text, tags text, summary text, body text,
       tsv tsvector GENERATED ALWAYS AS (
@@ -180,7 +196,15 @@ async function main() {
         setweight(to_tsvector('english', coalesce(tags, '')), 'B') || setweight(to_tsvector('english', coalesce(summary, '')), 'C') ||
         setweight(to_tsvector('english', coalesce(body, '')), 'D')) STORED)`);
     const tl = performance.now();
-    const rows = corpus.map((d) => [`${d.type}:${d.slug}`, d.slug.startsWith('synthetic-'), d.title, d.aliases.join(', '), [...d.tags, d.class ?? '', d.surface ?? ''].join(' '), d.summary, d.body]);
+    const rows = corpus.map((d) => [
+      `${d.type}:${d.slug}`,
+      d.slug.startsWith('synthetic-'),
+      d.title,
+      d.aliases.join(', '),
+      [...d.tags, d.class ?? '', d.surface ?? ''].join(' '),
+      d.summary,
+      d.body,
+    ]);
     for (let i = 0; i < rows.length; i += 500) {
       const batch = rows.slice(i, i + 500);
       const params: unknown[] = [];
@@ -197,7 +221,8 @@ async function main() {
     const AND = `SELECT id FROM docs, websearch_to_tsquery('english', $1) q WHERE tsv @@ q ORDER BY ts_rank(tsv, q) DESC LIMIT 20`;
     // OR of the words, closer to how our engine treats a query.
     const OR = `SELECT id FROM docs, to_tsquery('english', coalesce(nullif(replace(plainto_tsquery('english', $1)::text, ' & ', ' | '), ''), 'zzzz')) q WHERE tsv @@ q ORDER BY ts_rank(tsv, q) DESC LIMIT 20`;
-    const ids = async (sql: string, q: string, where = '') => (await client.query(where ? sql.replace('WHERE', `WHERE ${where} AND`) : sql, [q])).rows.map((x: { id: string }) => x.id);
+    const ids = async (sql: string, q: string, where = '') =>
+      (await client.query(where ? sql.replace('WHERE', `WHERE ${where} AND`) : sql, [q])).rows.map((x: { id: string }) => x.id);
     for (const q of MIX) {
       await ids(AND, q);
       await ids(OR, q);
@@ -241,9 +266,22 @@ async function main() {
   console.log(line(['index build', `${fmt(buildMs / 1000)} s`, `≤ ${TARGETS.buildMs / 1000} s`, ok(buildMs, TARGETS.buildMs), ''], W));
   console.log(line(['heap held by the index', `${fmt(heapIndexMb, 0)} MB`, `≤ ${TARGETS.heapMb} MB`, ok(heapIndexMb, TARGETS.heapMb), ''], W));
   console.log(line(['heap used, whole process', `${fmt(mb(heapAfter), 0)} MB`, '', '', ''], W));
-  console.log(line(['search p50 / p95 / p99', `${fmt(pct(lat, 50))} ms`, `${fmt(pct(lat, 95))} ms`, `${fmt(pct(lat, 99))} ms`, ok(pct(lat, 95), TARGETS.p95Ms)], W));
+  console.log(
+    line(['search p50 / p95 / p99', `${fmt(pct(lat, 50))} ms`, `${fmt(pct(lat, 95))} ms`, `${fmt(pct(lat, 99))} ms`, ok(pct(lat, 95), TARGETS.p95Ms)], W),
+  );
   console.log(line(['suggest p50 / p95 / p99', `${fmt(pct(suggestLat, 50))} ms`, `${fmt(pct(suggestLat, 95))} ms`, `${fmt(pct(suggestLat, 99))} ms`, ''], W));
-  console.log(line(['update guide p50 / p95 / max', `${fmt(pct(upd, 50), 3)} ms`, `${fmt(pct(upd, 95), 3)} ms`, `${fmt(Math.max(...upd), 3)} ms`, ok(pct(upd, 95), TARGETS.updateMs)], W));
+  console.log(
+    line(
+      [
+        'update guide p50 / p95 / max',
+        `${fmt(pct(upd, 50), 3)} ms`,
+        `${fmt(pct(upd, 95), 3)} ms`,
+        `${fmt(Math.max(...upd), 3)} ms`,
+        ok(pct(upd, 95), TARGETS.updateMs),
+      ],
+      W,
+    ),
+  );
   console.log(line(['update parameter p50 / p95', `${fmt(pct(paramUpd, 50), 3)} ms`, `${fmt(pct(paramUpd, 95), 3)} ms`, '', ''], W));
   console.log(line(['remove item p50 / p95', `${fmt(pct(rem, 50), 3)} ms`, `${fmt(pct(rem, 95), 3)} ms`, '', ''], W));
   console.log(`(${lat.length} searches over ${MIX.length} distinct queries; ${upd.length} guide updates)`);
@@ -253,14 +291,35 @@ async function main() {
   const W2 = [30, 12, 12, 12, 16, 16];
   console.log(line(['', 'p50', 'p95', 'p99', 'top-3 (library)', 'top-3 (+10k)'], W2));
   const row = (name: string, l: number[], small: ReturnType<typeof hitRate>, big: ReturnType<typeof hitRate>) =>
-    console.log(line([name, `${fmt(pct(l, 50))} ms`, `${fmt(pct(l, 95))} ms`, `${fmt(pct(l, 99))} ms`, `${fmt(small.top3 * 100, 0)} % (${fmt(small.mrr, 2)})`, `${fmt(big.top3 * 100, 0)} % (${fmt(big.mrr, 2)})`], W2));
+    console.log(
+      line(
+        [
+          name,
+          `${fmt(pct(l, 50))} ms`,
+          `${fmt(pct(l, 95))} ms`,
+          `${fmt(pct(l, 99))} ms`,
+          `${fmt(small.top3 * 100, 0)} % (${fmt(small.mrr, 2)})`,
+          `${fmt(big.top3 * 100, 0)} % (${fmt(big.mrr, 2)})`,
+        ],
+        W2,
+      ),
+    );
   row('ours (in memory)', lat, oursSmall, oursBig);
   row('PostgreSQL FTS, AND', p.and, p.andSmall, p.andBig);
   row('PostgreSQL FTS, OR', p.or, p.orSmall, p.orBig);
   console.log('(top-3 hit rate on the quality set, MRR in brackets; "library" = the real library only, "+10k" = with the synthetic guides)');
-  console.log(`latency ratio PostgreSQL / ours at p50: AND ${fmt(pct(p.and, 50) / pct(lat, 50), 1)}×, OR ${fmt(pct(p.or, 50) / pct(lat, 50), 1)}×; at p95: AND ${fmt(pct(p.and, 95) / pct(lat, 95), 1)}×, OR ${fmt(pct(p.or, 95) / pct(lat, 95), 1)}×`);
-  console.log(`PostgreSQL: load ${fmt(p.loadMs / 1000)} s, GIN build ${fmt(p.indexMs / 1000)} s, table + index ${fmt(p.sizeMb, 0)} MB, single-row update p50 ${fmt(pct(p.upd, 50))} ms`);
-  console.log(`load average at the end: ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+  console.log(
+    `latency ratio PostgreSQL / ours at p50: AND ${fmt(pct(p.and, 50) / pct(lat, 50), 1)}×, OR ${fmt(pct(p.or, 50) / pct(lat, 50), 1)}×; at p95: AND ${fmt(pct(p.and, 95) / pct(lat, 95), 1)}×, OR ${fmt(pct(p.or, 95) / pct(lat, 95), 1)}×`,
+  );
+  console.log(
+    `PostgreSQL: load ${fmt(p.loadMs / 1000)} s, GIN build ${fmt(p.indexMs / 1000)} s, table + index ${fmt(p.sizeMb, 0)} MB, single-row update p50 ${fmt(pct(p.upd, 50))} ms`,
+  );
+  console.log(
+    `load average at the end: ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(' ')}`,
+  );
 }
 
 main().catch((err) => {

@@ -13,7 +13,13 @@ async function nextNumber(ds: DataSource | import('typeorm').EntityManager, docu
 }
 
 /** Publishes new content for an existing document (the old live revision becomes archived). */
-export async function publishRevision(ds: DataSource, kind: DocumentKind, slug: string, edit: (content: Record<string, unknown>) => Record<string, unknown>, opts: { setup?: Record<string, unknown> | null; action?: 'published' | 'restored' } = {}) {
+export async function publishRevision(
+  ds: DataSource,
+  kind: DocumentKind,
+  slug: string,
+  edit: (content: Record<string, unknown>) => Record<string, unknown>,
+  opts: { setup?: Record<string, unknown> | null; action?: 'published' | 'restored' } = {},
+) {
   return ds.transaction(async (m) => {
     const doc = await m.getRepository(DocumentEntity).findOneByOrFail({ kind, slug });
     const live = doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId }) : null;
@@ -40,7 +46,13 @@ export async function publishRevision(ds: DataSource, kind: DocumentKind, slug: 
 }
 
 /** Adds a draft or in-review revision without touching the live one. */
-export async function proposeRevision(ds: DataSource, kind: DocumentKind, slug: string, edit: (content: Record<string, unknown>) => Record<string, unknown>, state: 'draft' | 'in_review' = 'in_review') {
+export async function proposeRevision(
+  ds: DataSource,
+  kind: DocumentKind,
+  slug: string,
+  edit: (content: Record<string, unknown>) => Record<string, unknown>,
+  state: 'draft' | 'in_review' = 'in_review',
+) {
   const doc = await ds.getRepository(DocumentEntity).findOneByOrFail({ kind, slug });
   const live = await ds.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId! });
   return ds.getRepository(RevisionEntity).save(
@@ -61,7 +73,9 @@ export async function proposeRevision(ds: DataSource, kind: DocumentKind, slug: 
 export async function setHidden(ds: DataSource, kind: DocumentKind, slug: string, hidden: boolean) {
   await ds.transaction(async (m) => {
     const doc = await m.getRepository(DocumentEntity).findOneByOrFail({ kind, slug });
-    await m.getRepository(DocumentEntity).update(doc.id, hidden ? { hiddenAt: new Date(), hiddenReason: 'Test' } : { hiddenAt: null, hiddenReason: null, hiddenBy: null });
+    await m
+      .getRepository(DocumentEntity)
+      .update(doc.id, hidden ? { hiddenAt: new Date(), hiddenReason: 'Test' } : { hiddenAt: null, hiddenReason: null, hiddenBy: null });
     await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: hidden ? 'hidden' : 'unhidden' });
   });
 }

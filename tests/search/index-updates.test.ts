@@ -16,7 +16,11 @@ afterAll(async () => {
   await t.close();
 });
 
-const slugsFor = (app: TestApp, q: string) => app.ctx.search.search(q, {}, 50).hits.filter((h) => h.exact).map((h) => `${h.type}:${h.slug}`);
+const slugsFor = (app: TestApp, q: string) =>
+  app.ctx.search
+    .search(q, {}, 50)
+    .hits.filter((h) => h.exact)
+    .map((h) => `${h.type}:${h.slug}`);
 const GUIDE = 'stock-touring-carpet-zero-timing';
 
 describe('search index follows live content', () => {
@@ -30,7 +34,12 @@ describe('search index follows live content', () => {
       rebuilt++;
       return build();
     };
-    await publishRevision(t.db.dataSource, 'guide', GUIDE, (c) => ({ ...c, title: 'Stock touring on the Kestrelmoor felt', summary: 'A felt-carpet baseline for the spring kestrelmoor series.', body: 'Run a gentler punch on the new felt.\n' }));
+    await publishRevision(t.db.dataSource, 'guide', GUIDE, (c) => ({
+      ...c,
+      title: 'Stock touring on the Kestrelmoor felt',
+      summary: 'A felt-carpet baseline for the spring kestrelmoor series.',
+      body: 'Run a gentler punch on the new felt.\n',
+    }));
     await within(1000, () => slugsFor(t, 'kestrelmoor').includes(`guide:${GUIDE}`), 'new text findable');
     expect(slugsFor(t, 'caliper')).toEqual([]);
     expect(slugsFor(t, 'lengthened')).toEqual([]);
@@ -40,7 +49,13 @@ describe('search index follows live content', () => {
   });
 
   it('follows a restore (an old text published again)', async () => {
-    await publishRevision(t.db.dataSource, 'guide', GUIDE, (c) => ({ ...c, title: 'Stock touring on carpet, restored', summary: 'The winter baseline again.', body: 'Back to the winter marshwick notes.\n' }), { action: 'restored' });
+    await publishRevision(
+      t.db.dataSource,
+      'guide',
+      GUIDE,
+      (c) => ({ ...c, title: 'Stock touring on carpet, restored', summary: 'The winter baseline again.', body: 'Back to the winter marshwick notes.\n' }),
+      { action: 'restored' },
+    );
     await within(1000, () => slugsFor(t, 'marshwick').includes(`guide:${GUIDE}`), 'restored text findable');
     expect(slugsFor(t, 'kestrelmoor')).not.toContain(`guide:${GUIDE}`);
   });
@@ -62,7 +77,13 @@ describe('search index follows live content', () => {
 
   it('never indexes drafts or proposals, even when a notification arrives for the document', async () => {
     await proposeRevision(t.db.dataSource, 'guide', 'oval-pan-car-carpet', (c) => ({ ...c, body: 'Secret zephyrquill gearing.\n' }), 'in_review');
-    await proposeRevision(t.db.dataSource, 'parameter', 'rollout', (c) => ({ ...c, summary: 'A draft about zephyrquill rollout that nobody has reviewed.' }), 'draft');
+    await proposeRevision(
+      t.db.dataSource,
+      'parameter',
+      'rollout',
+      (c) => ({ ...c, summary: 'A draft about zephyrquill rollout that nobody has reviewed.' }),
+      'draft',
+    );
     const doc = await t.db.dataSource.getRepository(DocumentEntity).findOneByOrFail({ kind: 'guide', slug: 'oval-pan-car-carpet' });
     await t.db.dataSource.transaction((m) => notifyDocumentChanged(m, { kind: 'guide', documentId: doc.id, slug: doc.slug, action: 'published' }));
     // Wait for that notification to be handled: a later edit of another document shows up only after it.
@@ -76,7 +97,12 @@ describe('search index follows live content', () => {
   });
 
   it('indexes a live guide baseline as a setup result, and drops it with its guide', async () => {
-    const setup = { schemaVersion: 1, vehicle: { name: 'Heronbrook test buggy', class: 'buggy-2wd-stock' }, esc: { 'drag-brake': { value: 12, unit: '%' }, 'throttle-punch': { value: 4, unit: '' } }, notes: 'Baseline from the quillfeather test day.' };
+    const setup = {
+      schemaVersion: 1,
+      vehicle: { name: 'Heronbrook test buggy', class: 'buggy-2wd-stock' },
+      esc: { 'drag-brake': { value: 12, unit: '%' }, 'throttle-punch': { value: 4, unit: '' } },
+      notes: 'Baseline from the quillfeather test day.',
+    };
     await publishRevision(t.db.dataSource, 'guide', 'stock-2wd-buggy-harbour-flats-clay', (c) => c, { setup });
     await within(1000, () => t.ctx.search.search('quillfeather').hits.some((h) => h.type === 'setup'), 'setup findable');
     const hit = t.ctx.search.search('quillfeather', { type: 'setup' }).hits[0];
@@ -94,7 +120,10 @@ describe('several app instances on one database', () => {
       expect(other.ctx.search).not.toBe(t.ctx.search);
       expect(slugsFor(other, 'kestrelmoor')).toEqual(slugsFor(t, 'kestrelmoor'));
       // Publish through instance A's connection pool; instance B only hears NOTIFY.
-      await publishRevision(t.ctx.dataSource, 'parameter', 'rev-limit', (c) => ({ ...c, summary: 'Caps motor speed; the ospreyline rule at the club sets it for novices.' }));
+      await publishRevision(t.ctx.dataSource, 'parameter', 'rev-limit', (c) => ({
+        ...c,
+        summary: 'Caps motor speed; the ospreyline rule at the club sets it for novices.',
+      }));
       const ms = await within(1000, () => slugsFor(other, 'ospreyline').includes('parameter:rev-limit'), 'instance B current');
       await within(1000, () => slugsFor(t, 'ospreyline').includes('parameter:rev-limit'), 'instance A current');
       console.log(`second instance current after ${ms.toFixed(0)} ms`);
@@ -105,8 +134,13 @@ describe('several app instances on one database', () => {
 
   it('a listener that loses its connection reconnects and catches up', async () => {
     // Kill the listener's backend, as a PostgreSQL restart would; changes made meanwhile must still arrive.
-    await t.db.dataSource.query(`SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE application_name = 'tunewright-search-listener' AND datname = current_database()`);
-    await publishRevision(t.db.dataSource, 'parameter', 'rollout', (c) => ({ ...c, summary: 'Distance per motor turn; the plovercrest sheet lists it per pinion.' }));
+    await t.db.dataSource.query(
+      `SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE application_name = 'tunewright-search-listener' AND datname = current_database()`,
+    );
+    await publishRevision(t.db.dataSource, 'parameter', 'rollout', (c) => ({
+      ...c,
+      summary: 'Distance per motor turn; the plovercrest sheet lists it per pinion.',
+    }));
     await within(5000, () => slugsFor(t, 'plovercrest').includes('parameter:rollout'), 'caught up after reconnect');
   });
 });

@@ -28,7 +28,9 @@ describe('search quality over the seeded library', () => {
     }
     const rate = top3 / QUALITY_QUERIES.length;
     const mrr = reciprocal / QUALITY_QUERIES.length;
-    console.log(`search quality: top-3 hit rate ${(rate * 100).toFixed(1)} % (${top3}/${QUALITY_QUERIES.length}), mean reciprocal rank ${mrr.toFixed(3)}${misses.length ? `\n  misses:\n  ${misses.join('\n  ')}` : ''}`);
+    console.log(
+      `search quality: top-3 hit rate ${(rate * 100).toFixed(1)} % (${top3}/${QUALITY_QUERIES.length}), mean reciprocal rank ${mrr.toFixed(3)}${misses.length ? `\n  misses:\n  ${misses.join('\n  ')}` : ''}`,
+    );
     expect(rate).toBeGreaterThanOrEqual(0.9);
   });
 

@@ -2,7 +2,17 @@ import { describe, expect, it } from 'vitest';
 import { SearchIndex, type SearchDocument } from '../../server/modules/search/search-index';
 
 function doc(d: Partial<SearchDocument> & Pick<SearchDocument, 'type' | 'slug' | 'title'>): SearchDocument {
-  return { url: `/${d.type}s/${d.slug}`, aliases: [], summary: '', body: '', tags: [], class: null, surface: null, parameters: d.type === 'parameter' ? [d.slug] : [], ...d };
+  return {
+    url: `/${d.type}s/${d.slug}`,
+    aliases: [],
+    summary: '',
+    body: '',
+    tags: [],
+    class: null,
+    surface: null,
+    parameters: d.type === 'parameter' ? [d.slug] : [],
+    ...d,
+  };
 }
 
 const ids = (idx: SearchIndex, q: string, filters = {}) => idx.search(q, filters, 20).hits.map((h) => `${h.type}:${h.slug}`);
@@ -44,9 +54,33 @@ describe('search ranking', () => {
       doc({ type: 'parameter', slug: 'drag-brake', title: 'Drag brake', aliases: ['neutral brake', 'drag break', 'dragbreak'], body: 'Braking at neutral.' }),
       doc({ type: 'parameter', slug: 'ramped-advance', title: 'Ramped advance', aliases: ['boost', 'boost timing'], body: 'Timing added with rpm.' }),
       doc({ type: 'parameter', slug: 'low-voltage-cutoff', title: 'Low-voltage cutoff', aliases: ['LVC', 'cutoff'], body: 'Protects the pack.' }),
-      doc({ type: 'guide', slug: 'uses-boost', title: 'Mod buggy on clay', body: 'Run a little boost from 15,000 rpm.', class: 'buggy-2wd-mod', surface: 'clay', parameters: ['ramped-advance'] }),
-      doc({ type: 'guide', slug: 'uses-ramp', title: 'Touring car on asphalt', body: 'The ramped advance starts late here.', class: 'touring-mod', surface: 'asphalt', parameters: ['ramped-advance'] }),
-      doc({ type: 'guide', slug: 'stock-carpet', title: 'Stock touring on carpet', body: 'No drag brake at all.', class: 'touring-stock', surface: 'carpet', parameters: ['drag-brake'] }),
+      doc({
+        type: 'guide',
+        slug: 'uses-boost',
+        title: 'Mod buggy on clay',
+        body: 'Run a little boost from 15,000 rpm.',
+        class: 'buggy-2wd-mod',
+        surface: 'clay',
+        parameters: ['ramped-advance'],
+      }),
+      doc({
+        type: 'guide',
+        slug: 'uses-ramp',
+        title: 'Touring car on asphalt',
+        body: 'The ramped advance starts late here.',
+        class: 'touring-mod',
+        surface: 'asphalt',
+        parameters: ['ramped-advance'],
+      }),
+      doc({
+        type: 'guide',
+        slug: 'stock-carpet',
+        title: 'Stock touring on carpet',
+        body: 'No drag brake at all.',
+        class: 'touring-stock',
+        surface: 'carpet',
+        parameters: ['drag-brake'],
+      }),
     ]);
     return idx;
   };
@@ -62,7 +96,8 @@ describe('search ranking', () => {
 
   it('finds drag brake however it is misspelled or run together', () => {
     const idx = library();
-    for (const q of ['dragbreak', 'drag break', 'drag-break', 'dragbrake', 'drag-brake', 'drag brakes', 'drag braek']) expect(ids(idx, q)[0], q).toBe('parameter:drag-brake');
+    for (const q of ['dragbreak', 'drag break', 'drag-break', 'dragbrake', 'drag-brake', 'drag brakes', 'drag braek'])
+      expect(ids(idx, q)[0], q).toBe('parameter:drag-brake');
   });
 
   it('counts facets with the other filters applied, and filters hits', () => {

@@ -6,7 +6,18 @@ import { snippetSegments } from '../../shared/schemas/search';
 
 describe('search tokenizer', () => {
   it("keeps the trade's tokens whole", () => {
-    expect(tokenize('17.5T buggy on 2S at 3.2V, 1/10 scale, 13.5t truck')).toEqual(['17.5t', 'buggy', 'on', '2s', 'at', '3.2v', '1/10', 'scale', '13.5t', 'truck']);
+    expect(tokenize('17.5T buggy on 2S at 3.2V, 1/10 scale, 13.5t truck')).toEqual([
+      '17.5t',
+      'buggy',
+      'on',
+      '2s',
+      'at',
+      '3.2v',
+      '1/10',
+      'scale',
+      '13.5t',
+      'truck',
+    ]);
   });
 
   it('joins a number and its unit written apart, so both spellings meet', () => {
@@ -40,7 +51,22 @@ describe('search tokenizer', () => {
 
 describe('markdownToText', () => {
   it('keeps prose, link texts and table cells, and drops markup and worked-example numbers', () => {
-    const md = ['## What it does', '', 'Raise **drag brake** with [initial brake](initial-brake).', '', '| Class | Range |', '| --- | --- |', '| Stock | 5–10 % |', '', '```worked-example', 'calc: brake', 'dragBrakePct: 10', '```', '', 'Text after the example counts too.'].join('\n');
+    const md = [
+      '## What it does',
+      '',
+      'Raise **drag brake** with [initial brake](initial-brake).',
+      '',
+      '| Class | Range |',
+      '| --- | --- |',
+      '| Stock | 5–10 % |',
+      '',
+      '```worked-example',
+      'calc: brake',
+      'dragBrakePct: 10',
+      '```',
+      '',
+      'Text after the example counts too.',
+    ].join('\n');
     const text = markdownToText(md);
     expect(text).toContain('What it does.');
     expect(text).toContain('Raise drag brake with initial brake.');

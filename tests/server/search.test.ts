@@ -79,7 +79,14 @@ describe('GET /api/search', () => {
   });
 
   it('rejects unknown filters and limits', async () => {
-    for (const path of ['/api/search?q=brake&type=page', '/api/search?q=brake&class=monster', '/api/search?q=brake&surface=ice', '/api/search?q=brake&limit=0', '/api/search?q=brake&limit=500', '/api/search?q=brake&parameter=Drag%20Brake']) {
+    for (const path of [
+      '/api/search?q=brake&type=page',
+      '/api/search?q=brake&class=monster',
+      '/api/search?q=brake&surface=ice',
+      '/api/search?q=brake&limit=0',
+      '/api/search?q=brake&limit=500',
+      '/api/search?q=brake&parameter=Drag%20Brake',
+    ]) {
       const res = await client.get(path);
       expect(res.status, path).toBe(400);
       expect(res.body.error.code).toBe('validation_failed');

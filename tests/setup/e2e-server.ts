@@ -11,7 +11,10 @@ export type E2EServer = { baseUrl: string; t: TestApp; close: () => Promise<void
  */
 export async function start(opts: { seedContent?: boolean; env?: Record<string, string> } = {}): Promise<E2EServer> {
   const t = await createTestApp(opts.env ?? {}, { serveClient: true });
-  if (opts.seedContent) await seed(t.db.dataSource, { demo: true, bcryptCost: 4 });
+  if (opts.seedContent) {
+    await seed(t.db.dataSource, { demo: true, bcryptCost: 4 });
+    await t.ctx.search.build(); // seeding writes rows directly, without change notifications
+  }
   t.mailer.start();
   const server: Server = await new Promise((resolve) => {
     const s = t.app.listen(0, '127.0.0.1', () => resolve(s));

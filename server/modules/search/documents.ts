@@ -68,8 +68,12 @@ export function setupDocument(slug: string, guide: GuideContent, setup: Record<s
   strings(setup, pieces);
   const vehicle = (setup.vehicle ?? {}) as Record<string, unknown>;
   const cls = [setup.class, vehicle.class].find((v): v is string => typeof v === 'string' && CLASS_SLUGS.has(v)) ?? guide.class;
-  const surface = [setup.surface, (setup.conditions as Record<string, unknown> | undefined)?.surface].find((v): v is string => typeof v === 'string' && SURFACE_SLUGS.has(v)) ?? guide.surface;
-  const settings = [setup.esc, setup.settings, setup.escSettings].find((v) => v && typeof v === 'object' && !Array.isArray(v)) as Record<string, unknown> | undefined;
+  const surface =
+    [setup.surface, (setup.conditions as Record<string, unknown> | undefined)?.surface].find(
+      (v): v is string => typeof v === 'string' && SURFACE_SLUGS.has(v),
+    ) ?? guide.surface;
+  const settings = [setup.esc, setup.settings, setup.escSettings].find((v) => v && typeof v === 'object' && !Array.isArray(v)) as
+    Record<string, unknown> | undefined;
   const params = settings ? Object.keys(settings).filter((k) => /^[a-z0-9]+(-[a-z0-9]+)*$/.test(k)) : [];
   const keyWords = params.map((p) => p.replace(/-/g, ' '));
   return {
@@ -83,7 +87,7 @@ export function setupDocument(slug: string, guide: GuideContent, setup: Record<s
     tags: ['setup', 'baseline', ...(guide.tags ?? [])],
     class: cls,
     surface,
-    parameters: params.length ? params : guide.parameters ?? [],
+    parameters: params.length ? params : (guide.parameters ?? []),
   };
 }
 

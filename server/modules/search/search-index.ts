@@ -92,7 +92,6 @@ function findWords(lower: string, terms: Set<string>): Array<{ at: number; term:
   return out.sort((a, b) => a.at - b.at);
 }
 
-
 /**
  * MiniSearch keeps the index (terms in a radix tree, postings, field lengths, discard and vacuum);
  * this subclass reads that table directly to score with flat arrays instead of one object per
@@ -332,7 +331,11 @@ export class SearchIndex {
       const prefix = (!!opts.lastPrefix && last) || (rare && (numeric ? /\d$/.test(term) && term.length >= 2 : term.length >= 3));
       const seen = new Set([term]);
       if (prefix) {
-        const found = this.mini.prefixTerms(term).filter(([t]) => t !== term).sort((a, b) => a[0].length - b[0].length).slice(0, MAX_PREFIX_TERMS);
+        const found = this.mini
+          .prefixTerms(term)
+          .filter(([t]) => t !== term)
+          .sort((a, b) => a[0].length - b[0].length)
+          .slice(0, MAX_PREFIX_TERMS);
         for (const [t, d] of found) {
           seen.add(t);
           const distance = t.length - term.length;
@@ -444,10 +447,11 @@ export class SearchIndex {
     const seenExact = new Int32Array(groupCount);
     const seenHeadline = new Int32Array(groupCount);
     const named = new Set<number>();
-    for (const g of groups) for (const slug of g.slugs) {
-      const short = this.mini.shortId(docId('parameter', slug));
-      if (short !== undefined) named.add(short);
-    }
+    for (const g of groups)
+      for (const slug of g.slugs) {
+        const short = this.mini.shortId(docId('parameter', slug));
+        if (short !== undefined) named.add(short);
+      }
     const touched = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
     const { score, mask, hmask, typed, slots } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
@@ -457,7 +461,12 @@ export class SearchIndex {
     const fClass = f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1;
     const fSurface = f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1;
     const fParam = f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1;
-    const counts = { type: new Int32Array(SEARCH_TYPES.length), class: new Int32Array(CLASSES.length), surface: new Int32Array(SURFACES.length), parameter: new Int32Array(this.paramIndex.size) };
+    const counts = {
+      type: new Int32Array(SEARCH_TYPES.length),
+      class: new Int32Array(CLASSES.length),
+      surface: new Int32Array(SURFACES.length),
+      parameter: new Int32Array(this.paramIndex.size),
+    };
     const tiers = new Int32Array(touched.length);
     let maxTier = 0;
     let anyExact = false;
@@ -517,8 +526,11 @@ export class SearchIndex {
       if (page.length > opts.limit) page.pop();
     }
     const results = page.map(({ doc, tier }) => {
-      const matched = new Set<string>();
-      for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) matched.add(d.term);
+      // Highlight the words typed (or their typo/prefix variants); other names only when none of those occur.
+      const typedTerms = new Set<string>();
+      const otherTerms = new Set<string>();
+      for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) (d.typed ? typedTerms : otherTerms).add(d.term);
+      const matched = typedTerms.size ? typedTerms : otherTerms;
       return { doc: slots[doc]!.doc, score: score[doc], exact: tier >= 64, matched };
     });
     for (const doc of touched) {
@@ -552,10 +564,26 @@ export class SearchIndex {
         .map((x) => ({ value: x.value, label: label(x.value), count: x.count }));
     const paramSlugs = [...this.paramIndex.keys()];
     const facets: SearchFacets = {
-      type: list(r.counts.type, (i) => SEARCH_TYPES[i], (v) => TYPE_LABELS[v as SearchType]),
-      class: list(r.counts.class, (i) => CLASSES[i].slug, (v) => CLASS_NAMES.get(v) ?? v),
-      surface: list(r.counts.surface, (i) => SURFACES[i].slug, (v) => SURFACE_NAMES.get(v) ?? v),
-      parameter: list(r.counts.parameter, (i) => paramSlugs[i], (v) => this.docs.get(docId('parameter', v))?.title ?? paramWords(v)),
+      type: list(
+        r.counts.type,
+        (i) => SEARCH_TYPES[i],
+        (v) => TYPE_LABELS[v as SearchType],
+      ),
+      class: list(
+        r.counts.class,
+        (i) => CLASSES[i].slug,
+        (v) => CLASS_NAMES.get(v) ?? v,
+      ),
+      surface: list(
+        r.counts.surface,
+        (i) => SURFACES[i].slug,
+        (v) => SURFACE_NAMES.get(v) ?? v,
+      ),
+      parameter: list(
+        r.counts.parameter,
+        (i) => paramSlugs[i],
+        (v) => this.docs.get(docId('parameter', v))?.title ?? paramWords(v),
+      ),
     };
     const didYouMean = r.anyExact ? undefined : this.didYouMean(q);
     return { hits, facets, total: r.total, ...(didYouMean ? { didYouMean } : {}) };
@@ -584,7 +612,9 @@ export class SearchIndex {
       for (let a = 0, b = 0; a < hits.length; a++) {
         while (b < hits.length && hits[b].at < hits[a].at + width) b++;
         const distinct = new Set(hits.slice(a, b).map((h) => h.term)).size;
-        const score = distinct * 100 + (b - a) + (i === 0 ? 1 : 0);
+        // Prefer prose to table rows (cells are joined with " · ") when they hold as many words.
+        const cells = text.slice(hits[a].at, hits[a].at + width).split(' · ').length - 1;
+        const score = distinct * 100 + (b - a) - 3 * cells + (i === 0 ? 1 : 0);
         if (score > best.score) best = { text, from: hits[a].at, score };
       }
     }

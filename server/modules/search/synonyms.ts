@@ -58,7 +58,11 @@ export class SynonymTable {
     }
     for (const group of TRADE_SYNONYMS) {
       const forms = group.map((g) => toTerms(g));
-      for (const f of forms) this.trade.set(f.join(' '), forms.filter((o) => o !== f));
+      for (const f of forms)
+        this.trade.set(
+          f.join(' '),
+          forms.filter((o) => o !== f),
+        );
     }
   }
 

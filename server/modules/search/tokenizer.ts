@@ -9,7 +9,34 @@
 export type TokenSpan = { token: string; start: number; end: number };
 
 // Words a unit can be (after a number, separated by nothing, one space or one hyphen).
-const UNIT_WORDS = new Set(['t', 's', 'v', 'kv', 'a', 'mah', 'mm', 'cm', 'in', 'deg', 'khz', 'hz', 'rpm', 'c', 'f', 'pole', 'poles', 'wh', 'ms', 'w', 'g', 'wd', '%', '°', '°c', '°f']);
+const UNIT_WORDS = new Set([
+  't',
+  's',
+  'v',
+  'kv',
+  'a',
+  'mah',
+  'mm',
+  'cm',
+  'in',
+  'deg',
+  'khz',
+  'hz',
+  'rpm',
+  'c',
+  'f',
+  'pole',
+  'poles',
+  'wh',
+  'ms',
+  'w',
+  'g',
+  'wd',
+  '%',
+  '°',
+  '°c',
+  '°f',
+]);
 
 const RAW = /\d+\/\d+|\d+(?:[.,]\d+)*[a-z%°]*|°[cf]?|%|[\p{L}\p{N}]+(?:['’][\p{L}]+)?/gu;
 
@@ -44,7 +71,7 @@ export function tokenizeWithSpans(text: string): TokenSpan[] {
     token = token.replace(/['’]s$/, '').replace(/['’]/g, '');
     const prev = out[out.length - 1];
     // Join "3.2 V", "4-pole", "18 °C" into one token when a bare number is followed by a unit word.
-    if (prev && /^\d+(\.\d+)?$/.test(prev.token) && UNIT_WORDS.has(token) && start - prev.end <= 1 && /^[ \-]?$/.test(lower.slice(prev.end, start))) {
+    if (prev && /^\d+(\.\d+)?$/.test(prev.token) && UNIT_WORDS.has(token) && start - prev.end <= 1 && /^[ -]?$/.test(lower.slice(prev.end, start))) {
       prev.token += token === 'poles' ? 'pole' : token;
       prev.end = end;
       continue;

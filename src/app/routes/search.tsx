@@ -4,7 +4,8 @@ import { SEARCH_TYPES, type SearchType } from '@shared/schemas/search';
 import { PageHeader } from '@/components/ui/card';
 import { SearchResults, type SearchFilterKey } from '@/features/search/components/search-results';
 
-const pick = <T extends string>(value: string | null, allowed: readonly T[]) => (value && (allowed as readonly string[]).includes(value) ? (value as T) : undefined);
+const pick = <T extends string>(value: string | null, allowed: readonly T[]) =>
+  value && (allowed as readonly string[]).includes(value) ? (value as T) : undefined;
 
 /** /search?q=…&type=…&class=…&surface=…&parameter=… — everything lives in the URL, so a search can be shared. */
 export function SearchPage() {

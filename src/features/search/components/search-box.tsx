@@ -23,7 +23,12 @@ export function SearchBox() {
   const suggest = useQuery({ ...searchQueries.suggest(debounced), enabled: open && debounced.length > 0 });
   const items = suggest.data ?? [];
   // The last row always offers the full results page.
-  const rows = value.trim() ? [...items.map((s) => ({ key: `${s.type}:${s.slug}`, url: s.url, suggestion: s })), { key: 'all', url: `/search?q=${encodeURIComponent(value.trim())}`, suggestion: null }] : [];
+  const rows = value.trim()
+    ? [
+        ...items.map((s) => ({ key: `${s.type}:${s.slug}`, url: s.url, suggestion: s })),
+        { key: 'all', url: `/search?q=${encodeURIComponent(value.trim())}`, suggestion: null },
+      ]
+    : [];
   const expanded = open && rows.length > 0;
 
   useEffect(() => {

@@ -26,7 +26,17 @@ type Props = {
   onChange: (next: Partial<Record<'q' | SearchFilterKey, string | undefined>>) => void;
 };
 
-function FacetList({ label, values, selected, onSelect }: { label: string; values: FacetValue[]; selected?: string; onSelect: (v: string | undefined) => void }) {
+function FacetList({
+  label,
+  values,
+  selected,
+  onSelect,
+}: {
+  label: string;
+  values: FacetValue[];
+  selected?: string;
+  onSelect: (v: string | undefined) => void;
+}) {
   const [more, setMore] = useState(false);
   if (!values.length && !selected) return null;
   const shown = more ? values : values.slice(0, 6);
@@ -63,6 +73,7 @@ function FacetList({ label, values, selected, onSelect }: { label: string; value
 /** The search page body: query box, facet lists with counts, results with highlighted snippets, and an empty state. */
 export function SearchResults({ params, onChange }: Props) {
   const [draft, setDraft] = useState(params.q);
+  const [filtersOpen, setFiltersOpen] = useState(false);
   useEffect(() => setDraft(params.q), [params.q]);
   const results = useQuery(searchQueries.results({ ...params, limit: PAGE }));
   const page = results.data;
@@ -106,25 +117,45 @@ export function SearchResults({ params, onChange }: Props) {
       )}
 
       {params.q && page && (
-        <div className="grid gap-6 md:grid-cols-[15rem_1fr]">
-          <aside aria-label="Filter results" className="flex flex-col gap-4 md:order-none">
-            {active.length > 0 && (
-              <div className="flex flex-wrap gap-2">
-                {active.map((f) => (
-                  <button key={f.key} type="button" onClick={() => onChange({ [f.key]: undefined })} className="rounded-full border border-ink/25 bg-paper-card px-2.5 py-0.5 text-xs hover:bg-paper-deep" aria-label={`Remove filter ${f.label}`}>
-                    {f.label}: {labelFor(page.data.facets[f.key], params[f.key]!)} ✕
-                  </button>
+        <div className={`grid gap-6 ${page.meta.total > 0 ? 'md:grid-cols-[15rem_1fr]' : ''}`}>
+          {page.meta.total > 0 && (
+            <aside aria-label="Filter results" className="flex flex-col gap-4">
+              <button
+                type="button"
+                className="self-start rounded-md border border-ink/25 bg-paper-card px-3 py-1.5 text-sm md:hidden"
+                aria-expanded={filtersOpen}
+                aria-controls="search-facets"
+                onClick={() => setFiltersOpen((o) => !o)}
+              >
+                {filtersOpen ? 'Hide filters' : `Filters${active.length ? ` (${active.length})` : ''}`}
+              </button>
+              {active.length > 0 && (
+                <div className="flex flex-wrap gap-2">
+                  {active.map((f) => (
+                    <button
+                      key={f.key}
+                      type="button"
+                      onClick={() => onChange({ [f.key]: undefined })}
+                      className="rounded-full border border-ink/25 bg-paper-card px-2.5 py-0.5 text-xs hover:bg-paper-deep"
+                      aria-label={`Remove filter ${f.label}: ${labelFor(page.data.facets[f.key], params[f.key]!)}`}
+                    >
+                      {f.label}: {labelFor(page.data.facets[f.key], params[f.key]!)} ✕
+                    </button>
+                  ))}
+                </div>
+              )}
+              <div id="search-facets" className={`${filtersOpen ? 'flex' : 'hidden'} flex-col gap-4 md:flex`}>
+                {FACETS.map((f) => (
+                  <FacetList key={f.key} label={f.label} values={page.data.facets[f.key]} selected={params[f.key]} onSelect={(v) => onChange({ [f.key]: v })} />
                 ))}
               </div>
-            )}
-            {FACETS.map((f) => (
-              <FacetList key={f.key} label={f.label} values={page.data.facets[f.key]} selected={params[f.key]} onSelect={(v) => onChange({ [f.key]: v })} />
-            ))}
-          </aside>
+            </aside>
+          )}
 
           <section aria-labelledby="results-heading" className="min-w-0">
             <h2 id="results-heading" className="mb-3 text-sm text-ink-muted" aria-live="polite">
-              {page.meta.total === 0 ? 'No results' : `${page.meta.total} result${page.meta.total === 1 ? '' : 's'}`} for “<span className="font-semibold text-ink">{params.q}</span>”
+              {page.meta.total === 0 ? 'No results' : `${page.meta.total} result${page.meta.total === 1 ? '' : 's'}`} for “
+              <span className="font-semibold text-ink">{params.q}</span>”
               {page.meta.total > page.data.hits.length && ` — the best ${page.data.hits.length} shown; narrow with the filters`}
             </h2>
             {page.data.hits.length === 0 ? (
@@ -132,7 +163,11 @@ export function SearchResults({ params, onChange }: Props) {
                 {page.data.didYouMean ? (
                   <p className="text-lg">
                     Did you mean{' '}
-                    <button type="button" className="font-semibold text-copper-dark underline" onClick={() => onChange({ q: page.data.didYouMean, type: undefined, class: undefined, surface: undefined, parameter: undefined })}>
+                    <button
+                      type="button"
+                      className="font-semibold text-copper-dark underline"
+                      onClick={() => onChange({ q: page.data.didYouMean, type: undefined, class: undefined, surface: undefined, parameter: undefined })}
+                    >
                       {page.data.didYouMean}
                     </button>
                     ?
@@ -142,7 +177,11 @@ export function SearchResults({ params, onChange }: Props) {
                 )}
                 {active.length > 0 && (
                   <p className="mt-2 text-sm text-ink-soft">
-                    <button type="button" className="text-copper-dark underline" onClick={() => onChange({ type: undefined, class: undefined, surface: undefined, parameter: undefined })}>
+                    <button
+                      type="button"
+                      className="text-copper-dark underline"
+                      onClick={() => onChange({ type: undefined, class: undefined, surface: undefined, parameter: undefined })}
+                    >
                       Clear the filters
                     </button>{' '}
                     to search everything.
@@ -195,7 +234,10 @@ function StarterLinks() {
     <ul className="mt-3 flex flex-wrap gap-2">
       {STARTERS.map((s) => (
         <li key={s}>
-          <Link to={`/search?q=${encodeURIComponent(s)}`} className="inline-block rounded-full border border-ink/20 bg-paper px-3 py-1 text-sm text-ink no-underline hover:bg-paper-deep">
+          <Link
+            to={`/search?q=${encodeURIComponent(s)}`}
+            className="inline-block rounded-full border border-ink/20 bg-paper px-3 py-1 text-sm text-ink no-underline hover:bg-paper-deep"
+          >
             {s}
           </Link>
         </li>

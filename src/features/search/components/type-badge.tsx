@@ -8,5 +8,9 @@ const TONES: Record<SearchType, string> = {
 };
 
 export function TypeBadge({ type }: { type: SearchType }) {
-  return <span className={`inline-flex shrink-0 items-center rounded border px-1.5 py-px text-[0.7rem] font-semibold tracking-wide uppercase ${TONES[type]}`}>{LABELS[type]}</span>;
+  return (
+    <span className={`inline-flex shrink-0 items-center rounded border px-1.5 py-px text-[0.7rem] font-semibold tracking-wide uppercase ${TONES[type]}`}>
+      {LABELS[type]}
+    </span>
+  );
 }
