@@ -119,15 +119,20 @@ async function main() {
   const heapAfter = process.memoryUsage().heapUsed;
   const heapIndexMb = mb(heapAfter - heapBefore);
 
-  // ---- ours: latency (the API's work: ranking, facets, 20 snippets, did-you-mean)
-  for (const q of MIX) index.search(q, {}, 20);
+  // ---- ours: latency (the API's work for one results page: ranking, facets, 10 snippets, did-you-mean).
+  // Wall time and CPU time are both recorded: on a shared machine the first includes waiting for a core.
+  for (const q of MIX) index.search(q, {}, 10);
   const lat: number[] = [];
+  const cpu: number[] = [];
   const suggestLat: number[] = [];
   for (let round = 0; round < ROUNDS; round++) {
     for (const q of shuffled(MIX, round)) {
+      const c = process.cpuUsage();
       const s = performance.now();
-      index.search(q, {}, 20);
+      index.search(q, {}, 10);
       lat.push(performance.now() - s);
+      const used = process.cpuUsage(c);
+      cpu.push((used.user + used.system) / 1000);
     }
     for (const q of shuffled(MIX, round + 1000)) {
       const typed = q.slice(0, Math.max(2, Math.ceil(q.length * 0.6)));
@@ -146,6 +151,15 @@ async function main() {
     const s = performance.now();
     index.put(edited);
     upd.push(performance.now() - s);
+  }
+  // The first search after an update rebuilds the flattened postings of the changed item's terms.
+  const afterUpd: number[] = [];
+  for (let i = 0; i < 50; i++) {
+    const d = synthetic[Math.floor(r() * synthetic.length)];
+    index.put({ ...d, body: `${d.body} Lower the drag brake for the dusty afternoon.` });
+    const s = performance.now();
+    index.search('drag brake', {}, 10);
+    afterUpd.push(performance.now() - s);
   }
   const paramUpd: number[] = [];
   for (let i = 0; i < 50; i++) {
@@ -269,6 +283,12 @@ async function main() {
   console.log(
     line(['search p50 / p95 / p99', `${fmt(pct(lat, 50))} ms`, `${fmt(pct(lat, 95))} ms`, `${fmt(pct(lat, 99))} ms`, ok(pct(lat, 95), TARGETS.p95Ms)], W),
   );
+  console.log(
+    line(
+      ['  same, CPU time of this process', `${fmt(pct(cpu, 50))} ms`, `${fmt(pct(cpu, 95))} ms`, `${fmt(pct(cpu, 99))} ms`, ok(pct(cpu, 95), TARGETS.p95Ms)],
+      W,
+    ),
+  );
   console.log(line(['suggest p50 / p95 / p99', `${fmt(pct(suggestLat, 50))} ms`, `${fmt(pct(suggestLat, 95))} ms`, `${fmt(pct(suggestLat, 99))} ms`, ''], W));
   console.log(
     line(
@@ -282,6 +302,7 @@ async function main() {
       W,
     ),
   );
+  console.log(line(['search right after an update p50/p95', `${fmt(pct(afterUpd, 50))} ms`, `${fmt(pct(afterUpd, 95))} ms`, '', ''], W));
   console.log(line(['update parameter p50 / p95', `${fmt(pct(paramUpd, 50), 3)} ms`, `${fmt(pct(paramUpd, 95), 3)} ms`, '', ''], W));
   console.log(line(['remove item p50 / p95', `${fmt(pct(rem, 50), 3)} ms`, `${fmt(pct(rem, 95), 3)} ms`, '', ''], W));
   console.log(`(${lat.length} searches over ${MIX.length} distinct queries; ${upd.length} guide updates)`);

@@ -131,12 +131,41 @@ class TermIndex<T> extends MiniSearch<T> {
   }
 }
 
+type FacetCounts = { type: Int32Array; class: Int32Array; surface: Int32Array; parameter: Int32Array };
+
+/**
+ * Facet counts over the matching items. Each facet is counted with the other facets' filters
+ * applied but not its own, so a reader can switch value. `flags` bits: 1 type, 2 class, 4 surface,
+ * 8 parameter filter passed.
+ */
+function countFacets(
+  docs: number[],
+  flags: number[],
+  items: { itemType: Int8Array; itemClass: Int8Array; itemSurface: Int8Array; itemParamCount: Uint8Array; itemParams: Uint16Array },
+  counts: FacetCounts,
+) {
+  const { type: cType, class: cClass, surface: cSurface, parameter: cParam } = counts;
+  const { itemType, itemClass, itemSurface, itemParamCount, itemParams } = items;
+  for (let i = 0; i < docs.length; i++) {
+    const doc = docs[i];
+    const f = flags[i];
+    if ((f & 14) === 14) cType[itemType[doc]]++;
+    const cls = itemClass[doc];
+    if ((f & 13) === 13 && cls >= 0) cClass[cls]++;
+    const surface = itemSurface[doc];
+    if ((f & 11) === 11 && surface >= 0) cSurface[surface]++;
+    if ((f & 7) === 7) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) cParam[itemParams[base + k]]++;
+  }
+}
+
 /** Per-item data kept in arrays indexed by MiniSearch's short id. */
 type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[] };
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
-type FlatPostings = { gen: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
+type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
 const MAX_CACHED_TERMS = 4000;
+/** Parameters counted per item for facets (the guide schema allows 40). */
+const MAX_ITEM_PARAMS = 40;
 
 type Derived = { term: string; data: FieldTermData; weight: number; bit: number; exact: boolean; typed: boolean };
 
@@ -158,12 +187,24 @@ export class SearchIndex {
   private hmask = new Int32Array(1024);
   /** 1 where a typed word (or its typo/prefix variant) matched, not only another name of it. */
   private typed = new Uint8Array(1024);
+  // Per-item facet data in flat arrays (indexed by short id): the hot loops stay in cache.
+  private alive = new Uint8Array(1024);
+  private itemType = new Int8Array(1024);
+  private itemClass = new Int8Array(1024);
+  private itemSurface = new Int8Array(1024);
+  private itemParamCount = new Uint8Array(1024);
+  private itemParams = new Uint16Array(1024 * MAX_ITEM_PARAMS);
   private paramIndex = new Map<string, number>();
   private synonyms = new SynonymTable([]);
   private headline = new Map<string, number>();
   private flat = new Map<string, FlatPostings>();
-  /** Bumped on every change, so flattened postings (and their idf) are rebuilt when next used. */
-  private gen = 0;
+  /**
+   * Per-term change counters: adding an item bumps the counters of its terms, so only their
+   * flattened postings are rebuilt. Removed items are skipped while scoring; idf and lengths are
+   * refreshed once the item count has drifted by 1 %.
+   */
+  private termGen = new Map<string, number>();
+  private params = new Map<string, SearchDocument>();
 
   private createMini() {
     return new TermIndex<SearchDocument>({
@@ -206,7 +247,7 @@ export class SearchIndex {
   }
 
   private rebuildSynonyms() {
-    const params = [...this.docs.values()].filter((d) => d.type === 'parameter');
+    const params = [...this.params.values()];
     this.synonyms = new SynonymTable(params.map((p) => ({ slug: p.slug, name: p.title, aliases: p.aliases })));
   }
 
@@ -222,9 +263,25 @@ export class SearchIndex {
     this.score = grow(this.score, (k) => new Float64Array(k));
     this.mask = grow(this.mask, (k) => new Int32Array(k));
     this.hmask = grow(this.hmask, (k) => new Int32Array(k));
-    const typed = new Uint8Array(size);
-    typed.set(this.typed);
-    this.typed = typed;
+    const u8 = (a: Uint8Array, k = 1) => {
+      const b = new Uint8Array(size * k);
+      b.set(a);
+      return b;
+    };
+    const i8 = (a: Int8Array) => {
+      const b = new Int8Array(size);
+      b.set(a);
+      return b;
+    };
+    this.typed = u8(this.typed);
+    this.alive = u8(this.alive);
+    this.itemParamCount = u8(this.itemParamCount);
+    this.itemType = i8(this.itemType);
+    this.itemClass = i8(this.itemClass);
+    this.itemSurface = i8(this.itemSurface);
+    const params = new Uint16Array(size * MAX_ITEM_PARAMS);
+    params.set(this.itemParams);
+    this.itemParams = params;
     this.lengths = this.lengths.map((a) => grow(a, (k) => new Float64Array(k)));
   }
 
@@ -240,18 +297,26 @@ export class SearchIndex {
   private attach(doc: SearchDocument) {
     const id = docId(doc.type, doc.slug);
     this.docs.set(id, doc);
+    if (doc.type === 'parameter') this.params.set(doc.slug, doc);
     for (const t of this.headlineTerms(doc)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
     const short = this.mini.shortId(id)!;
     this.grow(short + 1);
     const lens = this.mini.fieldLengths(short) ?? [];
     FIELDS.forEach((f, i) => (this.lengths[i][short] = lens[this.mini.fieldId(f)] ?? 0));
-    this.slots[short] = {
+    const slot: Slot = {
       doc,
       type: TYPE_INDEX.get(doc.type) ?? 0,
       cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
       surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
-      params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
+      params: [...new Set(doc.parameters)].slice(0, MAX_ITEM_PARAMS).map((p) => this.paramIdx(p)),
     };
+    this.slots[short] = slot;
+    this.alive[short] = 1;
+    this.itemType[short] = slot.type;
+    this.itemClass[short] = slot.cls;
+    this.itemSurface[short] = slot.surface;
+    this.itemParamCount[short] = slot.params.length;
+    slot.params.forEach((p, k) => (this.itemParams[short * MAX_ITEM_PARAMS + k] = p));
   }
 
   get size() {
@@ -265,10 +330,12 @@ export class SearchIndex {
   /** Replaces the whole index (start-up, or after the notification channel was lost). */
   load(docs: SearchDocument[]) {
     this.mini = this.createMini();
-    this.gen++;
     this.flat.clear();
+    this.termGen.clear();
+    this.params.clear();
     this.docs.clear();
     this.slots = [];
+    this.alive.fill(0);
     this.headline.clear();
     const unique = new Map(docs.map((d) => [docId(d.type, d.slug), d]));
     for (const d of unique.values()) {
@@ -281,7 +348,7 @@ export class SearchIndex {
   /** Adds or replaces one item. */
   put(doc: SearchDocument) {
     this.remove(doc.type, doc.slug, false);
-    this.gen++;
+    for (const f of FIELDS) for (const t of toTerms(this.extract(doc, f))) this.termGen.set(t, (this.termGen.get(t) ?? 0) + 1);
     this.mini.add(doc);
     this.attach(doc);
     if (doc.type === 'parameter') this.rebuildSynonyms();
@@ -298,9 +365,12 @@ export class SearchIndex {
       else this.headline.set(t, n);
     }
     const short = this.mini.shortId(id);
-    if (short !== undefined) this.slots[short] = undefined;
+    if (short !== undefined) {
+      this.slots[short] = undefined;
+      this.alive[short] = 0;
+    }
     this.docs.delete(id);
-    this.gen++;
+    if (type === 'parameter') this.params.delete(slug);
     this.mini.discard(id);
     if (type === 'parameter' && refreshSynonyms) this.rebuildSynonyms();
     return true;
@@ -377,8 +447,9 @@ export class SearchIndex {
   private flatten(term: string, data: FieldTermData, fields: Field[], scope: string): FlatPostings {
     const key = `${scope}\u0000${term}`;
     const cached = this.flat.get(key);
-    if (cached && cached.gen === this.gen) return cached;
+    const gen = this.termGen.get(term) ?? 0;
     const N = this.mini.total;
+    if (cached && cached.gen === gen && Math.abs(cached.total - N) <= cached.total * 0.01) return cached;
     const acc = new Map<number, number>();
     const inHeadline = new Set<number>();
     for (const field of fields) {
@@ -410,7 +481,7 @@ export class SearchIndex {
       i++;
     }
     if (this.flat.size >= MAX_CACHED_TERMS) this.flat.clear();
-    const flat = { gen: this.gen, docs, impact, headline };
+    const flat = { gen, total: N, docs, impact, headline };
     this.flat.set(key, flat);
     return flat;
   }
@@ -418,7 +489,7 @@ export class SearchIndex {
   /** Scores every matching item into the flat arrays; returns the touched short ids. */
   private scoreAll(derived: Derived[], fields: Field[], scope: string): number[] {
     const touched: number[] = [];
-    const { score, mask, hmask, typed } = this;
+    const { score, mask, hmask, typed, alive } = this;
     for (const d of derived) {
       const p = this.flatten(d.term, d.data, fields, scope);
       const bit = 1 << d.bit;
@@ -427,6 +498,7 @@ export class SearchIndex {
       const { docs, impact, headline } = p;
       for (let i = 0; i < docs.length; i++) {
         const doc = docs[i];
+        if (alive[doc] === 0) continue; // removed since these postings were flattened
         if (score[doc] === 0 && typed[doc] === 0 && mask[doc] === 0) touched.push(doc);
         score[doc] += w * impact[i];
         typed[doc] |= isTyped;
@@ -453,7 +525,7 @@ export class SearchIndex {
         if (short !== undefined) named.add(short);
       }
     const touched = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
-    const { score, mask, hmask, typed, slots } = this;
+    const { score, mask, hmask, typed, slots, itemType, itemClass, itemSurface, itemParamCount, itemParams } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
     for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
     const f = opts.filters ?? {};
@@ -471,6 +543,8 @@ export class SearchIndex {
     let maxTier = 0;
     let anyExact = false;
     const candidates: number[] = [];
+    const included: number[] = [];
+    const flags: number[] = [];
     for (let i = 0; i < touched.length; i++) {
       const doc = touched[i];
       const m = mask[doc];
@@ -494,17 +568,14 @@ export class SearchIndex {
       // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
       if (!exactGroups && !typed[doc]) continue;
       if (exactGroups) anyExact = true;
-      const slot = slots[doc]!;
-      const okType = fType < 0 || slot.type === fType;
-      const okClass = fClass < 0 || slot.cls === fClass;
-      const okSurface = fSurface < 0 || slot.surface === fSurface;
-      const okParam = fParam < 0 || slot.params.includes(fParam);
-      // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
+      const okType = fType < 0 || itemType[doc] === fType;
+      const okClass = fClass < 0 || itemClass[doc] === fClass;
+      const okSurface = fSurface < 0 || itemSurface[doc] === fSurface;
+      let okParam = fParam < 0;
+      if (!okParam) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) if (itemParams[base + k] === fParam) okParam = true;
       if (opts.facets) {
-        if (okClass && okSurface && okParam) counts.type[slot.type]++;
-        if (okType && okSurface && okParam && slot.cls >= 0) counts.class[slot.cls]++;
-        if (okType && okClass && okParam && slot.surface >= 0) counts.surface[slot.surface]++;
-        if (okType && okClass && okSurface) for (const p of slot.params) counts.parameter[p]++;
+        included.push(doc);
+        flags.push((okType ? 1 : 0) | (okClass ? 2 : 0) | (okSurface ? 4 : 0) | (okParam ? 8 : 0));
       }
       if (okType && okClass && okSurface && okParam) {
         const tier = exactGroups * 64 + headlineGroups;
@@ -513,6 +584,7 @@ export class SearchIndex {
         if (tier > maxTier) maxTier = tier;
       }
     }
+    if (opts.facets) countFacets(included, flags, { itemType, itemClass, itemSurface, itemParamCount, itemParams }, counts);
     // Only the page is ordered: keep the best `limit` by (tier, score) in a small sorted buffer.
     const page: Array<{ doc: number; tier: number }> = [];
     const better = (tier: number, doc: number, than: { doc: number; tier: number }) => tier > than.tier || (tier === than.tier && score[doc] > score[than.doc]);
