@@ -4,6 +4,7 @@ import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mailer';
 import type { DocumentListener } from './lib/document-listener';
 import type { Storage } from './lib/storage';
+import type { SearchService } from './modules/search/service';
 
 /** What every module needs at run time; built once per process (or per test file). */
 export type AppContext = {
@@ -15,4 +16,5 @@ export type AppContext = {
   documentListener: DocumentListener;
   /** Uploaded files (setup records): local disk or S3-compatible storage. */
   storage: Storage;
+  search: SearchService;
 };

@@ -5,6 +5,7 @@ import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
 import { createDocumentListener } from './lib/document-listener';
 import { createStorage } from './lib/storage';
+import { createSearchService } from './modules/search/service';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
@@ -17,7 +18,9 @@ async function main() {
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();
-  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage) };
+  const search = createSearchService({ dataSource, logger, listener: documentListener });
+  await search.start();
+  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage), search };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {
@@ -40,6 +43,7 @@ async function main() {
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 3000).unref();
     await mailer.stop();
+    await search.close();
     await documentListener.close();
     await close();
     await dataSource.destroy();

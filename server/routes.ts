@@ -3,6 +3,7 @@ import { authRoutes } from './modules/auth/routes';
 import { adminRoutes } from './modules/admin/routes';
 import { healthRoutes } from './modules/health/routes';
 import { devMailRoutes } from './modules/dev-mail/routes';
+import { searchRoutes } from './modules/search/routes';
 import { parameterRoutes } from './modules/parameters/routes';
 import { calcRoutes } from './modules/calc/routes';
 import { setupRoutes } from './modules/setups/routes';
@@ -10,4 +11,4 @@ import { guideRoutes } from './modules/guides/routes';
 import { revisionRoutes } from './modules/revisions/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
-export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes];
+export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes];

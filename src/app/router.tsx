@@ -42,6 +42,7 @@ export const router = createBrowserRouter([
       { path: 'me/revisions', lazy: () => import('./routes/workbench').then((m) => ({ Component: m.WorkbenchPage })) },
       { path: 'review', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewQueuePage })) },
       { path: 'review/:revisionId', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewDetailPage })) },
+      { path: 'search', lazy: () => import('./routes/search').then((m) => ({ Component: m.SearchPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },
     ],

@@ -7,6 +7,7 @@ import { startCluster, freePort, ensureDatabase, type Cluster } from '../../serv
 import { createDataSource } from '../../server/db/data-source';
 import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
+import { createSearchService } from '../../server/modules/search/service';
 import { createMailer } from '../../server/lib/mailer';
 import { createDiskStorage } from '../../server/lib/storage';
 import { createApp } from '../../server/app';
@@ -34,7 +35,7 @@ beforeAll(async () => {
   const logger = createLogger('silent');
   const documentListener = createDocumentListener({ connectionString: cluster.urlFor('health'), logger, minRetryMs: 50, maxRetryMs: 500 });
   await documentListener.start();
-  ctx = { config, dataSource: ds, logger, documentListener, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), storage: createDiskStorage(path.join(dir, 'uploads')) };
+  ctx = { config, dataSource: ds, logger, documentListener, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), storage: createDiskStorage(path.join(dir, 'uploads')), search: createSearchService({ dataSource: ds, logger }) };
   const created = createApp(ctx, { serveClient: false });
   app = created.app;
   closeApp = created.close;

@@ -29,7 +29,10 @@ export async function start(opts: E2EServerOptions = {}): Promise<E2EServer> {
   if (!fs.existsSync(index)) throw new Error('dist/index.html is missing: run `npx vite build` (npm test does it for you).');
   const t = await createTestApp(opts.env ?? {}, { catcher: opts.catcher ?? true, serveClient: true });
   try {
-    if (opts.seed ?? true) await seedDatabase(t.db.dataSource, { demo: true, bcryptCost: 4 });
+    if (opts.seed ?? true) {
+      await seedDatabase(t.db.dataSource, { demo: true, bcryptCost: 4 });
+      await t.ctx.search.build(); // seeding writes rows directly, without change notifications
+    }
     t.mailer.start();
     const server = t.app.listen(0, '127.0.0.1');
     await new Promise<void>((resolve, reject) => {

@@ -5,6 +5,7 @@ import { createApp } from '../../server/app';
 import { createLogger } from '../../server/lib/logger';
 import { createMailer, type Mailer } from '../../server/lib/mailer';
 import { createDocumentListener } from '../../server/lib/document-listener';
+import { createSearchService } from '../../server/modules/search/service';
 import { startMailCatcher } from '../../server/lib/mail-catcher';
 import { createStorage } from '../../server/lib/storage';
 import os from 'node:os';
@@ -12,6 +13,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import { CapturedMailEntity } from '../../server/modules/dev-mail/captured-mail.entity';
 import type { AppContext } from '../../server/context';
+import { createDataSource } from '../../server/db/data-source';
 import { createTestDatabase, type TestDatabase } from './test-db';
 
 export type TestApp = {
@@ -26,8 +28,10 @@ export type TestApp = {
 };
 
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
-export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean } = {}): Promise<TestApp> {
-  const db = await createTestDatabase();
+export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase } = {}): Promise<TestApp> {
+  // Passing `db` puts a second app instance on the same database (as behind a load balancer).
+  const db = opts.db ?? (await createTestDatabase());
+  const dataSource = opts.db ? await createDataSource(db.url, { poolMax: 5 }).initialize() : db.dataSource;
   const uploadDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-uploads-'));
   const catcher = opts.catcher === false ? null : await startMailCatcher({ dataSource: db.dataSource, port: 0 });
   const config: Config = loadConfig({
@@ -43,10 +47,12 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     ...overrides,
   });
   const logger = createLogger(config.logLevel);
-  const mailer = createMailer({ dataSource: db.dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
+  const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: db.url, logger, minRetryMs: 50, maxRetryMs: 500 });
   await documentListener.start();
-  const ctx: AppContext = { config, dataSource: db.dataSource, mailer, logger, documentListener, storage: createStorage(config.storage) };
+  const search = createSearchService({ dataSource, logger, listener: documentListener });
+  await search.start();
+  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage), search };
   const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
   return {
     app: created.app,
@@ -67,10 +73,12 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     },
     async close() {
       await mailer.stop();
+      await search.close();
       await documentListener.close();
       await created.close();
       if (catcher) await catcher.close();
-      await db.drop();
+      if (opts.db) await dataSource.destroy();
+      else await db.drop();
       fs.rmSync(uploadDir, { recursive: true, force: true });
     },
   };

@@ -66,7 +66,7 @@ export function GuidePage() {
         )}
         <GuideArticle revision={revision} liveNumber={number != null ? liveNumber : null} renderWorkedExample={renderWorkedExample} parameterNames={parameterNames} actions={actions} />
         {revision.number === liveNumber ? (
-          <section className="mt-10" aria-label="Baseline setup">
+          <section id="setup" className="mt-10 scroll-mt-4" aria-label="Baseline setup">
             <SetupSheet slug={slug} />
           </section>
         ) : (

@@ -1,0 +1,33 @@
+import { z } from 'zod';
+import { searchQuerySchema, searchResponseSchema, searchSuggestionSchema, suggestQuerySchema } from '../../../shared/schemas/search';
+import { defineRoute } from '../../lib/route';
+
+export const searchRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/api/search',
+    summary: 'Search live parameters, guides and setup baselines, with facets and snippets',
+    tags: ['search'],
+    access: 'public',
+    query: searchQuerySchema,
+    response: searchResponseSchema,
+    handler: ({ query, ctx }) => {
+      const { q, limit, ...filters } = query;
+      const r = ctx.search.search(q, filters, limit);
+      return {
+        data: { hits: r.hits, facets: r.facets, ...(r.didYouMean ? { didYouMean: r.didYouMean } : {}) },
+        meta: { tookMs: r.tookMs, total: r.total },
+      };
+    },
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/search/suggest',
+    summary: 'Pages to offer while a reader types in the search box',
+    tags: ['search'],
+    access: 'public',
+    query: suggestQuerySchema,
+    response: z.array(searchSuggestionSchema),
+    handler: ({ query, ctx }) => ({ data: ctx.search.suggest(query.q) }),
+  }),
+];

@@ -1,0 +1,76 @@
+import { z } from 'zod';
+import { CLASS_SLUGS, LIMITS, SURFACE_SLUGS } from '../constants';
+
+export const SEARCH_TYPES = ['parameter', 'guide', 'setup'] as const;
+export type SearchType = (typeof SEARCH_TYPES)[number];
+
+/** Query of GET /api/search. */
+export const searchQuerySchema = z.object({
+  q: z
+    .string({ message: 'Type something to search for' })
+    .trim()
+    .min(1, 'Type something to search for')
+    .max(LIMITS.searchQueryMax, `Keep the search under ${LIMITS.searchQueryMax} characters`),
+  type: z.enum(SEARCH_TYPES, { message: 'Type is parameter, guide or setup' }).optional(),
+  class: z.enum(CLASS_SLUGS, { message: 'Unknown class' }).optional(),
+  surface: z.enum(SURFACE_SLUGS, { message: 'Unknown surface' }).optional(),
+  parameter: z
+    .string()
+    .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Unknown parameter')
+    .max(80)
+    .optional(),
+  limit: z.coerce.number().int().min(1).max(50).default(10),
+});
+export type SearchQuery = z.infer<typeof searchQuerySchema>;
+
+/** Query of GET /api/search/suggest. */
+export const suggestQuerySchema = searchQuerySchema.pick({ q: true });
+
+export const searchHitSchema = z.object({
+  type: z.enum(SEARCH_TYPES),
+  slug: z.string(),
+  title: z.string(),
+  /** Plain text; the matched words are wrapped in <mark>…</mark> (no other markup). */
+  snippet: z.string(),
+  score: z.number(),
+  url: z.string(),
+  /** True when at least one typed word (or one of its names) matched as written, not only by typo tolerance. */
+  exact: z.boolean(),
+});
+export type SearchHit = z.infer<typeof searchHitSchema>;
+
+const facetValueSchema = z.object({ value: z.string(), label: z.string(), count: z.number().int() });
+export type FacetValue = z.infer<typeof facetValueSchema>;
+
+export const searchFacetsSchema = z.object({
+  type: z.array(facetValueSchema),
+  class: z.array(facetValueSchema),
+  surface: z.array(facetValueSchema),
+  parameter: z.array(facetValueSchema),
+});
+export type SearchFacets = z.infer<typeof searchFacetsSchema>;
+
+export const searchResponseSchema = z.object({
+  hits: z.array(searchHitSchema),
+  facets: searchFacetsSchema,
+  /** A nearby name or spelling, offered when nothing matched as typed. */
+  didYouMean: z.string().optional(),
+});
+export type SearchResponse = z.infer<typeof searchResponseSchema> & { tookMs?: number };
+
+export const searchSuggestionSchema = z.object({ type: z.enum(SEARCH_TYPES), slug: z.string(), title: z.string(), url: z.string() });
+export type SearchSuggestion = z.infer<typeof searchSuggestionSchema>;
+
+/** Splits a snippet into plain-text segments, marking the highlighted ones (for rendering as text nodes). */
+export function snippetSegments(snippet: string): Array<{ text: string; hit: boolean }> {
+  const out: Array<{ text: string; hit: boolean }> = [];
+  const re = /<mark>(.*?)<\/mark>/gs;
+  let last = 0;
+  for (const m of snippet.matchAll(re)) {
+    if (m.index > last) out.push({ text: snippet.slice(last, m.index), hit: false });
+    out.push({ text: m[1], hit: true });
+    last = m.index + m[0].length;
+  }
+  if (last < snippet.length) out.push({ text: snippet.slice(last), hit: false });
+  return out;
+}

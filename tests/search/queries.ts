@@ -1,0 +1,73 @@
+/**
+ * The search quality set: what racers actually type, with the page that should come first.
+ * `expect` is `<type>:<slug>`. Newcomer phrasing, misspellings (several not in any alias list, so
+ * only typo tolerance can rescue them), class shorthand and settings by another common name.
+ */
+export type QualityQuery = { q: string; expect: string; why: string };
+
+export const QUALITY_QUERIES: QualityQuery[] = [
+  // Newcomer phrasing
+  { q: 'what does drag brake do', expect: 'parameter:drag-brake', why: 'question around a parameter name' },
+  { q: 'how fast should the throttle punch be', expect: 'parameter:throttle-punch', why: 'question' },
+  { q: 'how many cells', expect: 'parameter:cell-count', why: 'question' },
+  { q: 'why does my car stop when the battery is low', expect: 'parameter:low-voltage-cutoff', why: 'symptom' },
+  { q: 'when does boost start', expect: 'parameter:ramp-start-rpm', why: 'question using a common name' },
+  { q: 'dead zone on the trigger', expect: 'parameter:neutral-deadband', why: 'description' },
+  { q: 'motor spins the wrong way', expect: 'parameter:motor-rotation', why: 'symptom' },
+  { q: 'esc shuts down when hot', expect: 'parameter:thermal-protection', why: 'symptom' },
+  // Misspellings
+  { q: 'dragbreak', expect: 'parameter:drag-brake', why: 'run together and misspelled' },
+  { q: 'drag break', expect: 'parameter:drag-brake', why: 'misspelled' },
+  { q: 'drag brak', expect: 'parameter:drag-brake', why: 'half typed' },
+  { q: 'punch controll', expect: 'parameter:throttle-punch', why: 'misspelled alias' },
+  { q: 'thermel protection', expect: 'parameter:thermal-protection', why: 'misspelling not in the alias list' },
+  { q: 'final drive raito', expect: 'parameter:final-drive-ratio', why: 'transposition' },
+  { q: 'low voltge cutoff', expect: 'parameter:low-voltage-cutoff', why: 'dropped letter' },
+  { q: 'neutral deadbend', expect: 'parameter:neutral-deadband', why: 'wrong vowel' },
+  { q: 'initail brake', expect: 'parameter:initial-brake', why: 'transposition' },
+  { q: 'rampd advance', expect: 'parameter:ramped-advance', why: 'dropped letter' },
+  { q: 'chemestry', expect: 'parameter:pack-chemistry', why: 'common misspelling' },
+  { q: 'turbo timming', expect: 'parameter:full-throttle-advance', why: 'common misspelling' },
+  { q: 'sensord mode', expect: 'parameter:sensor-mode', why: 'misspelled' },
+  { q: 'brake frequancy', expect: 'parameter:brake-frequency', why: 'misspelled' },
+  // Other common names and shorthand
+  { q: 'lvc', expect: 'parameter:low-voltage-cutoff', why: 'abbreviation' },
+  { q: 'low volt cut off', expect: 'parameter:low-voltage-cutoff', why: 'spoken form' },
+  { q: '2S cutoff', expect: 'parameter:low-voltage-cutoff', why: 'cell count plus setting' },
+  { q: 'boost', expect: 'parameter:ramped-advance', why: 'common name' },
+  { q: 'turbo', expect: 'parameter:full-throttle-advance', why: 'common name' },
+  { q: 'turbo delay', expect: 'parameter:full-throttle-delay', why: 'common name' },
+  { q: 'FDR', expect: 'parameter:final-drive-ratio', why: 'abbreviation' },
+  { q: 'gear ratio', expect: 'parameter:final-drive-ratio', why: 'common name' },
+  { q: 'kv', expect: 'parameter:motor-kv', why: 'abbreviation' },
+  { q: 'rpm per volt', expect: 'parameter:motor-kv', why: 'description' },
+  { q: 'expo', expect: 'parameter:throttle-curve', why: 'common name' },
+  { q: 'punch', expect: 'parameter:throttle-punch', why: 'common name' },
+  { q: 'neutral brake', expect: 'parameter:drag-brake', why: 'common name' },
+  { q: 'max brake', expect: 'parameter:brake-strength', why: 'common name' },
+  { q: 'can timing', expect: 'parameter:endbell-timing', why: 'common name' },
+  { q: 'pwm frequency', expect: 'parameter:drive-frequency', why: 'common name' },
+  { q: 'receiver voltage servo', expect: 'parameter:bec-voltage', why: 'description' },
+  { q: 'rev limiter', expect: 'parameter:rev-limit', why: 'common name' },
+  { q: 'amp limit', expect: 'parameter:current-limit', why: 'common name' },
+  { q: 'zero timing', expect: 'parameter:zero-timing-mode', why: 'common name' },
+  { q: 'sensored or sensorless', expect: 'parameter:sensor-mode', why: 'choice' },
+  { q: '4 pole motor', expect: 'parameter:pole-count', why: 'trade token' },
+  { q: 'lipo or lifepo4', expect: 'parameter:pack-chemistry', why: 'choice' },
+  { q: 'soft start launch', expect: 'parameter:soft-start', why: 'description' },
+  { q: 'reverse lockout', expect: 'parameter:reverse-mode', why: 'common name' },
+  { q: 'roll out', expect: 'parameter:rollout', why: 'split word' },
+  // Class shorthand and guides
+  { q: '17.5T buggy clay', expect: 'guide:stock-2wd-buggy-harbour-flats-clay', why: 'class shorthand' },
+  { q: 'blinky touring', expect: 'guide:stock-touring-carpet-zero-timing', why: 'class shorthand' },
+  { q: '13.5t stadium truck', expect: 'guide:stadium-truck-harbour-flats-clay', why: 'wind plus class' },
+  { q: 'oval 1S carpet', expect: 'guide:oval-pan-car-carpet', why: 'class and cell count' },
+  { q: 'crawler rock garden', expect: 'guide:crawler-saltings-meadow-rock-garden', why: 'class and place' },
+  { q: 'sct loose dirt', expect: 'guide:short-course-saltings-meadow-loose-dirt', why: 'class abbreviation' },
+  { q: '1/8 buggy 4S', expect: 'guide:eighth-e-buggy-saltings-meadow', why: 'scale and cells' },
+  { q: 'mod touring asphalt', expect: 'guide:mod-touring-car-park-asphalt', why: 'class shorthand' },
+  { q: 'drag car launch', expect: 'guide:drag-car-park-asphalt', why: 'class' },
+  { q: '4wd harbour flats', expect: 'guide:mod-4wd-buggy-harbour-flats-clay', why: 'class and track' },
+  { q: 'stock buggy gearing', expect: 'guide:stock-2wd-buggy-harbour-flats-clay', why: 'class and topic' },
+  { q: 'touring carpet rollout', expect: 'guide:stock-touring-carpet-zero-timing', why: 'class, surface and topic' },
+];

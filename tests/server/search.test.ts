@@ -1,0 +1,117 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seed } from '../../server/db/seed';
+import { LIMITS } from '../../shared/constants';
+import { searchResponseSchema, searchSuggestionSchema } from '../../shared/schemas/search';
+import { createClient, createTestApp, type TestApp, type TestClient } from '../setup/test-app';
+
+let t: TestApp;
+let client: TestClient;
+beforeAll(async () => {
+  t = await createTestApp({}, { catcher: false });
+  await seed(t.db.dataSource, { demo: true, bcryptCost: 4 });
+  await t.ctx.search.build();
+  client = createClient(t.app);
+});
+afterAll(async () => {
+  await t.close();
+});
+
+describe('GET /api/search', () => {
+  it('returns hits, facets and meta in the contract shape', async () => {
+    const res = await client.get('/api/search?q=drag%20brake');
+    expect(res.status).toBe(200);
+    expect(searchResponseSchema.strict().parse(res.body.data)).toBeTruthy();
+    expect(Object.keys(res.body).sort()).toEqual(['data', 'meta']);
+    expect(res.body.meta.total).toBeGreaterThan(5);
+    expect(typeof res.body.meta.tookMs).toBe('number');
+    const first = res.body.data.hits[0];
+    expect(first).toMatchObject({ type: 'parameter', slug: 'drag-brake', title: 'Drag brake', url: '/parameters/drag-brake' });
+    expect(first.snippet).toMatch(/<mark>drag<\/mark> <mark>brake<\/mark>/i);
+    expect(first.snippet.replace(/<\/?mark>/g, '')).not.toMatch(/[<>]/);
+    // Guides' baseline setup records are indexed too (as type 'setup').
+    expect(res.body.data.facets.type.map((f: { value: string }) => f.value).sort()).toEqual(['guide', 'parameter', 'setup']);
+  });
+
+  it('puts the drag-brake parameter first for q=dragbreak', async () => {
+    const res = await client.get('/api/search?q=dragbreak');
+    expect(res.status).toBe(200);
+    expect(res.body.data.hits[0]).toMatchObject({ type: 'parameter', slug: 'drag-brake' });
+  });
+
+  it('filters by type, class, surface and parameter, with facet counts that add up', async () => {
+    const all = (await client.get('/api/search?q=drag%20brake&limit=50')).body;
+    const guideCount = all.data.facets.type.find((f: { value: string }) => f.value === 'guide').count;
+    const guides = (await client.get('/api/search?q=drag%20brake&type=guide&limit=50')).body;
+    expect(guides.meta.total).toBe(guideCount);
+    expect(guides.data.hits.every((h: { type: string }) => h.type === 'guide')).toBe(true);
+    const clay = all.data.facets.surface.find((f: { value: string }) => f.value === 'clay');
+    const onClay = (await client.get('/api/search?q=drag%20brake&surface=clay')).body;
+    expect(onClay.meta.total).toBe(clay.count);
+    const stock = (await client.get('/api/search?q=punch&class=buggy-2wd-stock')).body;
+    expect(stock.data.hits.map((h: { type: string; slug: string }) => `${h.type}:${h.slug}`)).toEqual(['guide:stock-2wd-buggy-harbour-flats-clay', 'setup:stock-2wd-buggy-harbour-flats-clay']);
+    const withRollout = (await client.get('/api/search?q=clay&parameter=rollout')).body;
+    expect(withRollout.meta.total).toBeGreaterThan(0);
+    const limited = (await client.get('/api/search?q=brake&limit=2')).body;
+    expect(limited.data.hits).toHaveLength(2);
+    expect(limited.meta.total).toBeGreaterThan(2);
+  });
+
+  it('offers "did you mean" when nothing matches as typed', async () => {
+    const res = await client.get('/api/search?q=drgabrkae');
+    expect(res.status).toBe(200);
+    expect(res.body.data.hits).toEqual([]);
+    expect(res.body.meta.total).toBe(0);
+    expect(res.body.data.didYouMean).toBe('Drag brake');
+  });
+
+  it('never shows proposals: a guide that only has a revision awaiting review is not found', async () => {
+    const res = await client.get('/api/search?q=Brackwater%20Barn%20astroturf&limit=50');
+    expect(res.body.data.hits.map((h: { slug: string }) => h.slug)).not.toContain('mod-2wd-buggy-brackwater-astroturf');
+  });
+
+  it('rejects an empty, missing or over-long query with the error shape', async () => {
+    for (const path of ['/api/search?q=', '/api/search?q=%20%20', '/api/search', `/api/search?q=${'a'.repeat(LIMITS.searchQueryMax + 1)}`]) {
+      const res = await client.get(path);
+      expect(res.status, path).toBe(400);
+      expect(res.body.error.code).toBe('validation_failed');
+      expect(res.body.error.details[0].path).toBe('query.q');
+    }
+    expect((await client.get(`/api/search?q=${'a'.repeat(LIMITS.searchQueryMax)}`)).status).toBe(200);
+  });
+
+  it('rejects unknown filters and limits', async () => {
+    for (const path of [
+      '/api/search?q=brake&type=page',
+      '/api/search?q=brake&class=monster',
+      '/api/search?q=brake&surface=ice',
+      '/api/search?q=brake&limit=0',
+      '/api/search?q=brake&limit=500',
+      '/api/search?q=brake&parameter=Drag%20Brake',
+    ]) {
+      const res = await client.get(path);
+      expect(res.status, path).toBe(400);
+      expect(res.body.error.code).toBe('validation_failed');
+    }
+  });
+});
+
+describe('GET /api/search/suggest', () => {
+  it('suggests pages for a half-typed query', async () => {
+    const res = await client.get('/api/search/suggest?q=drag%20br');
+    expect(res.status).toBe(200);
+    expect(res.body.data.length).toBeGreaterThan(0);
+    expect(res.body.data.length).toBeLessThanOrEqual(8);
+    for (const s of res.body.data) expect(searchSuggestionSchema.strict().parse(s)).toBeTruthy();
+    expect(res.body.data[0]).toEqual({ type: 'parameter', slug: 'drag-brake', title: 'Drag brake', url: '/parameters/drag-brake' });
+  });
+
+  it('suggests guides by class words', async () => {
+    const res = await client.get('/api/search/suggest?q=stadium');
+    expect(res.body.data[0]).toMatchObject({ type: 'guide', slug: 'stadium-truck-harbour-flats-clay' });
+  });
+
+  it('rejects an empty or over-long query', async () => {
+    expect((await client.get('/api/search/suggest?q=')).status).toBe(400);
+    expect((await client.get(`/api/search/suggest?q=${'b'.repeat(LIMITS.searchQueryMax + 1)}`)).body.error.code).toBe('validation_failed');
+  });
+});
