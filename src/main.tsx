@@ -1,7 +1,6 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import './styles/index.css';
-import './app/nav-extras-setup';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
 import './app/nav-extras-setup';

@@ -2,11 +2,13 @@ import { ROLE_RANK } from '@shared/constants';
 import { navExtras } from '@/components/layout/nav-extras';
 import { useCurrentUser } from '@/features/auth/api/auth';
 import { ReviewCountBadge } from '@/features/review/components/review-badge';
+import { SearchBox } from '@/features/search/components/search-box';
 
 function ReviewBadge() {
   const me = useCurrentUser().data;
   return <ReviewCountBadge enabled={!!me && ROLE_RANK[me.role] >= ROLE_RANK.moderator} />;
 }
 
-// Filled once at startup (imported by main.tsx), so the layout never imports a feature itself.
+// Fills the header's slots once at startup (imported by main.tsx), so the layout never imports a feature itself.
+navExtras.SearchBox = SearchBox;
 navExtras.ReviewBadge = ReviewBadge;
