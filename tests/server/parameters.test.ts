@@ -3,6 +3,7 @@ import { PARAMETER_CATEGORIES } from '../../shared/constants';
 import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySchema } from '../../shared/schemas/parameter';
 import { seed } from '../../server/db/seed';
 import { readGuideDirs, readParameterFiles } from '../../server/db/seed-content';
+import { signedInClient } from '../factories/user';
 import { createClient, createTestApp, type TestApp, type TestClient } from '../setup/test-app';
 
 let t: TestApp;
@@ -47,13 +48,15 @@ describe('GET /api/parameters', () => {
   });
 
   it('leaves out hidden entries', async () => {
-    await t.db.dataSource.query(`UPDATE documents SET hidden_at = now(), hidden_reason = 'test' WHERE kind = 'parameter' AND slug = 'soft-start'`);
+    const { client: moderator } = await signedInClient(t, 'moderator');
+    // Through the hide route, as a moderator would: it also tells the caches and the index.
+    expect((await moderator.post('/api/parameters/soft-start/hide', { reason: 'Checking the hidden path' })).status).toBe(200);
     try {
       const res = await client.get('/api/parameters');
       expect(res.body.data.map((p: { slug: string }) => p.slug)).not.toContain('soft-start');
       expect((await client.get('/api/parameters/soft-start')).status).toBe(404);
     } finally {
-      await t.db.dataSource.query(`UPDATE documents SET hidden_at = NULL, hidden_reason = NULL WHERE slug = 'soft-start'`);
+      expect((await moderator.post('/api/parameters/soft-start/unhide', {})).status).toBe(200);
     }
   });
 });

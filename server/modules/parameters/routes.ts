@@ -4,6 +4,7 @@ import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySch
 import { defineRoute } from '../../lib/route';
 import { presentLiveRevision, presentParameterDetail, presentParameterSummary } from './presenter';
 import { parametersService } from './service';
+import { publishedCache } from '../revisions/read-cache';
 
 export const parameterRoutes = [
   defineRoute({
@@ -13,7 +14,9 @@ export const parameterRoutes = [
     tags: ['parameters'],
     access: 'public',
     response: z.array(parameterSummarySchema),
-    handler: async ({ ctx }) => ({ data: (await parametersService(ctx).listLive()).map(presentParameterSummary) }),
+    handler: async ({ ctx }) => ({
+      data: await publishedCache(ctx).readAcross('parameter-library', async () => (await parametersService(ctx).listLive()).map(presentParameterSummary)),
+    }),
   }),
   defineRoute({
     method: 'get',
@@ -23,14 +26,12 @@ export const parameterRoutes = [
     access: 'public',
     params: slugParam,
     response: z.object({ parameter: parameterDetailSchema, revision: parameterLiveRevisionSchema }),
-    handler: async ({ params, ctx }) => {
-      const { parameter, relatedParameters, guides } = await parametersService(ctx).getLive(params.slug);
-      return {
-        data: {
-          parameter: presentParameterDetail(parameter, relatedParameters, guides),
-          revision: presentLiveRevision(parameter),
-        },
-      };
-    },
+    handler: async ({ params, ctx }) => ({
+      // Related entries and the guides list span other documents, so this view is dropped on any change.
+      data: await publishedCache(ctx).readAcross(`parameter-detail:${params.slug}`, async () => {
+        const { parameter, relatedParameters, guides } = await parametersService(ctx).getLive(params.slug);
+        return { parameter: presentParameterDetail(parameter, relatedParameters, guides), revision: presentLiveRevision(parameter) };
+      }),
+    }),
   }),
 ];

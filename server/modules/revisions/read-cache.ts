@@ -2,6 +2,8 @@ import type { DocumentKind } from '../../../shared/constants';
 import type { AppContext } from '../../context';
 
 const MAX_ENTRIES = 5000;
+/** The pseudo-document that views spanning many documents hang off. */
+const ACROSS = '*';
 
 /**
  * In-memory cache of what readers get for a live document (e.g. the presented guide page), per
@@ -14,6 +16,11 @@ export type PublishedCache = {
    * the loader's result, which is kept unless it is null or the document changed while loading.
    */
   read<T>(view: string, kind: DocumentKind, slug: string, load: () => Promise<T | null>): Promise<T | null>;
+  /**
+   * Like read(), for a view that depends on many documents (a list, or an entry with its related
+   * entries and guides): dropped whenever any document changes.
+   */
+  readAcross<T>(view: string, load: () => Promise<T | null>): Promise<T | null>;
   invalidate(kind: DocumentKind, slug: string): void;
   clear(): void;
   readonly size: number;
@@ -43,10 +50,24 @@ export function createPublishedCache(opts: { enabled?: () => boolean } = {}): Pu
       }
       return value;
     },
+    async readAcross<T>(view: string, load: () => Promise<T | null>) {
+      const key = `${view}|${ACROSS}`;
+      if (!enabled()) return load();
+      if (entries.has(key)) return entries.get(key) as T;
+      const gen = generations.get(ACROSS) ?? 0;
+      const startEpoch = epoch;
+      const value = await load();
+      if (value !== null && enabled() && (generations.get(ACROSS) ?? 0) === gen && epoch === startEpoch) {
+        if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value as string);
+        entries.set(key, value);
+      }
+      return value;
+    },
     invalidate(kind, slug) {
-      const doc = docKey(kind, slug);
-      generations.set(doc, (generations.get(doc) ?? 0) + 1);
-      for (const key of [...entries.keys()]) if (key.endsWith(`|${doc}`)) entries.delete(key);
+      for (const doc of [docKey(kind, slug), ACROSS]) {
+        generations.set(doc, (generations.get(doc) ?? 0) + 1);
+        for (const key of [...entries.keys()]) if (key.endsWith(`|${doc}`)) entries.delete(key);
+      }
     },
     clear() {
       epoch++;

@@ -130,6 +130,19 @@ describe('published cache', () => {
     expect(cache.size).toBe(2);
   });
 
+  it('drops views spanning many documents when any document changes', async () => {
+    const cache = createPublishedCache();
+    let loads = 0;
+    const load = async () => ++loads;
+    expect(await cache.readAcross('parameter-library', load)).toBe(1);
+    expect(await cache.readAcross('parameter-library', load)).toBe(1);
+    expect(await cache.read('guide-detail', 'guide', 'a', load)).toBe(2);
+    cache.invalidate('guide', 'some-other-guide');
+    expect(await cache.readAcross('parameter-library', load)).toBe(3);
+    // A per-document view of an unrelated document survives.
+    expect(await cache.read('guide-detail', 'guide', 'a', load)).toBe(2);
+  });
+
   it('reads through while disabled (listener down)', async () => {
     let on = false;
     const cache = createPublishedCache({ enabled: () => on });
