@@ -14,8 +14,27 @@ import { logIn, logOut } from '../../middleware/auth';
 import { csrf } from '../../middleware/csrf';
 import { presentUser } from './presenter';
 import { authService } from './service';
+import type { AppContext } from '../../context';
 
 const userData = z.object({ user: userSchema });
+
+/** A rate-limited "mail this address" route that answers 202 either way, so it never tells whether an account exists. */
+function mailByAddressRoute(path: string, summary: string, send: (ctx: AppContext, email: string) => Promise<void>) {
+  return defineRoute({
+    method: 'post',
+    path,
+    summary,
+    tags: ['auth'],
+    access: 'public',
+    rateLimit: 'auth',
+    body: forgotPasswordSchema,
+    status: 202,
+    handler: async ({ body, ctx }) => {
+      await send(ctx, body.email);
+      return { status: 202, data: { sent: true } };
+    },
+  });
+}
 
 export const authRoutes = [
   defineRoute({
@@ -55,20 +74,7 @@ export const authRoutes = [
     response: userData,
     handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).verifyEmail(body.token)) } }),
   }),
-  defineRoute({
-    method: 'post',
-    path: '/api/auth/resend-verification',
-    summary: 'Send a new verification mail (answers 202 whether or not the account exists)',
-    tags: ['auth'],
-    access: 'public',
-    rateLimit: 'auth',
-    body: forgotPasswordSchema,
-    status: 202,
-    handler: async ({ body, ctx }) => {
-      await authService(ctx).resendVerification(body.email);
-      return { status: 202, data: { sent: true } };
-    },
-  }),
+  mailByAddressRoute('/api/auth/resend-verification', 'Send a new verification mail (answers 202 whether or not the account exists)', (ctx, email) => authService(ctx).resendVerification(email)),
   defineRoute({
     method: 'post',
     path: '/api/auth/sign-in',
@@ -106,20 +112,7 @@ export const authRoutes = [
     response: z.object({ user: userSchema.nullable() }),
     handler: ({ user }) => ({ data: { user } }),
   }),
-  defineRoute({
-    method: 'post',
-    path: '/api/auth/forgot-password',
-    summary: 'Mail a password-reset link (answers 202 whether or not the account exists)',
-    tags: ['auth'],
-    access: 'public',
-    rateLimit: 'auth',
-    body: forgotPasswordSchema,
-    status: 202,
-    handler: async ({ body, ctx }) => {
-      await authService(ctx).forgotPassword(body.email);
-      return { status: 202, data: { sent: true } };
-    },
-  }),
+  mailByAddressRoute('/api/auth/forgot-password', 'Mail a password-reset link (answers 202 whether or not the account exists)', (ctx, email) => authService(ctx).forgotPassword(email)),
   defineRoute({
     method: 'post',
     path: '/api/auth/reset-password',
