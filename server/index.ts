@@ -4,7 +4,7 @@ import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
 import { createDocumentListener } from './lib/document-listener';
-import { createStorage } from './lib/storage';
+import { createStorage, sweepDiskStorage } from './lib/storage';
 import { createSearchService } from './modules/search/service';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
@@ -15,6 +15,14 @@ async function main() {
   const logger = createLogger(config.logLevel);
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
+  if (config.storage.driver === 'disk') {
+    // A minute of grace: another instance on the same directory may be between its write and its row.
+    const swept = await sweepDiskStorage(config.storage.uploadDir, {
+      olderThan: new Date(Date.now() - 60_000),
+      referenced: async (keys) => new Set((await dataSource.query('SELECT storage_key FROM setups WHERE storage_key = ANY($1)', [keys])).map((r: { storage_key: string }) => r.storage_key)),
+    });
+    if (swept.temp.length || swept.orphans.length) logger.warn({ temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
+  }
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();

@@ -121,3 +121,52 @@ export function createStorage(config: StorageConfig): Storage {
   }
   return createDiskStorage(config.uploadDir);
 }
+
+// The disk driver's temporary names (see put): `.<file name>.<12 hex>.partial`, beside the final file.
+const TEMP_NAME = /^\..+\.[0-9a-f]{12}\.partial$/;
+
+export type DiskSweepResult = { temp: string[]; orphans: string[] };
+
+/**
+ * Start-up clean-up for the disk driver. A process killed inside put() can leave its temporary file,
+ * and one killed after put() but before the row committed leaves an object nothing points at. Both are
+ * removed here once they are older than `olderThan`; the grace keeps a write still in flight in another
+ * instance on the same directory safe. Only names this driver could have written are touched.
+ */
+export async function sweepDiskStorage(
+  root: string,
+  opts: { olderThan: Date; referenced: (keys: string[]) => Promise<Set<string>> },
+): Promise<DiskSweepResult> {
+  const base = path.resolve(root);
+  const result: DiskSweepResult = { temp: [], orphans: [] };
+  let entries: import('node:fs').Dirent[];
+  try {
+    entries = await fs.readdir(base, { recursive: true, withFileTypes: true });
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return result;
+    throw err;
+  }
+  const candidates = new Map<string, string>();
+  for (const entry of entries) {
+    if (!entry.isFile()) continue;
+    const file = path.join(entry.parentPath, entry.name);
+    const stat = await fs.stat(file).catch(() => null);
+    if (!stat || stat.mtime >= opts.olderThan) continue;
+    if (TEMP_NAME.test(entry.name)) {
+      await fs.rm(file, { force: true });
+      result.temp.push(path.relative(base, file));
+      continue;
+    }
+    const key = path.relative(base, file).split(path.sep).join('/');
+    if (KEY_PATTERN.test(key) && !key.includes('..')) candidates.set(key, file);
+  }
+  if (candidates.size) {
+    const keep = await opts.referenced([...candidates.keys()]);
+    for (const [key, file] of candidates) {
+      if (keep.has(key)) continue;
+      await fs.rm(file, { force: true });
+      result.orphans.push(key);
+    }
+  }
+  return result;
+}

@@ -5,38 +5,10 @@ import { createClient } from '../setup/test-app';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
 import { launchBrowser, screenshot } from '../setup/browser';
 import { signedInPage } from './guide-helpers';
+import { XSS_CORPUS, collectDialogs, readXssFlag, strictDomScan } from '../setup/xss';
 
-// Each payload tries to set window.__xss or open a dialog. The page runs with CSP bypassed, so the
-// sanitizer is the only thing standing between the body and the page.
-const CORPUS = [
-  '<script>window.__xss = "script"</script>',
-  '<img src="x" onerror="window.__xss = \'img-onerror\'">',
-  '<svg onload="window.__xss = \'svg-onload\'"><circle r="5"/></svg>',
-  '<svg><script>window.__xss = "svg-script"</script></svg>',
-  '<iframe src="javascript:window.top.__xss = \'iframe-js\'"></iframe>',
-  '<iframe srcdoc="<script>parent.__xss = \'srcdoc\'</script>"></iframe>',
-  '<style>@import "javascript:alert(1)"; body { background: url("javascript:window.__xss=1") }</style>',
-  '<div style="background:url(javascript:alert(\'style\'))" onmouseover="alert(\'hover\')">hover me</div>',
-  '<details open ontoggle="alert(\'details\')"><summary>x</summary></details>',
-  '<input autofocus onfocus="alert(\'focus\')">',
-  '<object data="javascript:alert(\'object\')"></object><embed src="javascript:alert(\'embed\')">',
-  '<a href="javascript:alert(\'raw-a\')">raw link</a>',
-  '<math><mi xlink:href="javascript:alert(\'math\')">m</mi></math>',
-  '<meta http-equiv="refresh" content="0;url=javascript:alert(\'meta\')">',
-  '<form action="javascript:alert(\'form\')"><button>go</button></form>',
-  '[md javascript link](javascript:alert("md-js"))',
-  '[md mixed case](JaVaScRiPt:alert("md-case"))',
-  '[md entity](jav&#x09;ascript:alert("md-entity"))',
-  '[md data link](data:text/html;base64,PHNjcmlwdD5hbGVydCgxKTwvc2NyaXB0Pg==)',
-  '[md vbscript](vbscript:msgbox("x"))',
-  '![md image js](javascript:alert("img-js"))',
-  '![md image data](data:image/svg+xml;base64,PHN2ZyBvbmxvYWQ9YWxlcnQoMSk+PC9zdmc+)',
-  '![broken](x" onerror="alert(\'attr-break\'))',
-  '<javascript:alert("autolink")>',
-  '[reference link][evil]\n\n[evil]: javascript:alert("ref")',
-  '```worked-example\ncalc: <script>window.__xss = "example"</script>\nspur: <img src=x onerror=alert(1)>\n```',
-  '<scr<script>ipt>window.__xss = "nested"</script>',
-];
+// The page runs with CSP bypassed, so the sanitizer is the only thing standing between the body and the page.
+const CORPUS = XSS_CORPUS;
 
 const BODY = `## Harmless heading\n\nOrdinary text before the corpus.\n\n${CORPUS.join('\n\n')}\n\nOrdinary text after the corpus.`;
 
@@ -71,11 +43,7 @@ afterAll(async () => {
 
 /** Loads a page with CSP bypassed, trips every event the corpus listens for, and reports what ran. */
 async function probe(page: Page, path: string, ready: string, prepare?: () => Promise<void>) {
-  const dialogs: string[] = [];
-  page.on('dialog', (d) => {
-    dialogs.push(d.message());
-    void d.dismiss();
-  });
+  const dialogs = collectDialogs(page);
   await page.goto(`${server.baseUrl}${path}`);
   await page.getByText(ready).first().waitFor();
   if (prepare) await prepare();
@@ -92,20 +60,8 @@ async function probe(page: Page, path: string, ready: string, prepare?: () => Pr
     if (href && !/^https?:/i.test(href)) await a.click({ timeout: 1000, noWaitAfter: true }).catch(() => {});
   }
   await page.waitForTimeout(300);
-  const flag = await page.evaluate(() => (window as unknown as { __xss?: string }).__xss ?? null);
-  const dom = await body.evaluate((root) => {
-    const bad: string[] = [];
-    for (const el of Array.from(root.querySelectorAll('*'))) {
-      const tag = el.tagName.toLowerCase();
-      if (['script', 'iframe', 'object', 'embed', 'style', 'form', 'input', 'meta', 'link', 'base'].includes(tag)) bad.push(`<${tag}>`);
-      for (const attr of Array.from(el.attributes)) {
-        if (/^on/i.test(attr.name)) bad.push(`${tag}[${attr.name}]`);
-        if (attr.name === 'style') bad.push(`${tag}[style]`);
-        if (['href', 'src', 'xlink:href', 'action', 'data', 'srcdoc'].includes(attr.name) && !/^(https?:|\/|#|[a-z0-9._-]+(\/|$))/i.test(attr.value.trim())) bad.push(`${tag}[${attr.name}=${attr.value.slice(0, 40)}]`);
-      }
-    }
-    return bad;
-  });
+  const flag = await readXssFlag(page);
+  const dom = await body.evaluate(strictDomScan);
   return { flag, dialogs, dom, url: page.url() };
 }
 

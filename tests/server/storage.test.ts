@@ -4,7 +4,7 @@ import path from 'node:path';
 import S3rver from 's3rver';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedParameters } from '../../server/db/seed-content';
-import { createDiskStorage, createS3Storage, newStorageKey, type Storage } from '../../server/lib/storage';
+import { createDiskStorage, createS3Storage, newStorageKey, sweepDiskStorage, type Storage } from '../../server/lib/storage';
 import { createClient, createTestApp, type TestApp } from '../setup/test-app';
 import { signedInClient } from '../factories/user';
 import { buildSetupRecord } from '../factories/setup-record';
@@ -64,6 +64,45 @@ describe('storage', () => {
     const files = fs.readdirSync(dir, { recursive: true }).map(String);
     expect(files.filter((f) => f.endsWith('.partial'))).toEqual([]);
     for (const [i, k] of keys.entries()) expect((await storage.get(k))?.toString()).toBe(`row ${i}\r\n`);
+  });
+
+  it('the start-up sweep removes old temp files and unreferenced objects, and keeps rows\' objects, fresh files and foreign names', async () => {
+    const root = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-sweep-'));
+    try {
+      const storage = createDiskStorage(root);
+      const kept = newStorageKey('setups', 'json');
+      const orphan = newStorageKey('setups', 'csv');
+      const fresh = newStorageKey('setups', 'json');
+      for (const k of [kept, orphan, fresh]) await storage.put(k, Buffer.from('{}'), 'application/json');
+      const dirOf = path.join(root, path.dirname(kept));
+      const oldTemp = path.join(dirOf, `.${path.basename(orphan)}.0123456789ab.partial`);
+      const freshTemp = path.join(dirOf, `.${path.basename(fresh)}.ba9876543210.partial`);
+      const foreign = path.join(root, 'README.txt');
+      for (const f of [oldTemp, freshTemp, foreign]) fs.writeFileSync(f, 'half');
+      const past = new Date(Date.now() - 10 * 60_000);
+      for (const f of [path.join(root, kept), path.join(root, orphan), oldTemp, foreign]) fs.utimesSync(f, past, past);
+      const asked: string[][] = [];
+      const result = await sweepDiskStorage(root, {
+        olderThan: new Date(Date.now() - 60_000),
+        referenced: async (keys) => {
+          asked.push(keys);
+          return new Set(keys.filter((k) => k === kept));
+        },
+      });
+      expect(result.temp).toEqual([path.relative(root, oldTemp)]);
+      expect(result.orphans).toEqual([orphan]);
+      // Only old objects are looked up; the fresh one may belong to a row still being written elsewhere.
+      expect(asked.flat().sort()).toEqual([kept, orphan].sort());
+      expect(fs.existsSync(oldTemp)).toBe(false);
+      expect(await storage.get(orphan)).toBeNull();
+      expect(await storage.get(kept)).not.toBeNull();
+      expect(await storage.get(fresh)).not.toBeNull();
+      expect(fs.existsSync(freshTemp)).toBe(true);
+      expect(fs.existsSync(foreign)).toBe(true);
+      expect(await sweepDiskStorage(path.join(root, 'missing'), { olderThan: new Date(), referenced: async () => new Set() })).toEqual({ temp: [], orphans: [] });
+    } finally {
+      fs.rmSync(root, { recursive: true, force: true });
+    }
   });
 
   describe('POST /api/setups with STORAGE_DRIVER=s3', () => {

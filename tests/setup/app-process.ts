@@ -21,7 +21,17 @@ const root = path.resolve(import.meta.dirname, '..', '..');
  * with the given environment on top of this process's. Resolves once GET /api/health answers.
  */
 export async function startAppProcess(env: Record<string, string>, opts: { port?: number; readyTimeoutMs?: number } = {}): Promise<AppProcess> {
-  const port = opts.port ?? (await freePort());
+  // freePort() only finds a port free for now; another test file's process can take it first. Then pick again.
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return await startOnce(env, opts.port ?? (await freePort()), opts.readyTimeoutMs);
+    } catch (err) {
+      if (opts.port !== undefined || attempt >= 3 || !/EADDRINUSE/.test((err as Error).message)) throw err;
+    }
+  }
+}
+
+async function startOnce(env: Record<string, string>, port: number, readyTimeoutMs?: number): Promise<AppProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server', 'index.ts')], {
     cwd: root,
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), ...env },
@@ -38,17 +48,19 @@ export async function startAppProcess(env: Record<string, string>, opts: { port?
   const baseUrl = `http://127.0.0.1:${port}`;
   const output = () => lines.join('\n');
 
-  const deadline = Date.now() + (opts.readyTimeoutMs ?? 30_000);
+  const deadline = Date.now() + (readyTimeoutMs ?? 30_000);
   for (;;) {
     if (child.exitCode !== null) throw new Error(`app process exited with ${child.exitCode} before it was ready:\n${output()}`);
     try {
       const res = await fetch(`${baseUrl}/api/health`, { signal: AbortSignal.timeout(2000) });
       await res.arrayBuffer();
-      break;
+      // The answer must come from this child, not from another test's app that holds the same port.
+      if (lines.some((l) => l.includes(`serving on ${baseUrl}`))) break;
+      throw new Error('not this child yet');
     } catch {
       if (Date.now() > deadline) {
         child.kill('SIGKILL');
-        throw new Error(`app process not ready within ${opts.readyTimeoutMs ?? 30_000} ms:\n${output()}`);
+        throw new Error(`app process not ready within ${readyTimeoutMs ?? 30_000} ms:\n${output()}`);
       }
       await new Promise((r) => setTimeout(r, 100));
     }
