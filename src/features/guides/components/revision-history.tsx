@@ -30,29 +30,10 @@ function ComparePicker({ slug, numbers, defaultFrom, defaultTo }: { slug: string
     e.preventDefault();
     navigate(`/guides/${slug}/compare?from=${from}&to=${to}`);
   };
-  const select = 'rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 text-sm';
   return (
     <form onSubmit={handleSubmit} className="flex flex-wrap items-end gap-2 text-sm">
-      <label className="flex flex-col gap-1">
-        <span className="font-medium">Compare version</span>
-        <select className={select} value={from} onChange={(e) => setFrom(Number(e.target.value))}>
-          {numbers.map((n) => (
-            <option key={n} value={n}>
-              {n}
-            </option>
-          ))}
-        </select>
-      </label>
-      <label className="flex flex-col gap-1">
-        <span className="font-medium">with version</span>
-        <select className={select} value={to} onChange={(e) => setTo(Number(e.target.value))}>
-          {numbers.map((n) => (
-            <option key={n} value={n}>
-              {n}
-            </option>
-          ))}
-        </select>
-      </label>
+      <VersionSelect label="Compare version" numbers={numbers} value={from} onChange={setFrom} />
+      <VersionSelect label="with version" numbers={numbers} value={to} onChange={setTo} />
       <Button type="submit" variant="secondary" size="sm" disabled={from === to}>
         Compare
       </Button>
@@ -154,5 +135,20 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
         </p>
       </Dialog>
     </div>
+  );
+}
+
+function VersionSelect({ label, numbers, value, onChange }: { label: string; numbers: number[]; value: number; onChange: (n: number) => void }) {
+  return (
+    <label className="flex flex-col gap-1">
+      <span className="font-medium">{label}</span>
+      <select className="rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 text-sm" value={value} onChange={(e) => onChange(Number(e.target.value))}>
+        {numbers.map((n) => (
+          <option key={n} value={n}>
+            {n}
+          </option>
+        ))}
+      </select>
+    </label>
   );
 }
