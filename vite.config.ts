@@ -18,6 +18,8 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     sourcemap: false,
+    // The server reads it to preload a pre-rendered page's route chunks (server/lib/html-shell.ts).
+    manifest: true,
     chunkSizeWarningLimit: 1800,
   },
   server: {

@@ -13,6 +13,8 @@ import { createLimiters } from './middleware/rate-limit';
 import { routeTable } from './routes';
 import { buildOpenApi } from './lib/openapi';
 import { renderApiDocs } from './lib/api-docs';
+import { loadShell } from './lib/html-shell';
+import { guidePageHandler } from './modules/pages/handler';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -74,10 +76,11 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
     if (fs.existsSync(path.join(distDir, 'index.html'))) {
       app.use('/assets', express.static(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
       app.use(express.static(distDir, { index: false, maxAge: '1h' }));
-      const indexHtml = fs.readFileSync(path.join(distDir, 'index.html'), 'utf8');
+      const shell = loadShell(distDir);
+      app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
       app.get('/{*splat}', (_req, res) => {
         res.setHeader('Cache-Control', 'no-cache');
-        res.type('html').send(indexHtml);
+        res.type('html').send(shell.plain);
       });
     } else {
       app.get('/{*splat}', (_req, res) => {

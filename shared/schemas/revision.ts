@@ -36,6 +36,13 @@ export const revisionSchema = z.object({
 });
 export type Revision = z.infer<typeof revisionSchema>;
 
+/** A revision as reading pages get it: with its body already rendered to sanitized HTML. */
+export const readableRevisionSchema = revisionSchema.extend({
+  /** The Markdown body as sanitized HTML; worked-example blocks are `[data-example-slot]` elements. */
+  bodyHtml: z.string(),
+});
+export type ReadableRevision = z.infer<typeof readableRevisionSchema>;
+
 /** Where a revision's document stands now (sent with a single revision so an editor can tell if its base went stale). */
 export const documentStatusSchema = z.object({
   kind: documentKindSchema,
@@ -118,7 +125,9 @@ export const reviewDetailSchema = z.object({
   /** Changed fields of the attached baseline setup record (null when neither side has one). */
   setupChanges: z.array(z.object({ path: z.string(), label: z.string(), unit: z.string(), from: z.unknown(), to: z.unknown() })).nullable(),
   /** Cautions the calculators raise on the proposal's setup record. */
-  setupWarnings: z.array(z.object({ level: z.enum(['info', 'caution', 'danger']), code: z.string(), message: z.string(), field: z.string().optional() })).nullable(),
+  setupWarnings: z
+    .array(z.object({ level: z.enum(['info', 'caution', 'danger']), code: z.string(), message: z.string(), field: z.string().optional() }))
+    .nullable(),
   own: z.boolean(),
   stale: z.boolean(),
 });
@@ -188,7 +197,11 @@ export const submitRevisionSchema = z.strictObject({
 
 /** POST /api/reviews/:revisionId/return */
 export const returnRevisionSchema = z.strictObject({
-  reason: z.string({ message: 'Give a reason, so the author knows what to change' }).trim().min(3, 'Give a reason, so the author knows what to change').max(2000),
+  reason: z
+    .string({ message: 'Give a reason, so the author knows what to change' })
+    .trim()
+    .min(3, 'Give a reason, so the author knows what to change')
+    .max(2000),
 });
 
 /** POST …/hide */
@@ -231,7 +244,11 @@ export function revisionPatchSchema(kind: DocumentKind) {
 
 /** POST …/revisions: a new draft based on the live revision; fields not sent are copied from it. */
 export function proposeEditSchema(kind: DocumentKind) {
-  return z.strictObject({ ...contentPatchShape(kind), note: noteSchema.optional(), baseRevisionId: z.uuid({ message: 'Say which live revision the edit is based on' }) });
+  return z.strictObject({
+    ...contentPatchShape(kind),
+    note: noteSchema.optional(),
+    baseRevisionId: z.uuid({ message: 'Say which live revision the edit is based on' }),
+  });
 }
 
 /** Query of GET /api/reviews. */

@@ -1,18 +1,24 @@
 import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { AppLayout } from '@/components/layout/app-layout';
-import { prefetchGuide } from '@/features/guides/api/guides';
+import { guideQueries } from '@/features/guides/api/guides';
+import { queryClient } from '@/lib/query-client';
 import { RouteError } from './routes/route-error';
 
-// Loaders run alongside the lazy page chunks: the guide request starts at once instead of after them.
+// Loaders run alongside the lazy page chunks: the guide request starts at once instead of after them
+// (and not at all when the server sent the guide with the page).
 const guideLoader = ({ params }: { params: { slug?: string } }) => {
-  if (params.slug) prefetchGuide(params.slug);
+  if (params.slug) void queryClient.prefetchQuery(guideQueries.detail(params.slug));
   return null;
 };
 
 /** Every page is its own chunk, so readers never download editor, diff or admin code. */
 export const router = createBrowserRouter([
   // The printable setup sheet has no site chrome at all.
-  { path: 'guides/:slug/setup/print', errorElement: <RouteError />, lazy: () => import('./routes/guide-setup-print').then((m) => ({ Component: m.GuideSetupPrintPage })) },
+  {
+    path: 'guides/:slug/setup/print',
+    errorElement: <RouteError />,
+    lazy: () => import('./routes/guide-setup-print').then((m) => ({ Component: m.GuideSetupPrintPage })),
+  },
   {
     element: <AppLayout />,
     errorElement: <RouteError />,

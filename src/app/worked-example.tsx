@@ -1,10 +1,31 @@
-import type { ReactNode } from 'react';
-import { WorkedExampleCard } from '@/features/calculators/components/worked-example-card';
+import { lazy, Suspense, type ReactNode } from 'react';
+import { WhenNear } from '@/components/ui/when-near';
+
+const WorkedExampleCard = lazy(() => import('@/features/calculators/components/worked-example-card').then((m) => ({ default: m.WorkedExampleCard })));
+
+/** Holds the card's place (roughly its height) until the calculator code has loaded. */
+function CardPlaceholder() {
+  return (
+    <div className="not-prose my-6 min-h-72 rounded-lg border border-copper/35 bg-paper-card font-sans" aria-hidden="true" data-example-placeholder>
+      <div className="rounded-t-lg border-b border-copper/25 bg-copper-wash/60 px-4 py-2 text-[0.7rem] font-semibold tracking-[0.14em] text-copper-dark uppercase">
+        Worked example
+      </div>
+      <p className="px-4 py-3 text-sm text-ink-soft">Loading the live calculator…</p>
+    </div>
+  );
+}
 
 /**
  * How guide pages, parameter pages and the editor preview render ```worked-example blocks: the live
- * calculator card. One place, so the reader and the author see the same thing.
+ * calculator card, loaded when it comes near the viewport. One place, so the reader and the author
+ * see the same thing.
  */
 export function renderWorkedExample(body: string, index: number): ReactNode {
-  return <WorkedExampleCard key={index} body={body} />;
+  return (
+    <WhenNear key={index} placeholder={<CardPlaceholder />}>
+      <Suspense fallback={<CardPlaceholder />}>
+        <WorkedExampleCard body={body} />
+      </Suspense>
+    </WhenNear>
+  );
 }

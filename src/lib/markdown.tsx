@@ -1,29 +1,17 @@
 import { Children, isValidElement, type ReactElement, type ReactNode } from 'react';
 import ReactMarkdown, { type Components } from 'react-markdown';
 import remarkGfm from 'remark-gfm';
-import rehypeSanitize, { defaultSchema } from 'rehype-sanitize';
+import rehypeSanitize from 'rehype-sanitize';
+import { isExternalHref, safeHref, sanitizeSchema, WORKED_EXAMPLE_LANGUAGE } from '@shared/markdown/safety';
 
-// GitHub's sanitizing schema, narrowed: links only http(s) and relative, images only relative or http(s),
-// no raw HTML ever reaches the page (react-markdown does not parse it, and the schema strips what remains).
-const schema = {
-  ...defaultSchema,
-  protocols: { ...defaultSchema.protocols, href: ['http', 'https'], src: ['http', 'https'] },
-};
-
-export const rehypePlugins = [[rehypeSanitize, schema]] as const;
+// No raw HTML ever reaches the page: react-markdown does not parse it, and the shared schema strips what remains.
+export const rehypePlugins = [[rehypeSanitize, sanitizeSchema]] as const;
 
 function codeText(node: ReactNode): string {
   if (typeof node === 'string') return node;
   if (Array.isArray(node)) return node.map(codeText).join('');
   if (isValidElement(node)) return codeText((node as ReactElement<{ children?: ReactNode }>).props.children);
   return '';
-}
-
-function safeHref(href: string | undefined) {
-  if (!href) return undefined;
-  if (/^(https?:)?\/\//i.test(href)) return /^https?:\/\//i.test(href) ? href : undefined;
-  if (/^[a-z][a-z0-9+.-]*:/i.test(href)) return undefined; // any other scheme (javascript:, data:, vbscript:) is dropped
-  return href;
 }
 
 export type MarkdownProps = {
@@ -43,7 +31,7 @@ export function Markdown({ children, renderWorkedExample, resolveHref, className
       const only = Children.toArray(preChildren)[0];
       if (renderWorkedExample && isValidElement(only)) {
         const props = (only as ReactElement<{ className?: string; children?: ReactNode }>).props;
-        if (props.className?.split(/\s+/).includes('language-worked-example')) {
+        if (props.className?.split(/\s+/).includes(`language-${WORKED_EXAMPLE_LANGUAGE}`)) {
           return <>{renderWorkedExample(codeText(props.children), exampleIndex++)}</>;
         }
       }
@@ -52,7 +40,7 @@ export function Markdown({ children, renderWorkedExample, resolveHref, className
     a({ href, children: linkChildren }) {
       const safe = safeHref(href);
       if (!safe) return <span>{linkChildren}</span>;
-      const external = /^https?:\/\//i.test(safe);
+      const external = isExternalHref(safe);
       const target = !external && resolveHref ? resolveHref(safe) : safe;
       return external ? (
         <a href={target} rel="noopener noreferrer nofollow" target="_blank">

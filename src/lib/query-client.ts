@@ -1,6 +1,7 @@
 import { QueryClient } from '@tanstack/react-query';
 import { ApiError } from './api-client';
 
+/** A query client with the app's defaults (the server's page pre-render makes its own per request). */
 export function createQueryClient() {
   return new QueryClient({
     defaultOptions: {
@@ -13,3 +14,6 @@ export function createQueryClient() {
     },
   });
 }
+
+/** The browser's one query client: route loaders and components share it. */
+export const queryClient = createQueryClient();

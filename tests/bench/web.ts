@@ -15,7 +15,10 @@ const RUNS = Number(process.env.BENCH_RUNS ?? 5);
 const root = path.resolve(import.meta.dirname, '..', '..');
 
 function buildClient() {
-  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], {
+    cwd: root,
+    stdio: 'inherit',
+  });
   if (r.status !== 0) throw new Error('vite build failed');
 }
 
@@ -52,11 +55,21 @@ async function main() {
       const cdp = await context.newCDPSession(page);
       await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 });
       await page.addInitScript(() => {
-        const w = window as unknown as { __lcp: number };
+        const w = window as unknown as { __lcp: number; __lcpLog: string[] };
         w.__lcp = 0;
+        w.__lcpLog = [];
         new PerformanceObserver((list) => {
-          for (const e of list.getEntries()) w.__lcp = e.startTime;
+          for (const e of list.getEntries()) {
+            w.__lcp = e.startTime;
+            const el = (e as PerformanceEntry & { element?: Element; size?: number }).element;
+            w.__lcpLog.push(
+              `${Math.round(e.startTime)} ms ${el ? el.tagName.toLowerCase() + (el.id ? '#' + el.id : '') : '?'} size ${(e as unknown as { size: number }).size}`,
+            );
+          }
         }).observe({ type: 'largest-contentful-paint', buffered: true });
+        new PerformanceObserver((list) => {
+          for (const e of list.getEntries()) w.__lcpLog.push(`${Math.round(e.startTime)} ms ${e.name}`);
+        }).observe({ type: 'paint', buffered: true });
       });
       const seen: Array<Promise<{ url: string; kb: number }>> = [];
       page.on('response', (res) => {
@@ -67,7 +80,24 @@ async function main() {
       // LCP is final once the page is idle; a short settle lets the last candidate be reported.
       await page.waitForTimeout(300);
       lcps.push(await page.evaluate(() => (window as unknown as { __lcp: number }).__lcp));
-      if (process.env.BENCH_TRACE && run === 0) console.log(await page.evaluate(() => performance.getEntriesByType('resource').map((e) => `${Math.round(e.startTime)}-${Math.round((e as PerformanceResourceTiming).responseEnd)} ${e.name.replace(location.origin, '')}`).join('\n')));
+      if (process.env.BENCH_TRACE && run === 0)
+        console.log(
+          await page.evaluate(() =>
+            performance
+              .getEntriesByType('resource')
+              .map((e) => `${Math.round(e.startTime)}-${Math.round((e as PerformanceResourceTiming).responseEnd)} ${e.name.replace(location.origin, '')}`)
+              .join('\n'),
+          ),
+        );
+      if (process.env.BENCH_TRACE)
+        console.log(
+          await page.evaluate(() => {
+            const n = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming;
+            return `nav: request ${Math.round(n.requestStart)} responseStart ${Math.round(n.responseStart)} responseEnd ${Math.round(n.responseEnd)} domInteractive ${Math.round(n.domInteractive)} domContentLoaded ${Math.round(n.domContentLoadedEventEnd)}`;
+          }),
+        );
+      if (process.env.BENCH_TRACE)
+        console.log(`run ${run + 1}:`, (await page.evaluate(() => (window as unknown as { __lcpLog: string[] }).__lcpLog)).join(' | '));
       if (run === 0) scripts = await Promise.all(seen);
       await context.close();
     }
@@ -76,8 +106,12 @@ async function main() {
     const lcpS = median(lcps) / 1000;
     console.log(`\n[bench:web] guide page ${url.replace(server.baseUrl, '')}`);
     for (const s of [...scripts].sort((a, b) => b.kb - a.kb)) console.log(`  ${s.kb.toFixed(1).padStart(7)} KB  ${s.url}`);
-    console.log(`  JavaScript loaded (gzip): ${totalKb.toFixed(1)} KB in ${scripts.length} files   target ≤ ${TARGET_JS_KB} KB   ${totalKb <= TARGET_JS_KB ? 'OK' : 'OVER'}`);
-    console.log(`  LCP, 4× CPU throttling, median of ${RUNS}: ${lcpS.toFixed(2)} s (runs: ${lcps.map((l) => (l / 1000).toFixed(2)).join(', ')})   target ≤ ${TARGET_LCP_S.toFixed(1)} s   ${lcpS <= TARGET_LCP_S ? 'OK' : 'OVER'}`);
+    console.log(
+      `  JavaScript loaded (gzip): ${totalKb.toFixed(1)} KB in ${scripts.length} files   target ≤ ${TARGET_JS_KB} KB   ${totalKb <= TARGET_JS_KB ? 'OK' : 'OVER'}`,
+    );
+    console.log(
+      `  LCP, 4× CPU throttling, median of ${RUNS}: ${lcpS.toFixed(2)} s (runs: ${lcps.map((l) => (l / 1000).toFixed(2)).join(', ')})   target ≤ ${TARGET_LCP_S.toFixed(1)} s   ${lcpS <= TARGET_LCP_S ? 'OK' : 'OVER'}`,
+    );
     if (process.argv.includes('--strict') && (totalKb > TARGET_JS_KB || lcpS > TARGET_LCP_S)) process.exitCode = 1;
   } finally {
     for (const c of cleanup) await c();

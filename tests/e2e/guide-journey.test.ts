@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
+import { launchBrowser, revealWorkedExamples, screenshot, watchPageErrors } from '../setup/browser';
 import { signedInPage, waitSaved } from './guide-helpers';
 
 let server: E2EServer;
@@ -89,6 +89,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await visitor.getByRole('heading', { name: TITLE, level: 1 }).waitFor();
     await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 1, published on .+ by Rosa Kittering/);
     await visitor.getByText('Start with a light drag brake').waitFor();
+    await revealWorkedExamples(visitor);
     await visitor.locator('[aria-label^="Worked example"]').first().waitFor();
     const slug = new URL(visitor.url()).pathname.split('/')[2];
 

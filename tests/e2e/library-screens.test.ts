@@ -1,6 +1,6 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, screenshotPath, VIEWPORTS } from '../setup/browser';
+import { launchBrowser, revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
 import { start, type E2EServer } from '../setup/e2e-server';
 
 let server: E2EServer;
@@ -40,6 +40,8 @@ describe('library and calculator pages at desktop, phone and 200 % zoom widths',
         const errors: string[] = [];
         page.on('pageerror', (e) => errors.push(e.message));
         await page.goto(`${server.baseUrl}${p.path}`);
+        await revealWorkedExamples(page);
+        await page.evaluate(() => window.scrollTo(0, 0));
         await page.locator(p.ready).first().waitFor();
         const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
         await page.screenshot({ path: screenshotPath(`${p.name}-${size}`), fullPage: true });

@@ -1,6 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, screenshotPath, VIEWPORTS } from '../setup/browser';
+import { launchBrowser, revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
 import { start, type E2EServer } from '../setup/e2e-server';
 
 let server: E2EServer;
@@ -21,6 +21,7 @@ async function openPage(path: string, viewport: { width: number; height: number 
   const requests: string[] = [];
   page.on('request', (r) => requests.push(r.url()));
   await page.goto(`${server.baseUrl}${path}`);
+  await revealWorkedExamples(page);
   return { page, errors, requests };
 }
 

@@ -52,3 +52,22 @@ export function watchPageErrors(page: Page) {
   });
   return errors;
 }
+
+/**
+ * Worked-example cards load only as they near the viewport: scrolls each placeholder into view until
+ * every card on the page is live (or fails after `timeout`).
+ */
+export async function revealWorkedExamples(page: Page, timeout = 30_000) {
+  const deadline = Date.now() + timeout;
+  // Placeholders are drawn with the page's content, so once its heading is there they are too.
+  await page.locator('main h1').first().waitFor({ timeout });
+  // A page the server drew shows the blocks' source text until the app has started and taken them over.
+  await page.waitForFunction(() => !document.querySelector('[data-example-slot] > pre'), undefined, { timeout });
+  while (Date.now() < deadline) {
+    const handle = await page.$('[data-example-placeholder]');
+    if (!handle) return;
+    await handle.scrollIntoViewIfNeeded().catch(() => {}); // it may have been replaced already
+    await page.waitForFunction((el) => !el.isConnected, handle, { timeout: Math.max(1, deadline - Date.now()) }).catch(() => {});
+  }
+  throw new Error('worked-example cards did not load');
+}

@@ -2,9 +2,9 @@ import { z } from 'zod';
 import { CLASSES, SURFACES } from '../../../shared/constants';
 import { slugSchema } from '../../../shared/schemas/common';
 import { createGuideSchema, guideListQuerySchema, guideRecordSchema, guideSummarySchema, taxonomySchema } from '../../../shared/schemas/guide';
-import { revisionSchema } from '../../../shared/schemas/revision';
+import { readableRevisionSchema, revisionSchema } from '../../../shared/schemas/revision';
 import { defineRoute } from '../../lib/route';
-import { presentGuideRecord, presentGuideSummary, presentRevision } from '../revisions/presenter';
+import { presentGuideRecord, presentGuideSummary, presentReadableRevision, presentRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
 import { isModerator } from '../revisions/policy';
 
@@ -16,7 +16,9 @@ export const guideRoutes = [
     tags: ['guides'],
     access: 'public',
     response: taxonomySchema,
-    handler: () => ({ data: { classes: CLASSES.map((c) => ({ slug: c.slug, name: c.name })), surfaces: SURFACES.map((s) => ({ slug: s.slug, name: s.name })) } }),
+    handler: () => ({
+      data: { classes: CLASSES.map((c) => ({ slug: c.slug, name: c.name })), surfaces: SURFACES.map((s) => ({ slug: s.slug, name: s.name })) },
+    }),
   }),
   defineRoute({
     method: 'get',
@@ -52,11 +54,11 @@ export const guideRoutes = [
     tags: ['guides'],
     access: 'public',
     params: z.object({ slug: slugSchema }),
-    response: z.object({ guide: guideRecordSchema, revision: revisionSchema }),
+    response: z.object({ guide: guideRecordSchema, revision: readableRevisionSchema }),
     handler: async ({ params, user, ctx }) => ({
       data: await revisionService(ctx).readLive(user, 'guide', params.slug, 'guide-detail', (v) => ({
         guide: presentGuideRecord(v, { withHiddenReason: isModerator(user) }),
-        revision: presentRevision(v),
+        revision: presentReadableRevision(v),
       })),
     }),
   }),

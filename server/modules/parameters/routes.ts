@@ -1,10 +1,16 @@
 import { z } from 'zod';
 import { slugParam } from '../../../shared/schemas/common';
 import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySchema } from '../../../shared/schemas/parameter';
+import type { AppContext } from '../../context';
 import { defineRoute } from '../../lib/route';
 import { presentLiveRevision, presentParameterDetail, presentParameterSummary } from './presenter';
 import { parametersService } from './service';
 import { publishedCache } from '../revisions/read-cache';
+
+/** The library list as readers get it (cached until any document changes). */
+export async function liveParameterSummaries(ctx: AppContext) {
+  return (await publishedCache(ctx).readAcross('parameter-library', async () => (await parametersService(ctx).listLive()).map(presentParameterSummary))) ?? [];
+}
 
 export const parameterRoutes = [
   defineRoute({
@@ -14,9 +20,7 @@ export const parameterRoutes = [
     tags: ['parameters'],
     access: 'public',
     response: z.array(parameterSummarySchema),
-    handler: async ({ ctx }) => ({
-      data: await publishedCache(ctx).readAcross('parameter-library', async () => (await parametersService(ctx).listLive()).map(presentParameterSummary)),
-    }),
+    handler: async ({ ctx }) => ({ data: await liveParameterSummaries(ctx) }),
   }),
   defineRoute({
     method: 'get',

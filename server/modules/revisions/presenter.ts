@@ -1,5 +1,7 @@
 import type { GuideRecord, GuideSummary } from '../../../shared/schemas/guide';
-import type { DocumentStatus, MyRevision, Person, ReviewItem, Revision, RevisionHistoryItem } from '../../../shared/schemas/revision';
+import type { DocumentStatus, MyRevision, Person, ReadableRevision, ReviewItem, Revision, RevisionHistoryItem } from '../../../shared/schemas/revision';
+import { resolveParameterHref } from '../../../shared/markdown/links';
+import { renderMarkdownHtml } from '../../lib/markdown-html';
 import type { DocumentEntity } from './document.entity';
 import type { RevisionEntity } from './revision.entity';
 
@@ -134,4 +136,27 @@ export function presentGuideRecord(v: RevisionView, opts: { withHiddenReason?: b
     hidden: v.doc.hiddenAt !== null,
     ...(opts.withHiddenReason && v.doc.hiddenAt ? { hiddenReason: v.doc.hiddenReason } : {}),
   };
+}
+
+const RENDERED_MAX = 2000;
+// Rendered bodies by revision id and last change: published and superseded revisions never change,
+// so each is rendered once per process; a draft re-renders only after it was edited.
+const rendered = new Map<string, string>();
+
+/** The revision's body as the sanitized HTML reading pages show (cached per revision version). */
+export function renderedBody(v: RevisionView): string {
+  const key = `${v.rev.id}:${v.rev.updatedAt.getTime()}`;
+  let html = rendered.get(key);
+  if (html === undefined) {
+    const body = String((v.rev.content as { body?: unknown }).body ?? '');
+    html = renderMarkdownHtml(body, v.doc.kind === 'parameter' ? { resolveHref: resolveParameterHref } : {});
+    if (rendered.size >= RENDERED_MAX) rendered.delete(rendered.keys().next().value as string);
+    rendered.set(key, html);
+  }
+  return html;
+}
+
+/** A revision for a reading page: presented, plus its rendered body. */
+export function presentReadableRevision(v: RevisionView): ReadableRevision {
+  return { ...presentRevision(v), bodyHtml: renderedBody(v) };
 }

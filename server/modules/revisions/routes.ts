@@ -10,6 +10,7 @@ import {
   myRevisionSchema,
   proposeEditSchema,
   rebaseResultSchema,
+  readableRevisionSchema,
   restoreRevisionSchema,
   returnRevisionSchema,
   reviewDetailSchema,
@@ -21,7 +22,7 @@ import {
   unhideDocumentSchema,
 } from '../../../shared/schemas/revision';
 import { defineRoute, type RouteDef } from '../../lib/route';
-import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentReviewItem, presentRevision } from './presenter';
+import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentReadableRevision, presentReviewItem, presentRevision } from './presenter';
 import { revisionService } from './service';
 
 const revisionIdParam = z.object({ id: z.uuid({ message: 'Must be a revision id' }) });
@@ -57,8 +58,10 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       tags: [tag, 'revisions'],
       access: 'public',
       params: slugAndNumber,
-      response: revisionEnvelope,
-      handler: async ({ params, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).byNumber(user, kind, params.slug, params.n)) } }),
+      response: z.object({ revision: readableRevisionSchema }),
+      handler: async ({ params, user, ctx }) => ({
+        data: { revision: presentReadableRevision(await revisionService(ctx).byNumber(user, kind, params.slug, params.n)) },
+      }),
     }),
     defineRoute({
       method: 'get',
@@ -84,7 +87,9 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       body: proposeEditSchema(kind),
       status: 201,
       response: revisionEnvelope,
-      handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).createDraft(user!, kind, params.slug, body)) } }),
+      handler: async ({ params, body, user, ctx }) => ({
+        data: { revision: presentRevision(await revisionService(ctx).createDraft(user!, kind, params.slug, body)) },
+      }),
     }),
     defineRoute({
       method: 'post',
@@ -96,7 +101,9 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       body: restoreRevisionSchema,
       status: 201,
       response: revisionEnvelope,
-      handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).restore(user!, kind, params.slug, body.number, body.note)) } }),
+      handler: async ({ params, body, user, ctx }) => ({
+        data: { revision: presentRevision(await revisionService(ctx).restore(user!, kind, params.slug, body.number, body.note)) },
+      }),
     }),
     ...([true, false] as const).map((hide) =>
       defineRoute({
@@ -254,6 +261,8 @@ export const revisionRoutes: RouteDef[] = [
     params: reviewIdParam,
     body: returnRevisionSchema,
     response: revisionEnvelope,
-    handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).returnRevision(user!, params.revisionId, body.reason)) } }),
+    handler: async ({ params, body, user, ctx }) => ({
+      data: { revision: presentRevision(await revisionService(ctx).returnRevision(user!, params.revisionId, body.reason)) },
+    }),
   }),
 ];

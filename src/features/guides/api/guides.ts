@@ -10,15 +10,31 @@ export type TaxonomyEntry = { slug: string; name: string };
 export type Taxonomy = { classes: TaxonomyEntry[]; surfaces: TaxonomyEntry[] };
 
 /** A row of the guides list (published guides only). */
-export type GuideSummary = { slug: string; title: string; summary: string; class: string; surface: string; conditions?: string; tags?: string[]; parameters?: string[]; version: number; publishedAt: string | null; author: { id: string; displayName: string } };
+export type GuideSummary = {
+  slug: string;
+  title: string;
+  summary: string;
+  class: string;
+  surface: string;
+  conditions?: string;
+  tags?: string[];
+  parameters?: string[];
+  version: number;
+  publishedAt: string | null;
+  author: { id: string; displayName: string };
+};
 
 /** A guide as its page shows it; `hidden` is set when a moderator hid it. */
 export type GuideRecord = GuideSummary & { publishedRevisionId: string; hidden: boolean; hiddenReason?: string | null };
 
 export type GuideRevision = Omit<Revision, 'content'> & { content: GuideContent; baseNumber?: number | null };
+/** What the reading endpoints send: the body also rendered and sanitized by the server. */
+export type ReadableGuideRevision = GuideRevision & { bodyHtml: string };
 
 /** One row of a guide's history (no content). */
-export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 'note' | 'restoredFromNumber' | 'createdAt' | 'submittedAt' | 'publishedAt'> & { baseNumber: number | null };
+export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 'note' | 'restoredFromNumber' | 'createdAt' | 'submittedAt' | 'publishedAt'> & {
+  baseNumber: number | null;
+};
 
 /** What the comparison of two revisions returns. */
 export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[] };
@@ -27,21 +43,8 @@ export type GuideFilters = { class?: string; surface?: string; parameter?: strin
 
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
 
-type GuideDetail = { guide: GuideRecord; revision: GuideRevision };
-const fetchDetail = async (slug: string) => (await api.get<Envelope<GuideDetail>>(`/api/guides/${encodeURIComponent(slug)}`)).data;
-const early = new Map<string, Promise<GuideDetail>>();
-
-/**
- * Starts loading a guide while its page code is still downloading (the route loader calls it), so the
- * request does not wait for the chunks; the detail query picks the answer up once.
- */
-export function prefetchGuide(slug: string) {
-  if (!early.has(slug)) {
-    const p = fetchDetail(slug);
-    p.catch(() => early.delete(slug)); // a failure is retried by the query itself
-    early.set(slug, p);
-  }
-}
+/** The guide page's main read: the guide record and its live revision. */
+export type GuideDetail = { guide: GuideRecord; revision: ReadableGuideRevision };
 
 /** Query-option factories for guides (keys general → specific). */
 export const guideQueries = {
@@ -56,11 +59,7 @@ export const guideQueries = {
   detail: (slug: string) =>
     queryOptions({
       queryKey: [...guideQueries.all(), 'detail', slug] as const,
-      queryFn: () => {
-        const pending = early.get(slug);
-        early.delete(slug);
-        return pending ?? fetchDetail(slug);
-      },
+      queryFn: async () => (await api.get<Envelope<GuideDetail>>(`/api/guides/${encodeURIComponent(slug)}`)).data,
     }),
   revisions: (slug: string) =>
     queryOptions({
@@ -70,8 +69,8 @@ export const guideQueries = {
   revision: (slug: string, number: number) =>
     queryOptions({
       queryKey: [...guideQueries.all(), 'detail', slug, 'revisions', number] as const,
-      queryFn: async () => (await api.get<Envelope<{ guide?: GuideRecord; revision: GuideRevision } | GuideRevision>>(`/api/guides/${encodeURIComponent(slug)}/revisions/${number}`)).data,
-      select: (data) => ('revision' in data && data.revision && typeof data.revision === 'object' ? data.revision : (data as GuideRevision)),
+      queryFn: async () => (await api.get<Envelope<{ revision: ReadableGuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/revisions/${number}`)).data,
+      select: (data) => data.revision,
     }),
   compare: (slug: string, from: number, to: number) =>
     queryOptions({
@@ -102,7 +101,8 @@ export function taxonomyName(list: TaxonomyEntry[] | undefined, slug: string) {
 export function useRestoreRevision(slug: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (number: number) => (await api.post<Envelope<{ revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/restore`, { number })).data,
+    mutationFn: async (number: number) =>
+      (await api.post<Envelope<{ revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/restore`, { number })).data,
     onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
   });
 }

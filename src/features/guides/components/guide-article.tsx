@@ -1,14 +1,14 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { REVISION_STATE_LABELS } from '@shared/constants';
-import { Markdown } from '@/lib/markdown';
+import { RenderedMarkdown } from '@/lib/rendered-html';
 import { Notice } from '@/components/ui/notice';
-import type { GuideRevision } from '../api/guides';
+import type { ReadableGuideRevision } from '../api/guides';
 import { formatDate } from '../lib/format';
 import { GuideMeta } from './guide-meta';
 
 type Props = {
-  revision: GuideRevision;
+  revision: ReadableGuideRevision;
   /** The live revision's number, to tell readers of a permalink whether they are on the live version. */
   liveNumber?: number | null;
   renderWorkedExample?: (body: string, index: number) => ReactNode;
@@ -40,7 +40,8 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
               </>
             ) : (
               <>
-                Version {revision.number} ({REVISION_STATE_LABELS[revision.state]}), {date} by <span className="font-medium text-ink">{revision.author.displayName}</span>
+                Version {revision.number} ({REVISION_STATE_LABELS[revision.state]}), {date} by{' '}
+                <span className="font-medium text-ink">{revision.author.displayName}</span>
               </>
             )}
           </p>
@@ -48,12 +49,13 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
         </div>
         {!isLive && liveNumber != null && (
           <Notice tone="caution" title={`You are reading version ${revision.number}, not the live guide`}>
-            It was {REVISION_STATE_LABELS[revision.state].toLowerCase()} when this page was built. <Link to={`/guides/${revision.slug}`}>Read the live version {liveNumber}</Link> or{' '}
+            It was {REVISION_STATE_LABELS[revision.state].toLowerCase()} when this page was built.{' '}
+            <Link to={`/guides/${revision.slug}`}>Read the live version {liveNumber}</Link> or{' '}
             <Link to={`/guides/${revision.slug}/compare?from=${revision.number}&to=${liveNumber}`}>see what changed since</Link>.
           </Notice>
         )}
       </header>
-      <Markdown renderWorkedExample={renderWorkedExample}>{c.body}</Markdown>
+      <RenderedMarkdown html={revision.bodyHtml} renderWorkedExample={renderWorkedExample} />
     </article>
   );
 }

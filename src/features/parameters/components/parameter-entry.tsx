@@ -3,6 +3,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { CLASSES, SURFACES } from '@shared/constants';
 import { Card, Chip } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { resolveParameterHref } from '@shared/markdown/links';
 import { Markdown } from '@/lib/markdown';
 import type { ParameterPageData } from '../api/parameters';
 import { CATEGORY_INFO, formatRange, formatStep, isChoice, splitAliases, unitName } from './parameter-format';
@@ -16,12 +17,6 @@ export function splitCautions(body: string): { main: string; cautions: string | 
   const cautions = (next ? after.slice(0, next.index) : after).trim();
   const main = body.slice(0, heading.index) + (next ? after.slice(next.index) : '');
   return { main: main.trim() + '\n', cautions: cautions || null };
-}
-
-/** A bare slug link (`[drag brake](drag-brake)`) is another entry. */
-export function resolveParameterHref(href: string): string {
-  if (/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(href)) return `/parameters/${href}`;
-  return href;
 }
 
 const CLASS_NAMES = new Map<string, string>(CLASSES.map((c) => [c.slug, c.name]));
@@ -175,8 +170,8 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
           )}
           <p className="border-t border-paper-line pt-3 text-xs leading-5 text-ink-muted">
             Live version {revision.number}
-            {revision.publishedAt && <> · published {dateFmt.format(new Date(revision.publishedAt))}</>} · by {revision.author.displayName}. Every
-            change to this entry is reviewed by a moderator before it goes live.
+            {revision.publishedAt && <> · published {dateFmt.format(new Date(revision.publishedAt))}</>} · by {revision.author.displayName}. Every change to
+            this entry is reviewed by a moderator before it goes live.
           </p>
         </aside>
       </div>
