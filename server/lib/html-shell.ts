@@ -1,6 +1,9 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
+/** The built index.html, ready to fill. */
+export type Shell = { plain: string; render(parts: ShellParts): string };
+
 type ManifestChunk = { file: string; imports?: string[]; css?: string[] };
 
 export type ShellParts = {
@@ -34,7 +37,7 @@ export const jsonForScript = (value: unknown) =>
  * The built index.html as a template: the page title and description, preload hints for a route's
  * chunks (from Vite's manifest) and, for a page drawn on the server, its markup and data.
  */
-export function loadShell(distDir: string) {
+export function loadShell(distDir: string): Shell {
   const template = fs.readFileSync(path.join(distDir, 'index.html'), 'utf8');
   const manifestPath = path.join(distDir, '.vite', 'manifest.json');
   const manifest: Record<string, ManifestChunk> = fs.existsSync(manifestPath) ? JSON.parse(fs.readFileSync(manifestPath, 'utf8')) : {};

@@ -3,24 +3,22 @@ import { renderToString } from 'react-dom/server';
 import { Route, Routes, StaticRouter } from 'react-router-dom';
 import type { User } from '../../../shared/schemas/user';
 import type { GuideDetail, ReadableGuideRevision } from '../../../src/features/guides/api/guides';
-import { seedInitialData, type InitialData } from '../../../src/app/initial-data';
+import { INITIAL_DATA_ID, seedInitialData, type InitialData } from '../../../src/app/initial-data';
 import '../../../src/app/nav-extras-setup';
 import { GuidePage } from '../../../src/app/routes/guide';
 import { AppLayout } from '../../../src/components/layout/app-layout';
 import { createQueryClient } from '../../../src/lib/query-client';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
+import type { Shell } from '../../lib/html-shell';
 import { liveParameterSummaries } from '../parameters/routes';
 import { isModerator } from '../revisions/policy';
 import { presentGuideRecord, presentReadableRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
 
-/** A guide page drawn on the server: the app's own components, fed the reads the browser would make. */
-export type PrerenderedPage = { status: number; appHtml: string; data: InitialData; title: string; description: string };
-
 const CACHE_MAX = 500;
-// Visitors all get the same page for a live guide, so its drawing is kept until the guide changes.
-const anonymous = new Map<string, { at: object; appHtml: string }>();
+// Visitors all get the same page for a live guide, so it is kept until the guide (or the library) changes.
+const anonymous = new Map<string, { detail: object; parameters: object; html: string }>();
 
 function draw(url: string, data: InitialData): string {
   const qc = createQueryClient();
@@ -41,16 +39,18 @@ function draw(url: string, data: InitialData): string {
 
 /**
  * The guide page (/guides/:slug or its permalink /guides/:slug/v/:n) as the browser's first render
- * will draw it, or null when there is no such guide or version for this reader (the browser then
- * shows its own "not found").
+ * will draw it — the app's own components fed the reads the browser would make, in the built shell
+ * with those reads as data — or null when there is no such guide or version for this reader (the
+ * browser then shows its own "not found").
  */
-export async function prerenderGuidePage(
+export async function guidePageHtml(
   ctx: AppContext,
+  shell: Shell,
   user: User | null,
   slug: string,
   number: number | null,
   url: string,
-): Promise<PrerenderedPage | null> {
+): Promise<string | null> {
   const revisions = revisionService(ctx);
   let detail: GuideDetail;
   let version: { number: number; revision: ReadableGuideRevision } | undefined;
@@ -68,17 +68,22 @@ export async function prerenderGuidePage(
   const data: InitialData = { me: user, guide: { slug, detail, version, parameters: await liveParameterSummaries(ctx) } };
   const shown = version?.revision ?? detail.revision;
 
-  let appHtml: string;
+  const parameters = data.guide.parameters;
   const cacheable = user === null && number == null && !url.includes('?');
   const cached = cacheable ? anonymous.get(url) : undefined;
-  // `detail` is the cache's own object while the guide is unchanged, so identity says "still current".
-  if (cached && cached.at === detail) appHtml = cached.appHtml;
-  else {
-    appHtml = draw(url, data);
-    if (cacheable) {
-      if (anonymous.size >= CACHE_MAX) anonymous.delete(anonymous.keys().next().value as string);
-      anonymous.set(url, { at: detail, appHtml });
-    }
+  // Both reads are the read cache's own objects while nothing changed, so identity says "still current".
+  if (cached && cached.detail === detail && cached.parameters === parameters) return cached.html;
+  const html = shell.render({
+    appHtml: draw(url, data),
+    data,
+    dataId: INITIAL_DATA_ID,
+    title: shown.content.title,
+    description: shown.content.summary,
+    preload: ['src/app/routes/guide.tsx'],
+  });
+  if (cacheable) {
+    if (anonymous.size >= CACHE_MAX) anonymous.delete(anonymous.keys().next().value as string);
+    anonymous.set(url, { detail, parameters, html });
   }
-  return { status: 200, appHtml, data, title: shown.content.title, description: shown.content.summary };
+  return html;
 }
