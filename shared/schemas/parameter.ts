@@ -45,6 +45,10 @@ export type ParameterGuideRef = z.infer<typeof parameterGuideRefSchema>;
 /** A parameter entry as its page shows it: the summary fields, the body and what it links to. */
 export const parameterDetailSchema = parameterSummarySchema.extend({
   body: z.string(),
+  /** The body without its "## Cautions" section, as sanitized HTML (worked examples are `[data-example-slot]` elements). */
+  bodyHtml: z.string(),
+  /** The "## Cautions" section as sanitized HTML, shown in its own box; null when the entry has none. */
+  cautionsHtml: z.string().nullable(),
   related: z.array(z.string()),
   /** The related entries that are live, with their names, in the order the entry lists them. */
   relatedParameters: z.array(z.object({ slug: z.string(), name: z.string(), summary: z.string() })),

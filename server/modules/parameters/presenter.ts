@@ -1,3 +1,6 @@
+import { splitCautions } from '../../../shared/markdown/cautions';
+import { resolveParameterHref } from '../../../shared/markdown/links';
+import { renderMarkdownHtml } from '../../lib/markdown-html';
 import type { ParameterDetail, ParameterGuideRef, ParameterLiveRevision, ParameterSummary } from '../../../shared/schemas/parameter';
 import type { LiveParameter } from './service';
 
@@ -19,9 +22,12 @@ export function presentParameterDetail(
   relatedParameters: ParameterDetail['relatedParameters'],
   guides: ParameterGuideRef[],
 ): ParameterDetail {
+  const { main, cautions } = splitCautions(p.content.body);
   return {
     ...presentParameterSummary(p),
     body: p.content.body,
+    bodyHtml: renderMarkdownHtml(main, { resolveHref: resolveParameterHref }),
+    cautionsHtml: cautions === null ? null : renderMarkdownHtml(cautions, { resolveHref: resolveParameterHref }),
     related: p.content.related,
     relatedParameters,
     calculator: p.content.calculator,

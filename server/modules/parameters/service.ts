@@ -54,8 +54,7 @@ export function parametersService(ctx: AppContext) {
         .map(toLive)
         .sort(
           (a, b) =>
-            categoryRank(a.content.category) - categoryRank(b.content.category) ||
-            a.content.name.localeCompare(b.content.name, 'en', { sensitivity: 'base' }),
+            categoryRank(a.content.category) - categoryRank(b.content.category) || a.content.name.localeCompare(b.content.name, 'en', { sensitivity: 'base' }),
         );
     },
 

@@ -3,21 +3,9 @@ import { Link, useNavigate } from 'react-router-dom';
 import { CLASSES, SURFACES } from '@shared/constants';
 import { Card, Chip } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
-import { resolveParameterHref } from '@shared/markdown/links';
-import { Markdown } from '@/lib/markdown';
+import { RenderedMarkdown } from '@/lib/rendered-html';
 import type { ParameterPageData } from '../api/parameters';
 import { CATEGORY_INFO, formatRange, formatStep, isChoice, splitAliases, unitName } from './parameter-format';
-
-/** Splits the body into the reading part and the "## Cautions" section (without its heading). */
-export function splitCautions(body: string): { main: string; cautions: string | null } {
-  const heading = /^##[ \t]+Cautions[ \t]*$/m.exec(body);
-  if (!heading) return { main: body, cautions: null };
-  const after = body.slice(heading.index + heading[0].length);
-  const next = /^##[ \t]+\S/m.exec(after);
-  const cautions = (next ? after.slice(0, next.index) : after).trim();
-  const main = body.slice(0, heading.index) + (next ? after.slice(next.index) : '');
-  return { main: main.trim() + '\n', cautions: cautions || null };
-}
 
 const CLASS_NAMES = new Map<string, string>(CLASSES.map((c) => [c.slug, c.name]));
 const SURFACE_NAMES = new Map<string, string>(SURFACES.map((s) => [s.slug, s.name]));
@@ -43,7 +31,6 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
   const { parameter: p, revision } = data;
   const navigate = useNavigate();
   const { names, spellings } = splitAliases(p.name, p.aliases);
-  const { main, cautions } = splitCautions(p.body);
   const step = formatStep(p);
   const category = CATEGORY_INFO[p.category];
 
@@ -97,10 +84,8 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
               </Fact>
             </dl>
           </Card>
-          <Markdown renderWorkedExample={renderWorkedExample} resolveHref={resolveParameterHref}>
-            {main}
-          </Markdown>
-          {cautions && (
+          <RenderedMarkdown html={p.bodyHtml} renderWorkedExample={renderWorkedExample} />
+          {p.cautionsHtml && (
             <section aria-labelledby="cautions-heading" className="mt-8">
               <Notice
                 tone="caution"
@@ -111,13 +96,11 @@ export function ParameterEntry({ data, renderWorkedExample }: Props) {
                 }
                 className="px-5 py-4"
               >
-                <Markdown
+                <RenderedMarkdown
+                  html={p.cautionsHtml}
                   renderWorkedExample={renderWorkedExample}
-                  resolveHref={resolveParameterHref}
                   className="font-serif text-[0.97rem] leading-7 text-ink [&_a]:font-medium [&_li]:my-1.5 [&_p]:my-2 [&_ul]:my-1 [&_ul]:list-disc [&_ul]:pl-5"
-                >
-                  {cautions}
-                </Markdown>
+                />
               </Notice>
             </section>
           )}
