@@ -11,6 +11,9 @@ const guideLoader = ({ params }: { params: { slug?: string } }) => {
   return null;
 };
 
+// While the first page's chunk loads the screen stays as it is (blank, or the server-drawn page).
+const HydrateFallback = () => null;
+
 /** Every page is its own chunk, so readers never download editor, diff or admin code. */
 export const router = createBrowserRouter([
   // The printable setup sheet has no site chrome at all.
@@ -22,6 +25,7 @@ export const router = createBrowserRouter([
   {
     element: <AppLayout />,
     errorElement: <RouteError />,
+    HydrateFallback,
     children: [
       { index: true, lazy: () => import('./routes/home').then((m) => ({ Component: m.HomePage })) },
       { path: 'sign-in', lazy: () => import('./routes/auth-pages').then((m) => ({ Component: m.SignInPage })) },
