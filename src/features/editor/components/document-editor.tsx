@@ -1,4 +1,5 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { toast } from 'sonner';
 import type { DocumentKind } from '@shared/constants';
 import { REVISION_STATE_LABELS } from '@shared/constants';
@@ -11,7 +12,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { TextAreaField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
-import { createGuide, createProposal, patchRevision, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
+import { createGuide, createProposal, patchRevision, revisionQueries, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
 import { useAutosave } from '../hooks/use-autosave';
 import { clearLocalDraft, localDraftKey, readLocalDraft, shouldOfferRestore, type LocalDraft } from '../lib/autosave';
 import { AutosaveStatus } from './autosave-status';
@@ -71,6 +72,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
   const [noteError, setNoteError] = useState<string>();
   const submit = useSubmitRevision();
   const withdraw = useWithdrawRevision();
+  const qc = useQueryClient();
   const storageKey = localDraftKey({ revisionId, kind, slug });
   const slugRef = useRef(slug);
 
@@ -150,6 +152,10 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
       onSubmitted(res.revision);
     } catch (err) {
       if (err instanceof ApiError && err.code === 'stale_base') {
+        // The 409 names the live revision: take it as the page's "live", so once the merge moves the
+        // draft's base onto it the editor does not warn about a change it has already merged.
+        const current = (err.details as { current?: Revision | null } | undefined)?.current;
+        if (current && slugRef.current) qc.setQueryData(revisionQueries.live(kind, slugRef.current).queryKey, current);
         setSubmitOpen(false);
         setMode('merge');
         return;
@@ -183,6 +189,8 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           setBaseRevisionId(currentRevisionId);
           autosave.markSaved(form);
           setMode('edit');
+          // The live version may have moved again while the author was merging; the banner will say so.
+          if (slugRef.current) void qc.invalidateQueries({ queryKey: revisionQueries.live(kind, slugRef.current).queryKey });
           toast.success('Merged and saved. Check it over, then submit again.');
         }}
       />
