@@ -243,8 +243,9 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
         </Notice>
       )}
       {state === 'returned' && draft?.reason && (
-        <Notice tone="caution" title="Sent back by the moderator">
-          {draft.reason}
+        <Notice tone="caution" title={`Sent back by ${draft.reviewedBy?.displayName ?? 'the moderator'}`}>
+          <p>{draft.reason}</p>
+          <p className="mt-1 text-ink-soft">Change what is asked, then submit it again; it goes back into the review queue as this same version.</p>
         </Notice>
       )}
       {state === 'in_review' && <Notice title="Waiting for review">A moderator will publish it or send it back with a reason. Withdraw it if you want to change something first.</Notice>}
