@@ -23,6 +23,8 @@ import { ParameterFields, toParameterForm, type ParameterForm } from './paramete
 
 type Content = GuideForm | ParameterForm;
 
+const typedAt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+
 export type DocumentEditorProps = {
   kind: DocumentKind;
   /** The document's slug; null for a guide that does not exist yet. */
@@ -75,6 +77,9 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
   const qc = useQueryClient();
   const storageKey = localDraftKey({ revisionId, kind, slug });
   const slugRef = useRef(slug);
+  const bodyRef = useRef<HTMLDivElement>(null);
+  // The restore notice goes away with the button that was pressed: carry on where the writing is.
+  const focusBody = () => requestAnimationFrame(() => bodyRef.current?.querySelector('textarea')?.focus());
 
   // A newer copy in this browser than on the server (a reload before the last save, or a dropped connection)?
   const [offer, setOffer] = useState<LocalDraft<Content> | null>(() => {
@@ -217,7 +222,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
       {offer && (
         <Notice tone="caution" title="This browser holds newer text for this draft">
           <p>
-            It was typed {new Date(offer.editedAt).toLocaleString('en-GB')} and never reached the server (a reload or a dropped connection).
+            It was typed {typedAt.format(new Date(offer.editedAt))} and never reached the server (a reload or a dropped connection). Restore it to carry on from there; it is saved to the server once the connection allows.
           </p>
           <div className="mt-2 flex flex-wrap gap-2">
             <Button
@@ -225,6 +230,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
               onClick={() => {
                 setContent(offer.content);
                 setOffer(null);
+                focusBody();
               }}
             >
               Restore the newer text
@@ -235,6 +241,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
               onClick={() => {
                 clearLocalDraft(window.localStorage, storageKey);
                 setOffer(null);
+                focusBody();
               }}
             >
               Keep the saved version
@@ -266,7 +273,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
             <ParameterFields slug={slug ?? ''} value={content as ParameterForm} onChange={update} errors={errors} parameterOptions={parameterOptions} />
           )}
         </Card>
-        <div className="min-w-0">
+        <div className="min-w-0" ref={bodyRef}>
           <BodyField value={content.body} onChange={(body) => update({ body })} error={errors.body} renderWorkedExample={renderWorkedExample} />
         </div>
       </fieldset>
