@@ -175,6 +175,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
     try {
       await withdraw.mutateAsync(revisionId);
       setState('draft');
+      focusBody(); // the button that was pressed is gone; the author withdrew to write
       toast.success('Withdrawn: it is a draft on your workbench again');
     } catch (err) {
       toast.error((err as Error).message);
