@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright';
 import type { Browser, Page } from 'playwright-core';
 import type { DataSource } from 'typeorm';
 import { expect } from 'vitest';
@@ -77,4 +78,13 @@ export async function publishFromQueue(page: Page, baseUrl: string, title: strin
   await page.getByRole('heading', { name: title, level: 1 }).waitFor();
   await page.getByRole('button', { name: 'Publish' }).click();
   await page.waitForURL(`${baseUrl}/review`);
+}
+
+/** Serious and critical axe violations on the page as it stands, with the offending selectors. */
+export async function seriousViolations(page: Page) {
+  const result = await new AxeBuilder({ page: page as never }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
+    .join('\n');
 }

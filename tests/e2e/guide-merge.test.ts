@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
-import { documentOf, editBody, openProposal, publishFromQueue, revisionsOf, signedInPage, submitWithNote, waitSaved } from './guide-helpers';
+import { documentOf, editBody, openProposal, publishFromQueue, revisionsOf, seriousViolations, signedInPage, submitWithNote, waitSaved } from './guide-helpers';
 
 let server: E2EServer;
 let browser: Browser;
@@ -86,6 +86,7 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     await expect.poll(() => merged.textContent()).toContain(jonahLine);
     expect(await merged.textContent()).toContain(calumLine);
     await screenshot(calum, 'guides-merge-clean');
+    expect(await seriousViolations(calum)).toBe('');
     await phoneShot(calum, 'guides-merge-clean-phone');
 
     await calum.getByRole('button', { name: 'Save the merged draft' }).click();
@@ -160,9 +161,9 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     // The summary: keep mine.
     await calum.getByRole('group', { name: 'Summary' }).getByRole('radio', { name: /Your draft/ }).check();
     // Passage 1: the live text; passage 2: mine; passage 3: combined by hand.
-    await calum.getByRole('region', { name: 'Overlapping change 1' }).getByRole('button', { name: 'Keep the live text' }).click();
-    await calum.getByRole('region', { name: 'Overlapping change 2' }).getByRole('button', { name: 'Keep my text' }).click();
-    const third = calum.getByRole('region', { name: 'Overlapping change 3' });
+    await calum.getByRole('region', { name: 'Overlapping change 1', exact: true }).getByRole('button', { name: 'Keep the live text' }).click();
+    await calum.getByRole('region', { name: 'Overlapping change 2', exact: true }).getByRole('button', { name: 'Keep my text' }).click();
+    const third = calum.getByRole('region', { name: 'Overlapping change 3', exact: true });
     await third.getByRole('button', { name: /Edit by hand/ }).click();
     const combined = third.getByLabel('Your combined text');
     await expect.poll(() => combined.inputValue()).toContain('Under 70 °C');
@@ -174,6 +175,7 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     expect(await calum.getByText(/left to decide/).count()).toBe(0);
     await calum.setViewportSize(VIEWPORTS.desktop);
     await screenshot(calum, 'guides-merge-conflicts-resolved');
+    expect(await seriousViolations(calum)).toBe('');
 
     await save.click();
     await calum.getByText('Merged and saved').waitFor();

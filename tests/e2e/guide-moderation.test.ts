@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { launchBrowser, screenshot, screenshotPath, VIEWPORTS, watchPageErrors } from '../setup/browser';
-import { documentOf, revisionsOf, signedInPage } from './guide-helpers';
+import { documentOf, revisionsOf, seriousViolations, signedInPage } from './guide-helpers';
 
 let server: E2EServer;
 let browser: Browser;
@@ -46,6 +46,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     await expect.poll(() => rosa.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe(`Continue editing: ${astroTitle}`);
     expect(await revisionsOf(db(), astroSlug)).toEqual([expect.objectContaining({ state: 'draft', authorEmail: 'rosa@tidewater.test' })]);
     await screenshot(rosa, 'guides-workbench-withdrawn');
+    expect(await seriousViolations(rosa)).toBe('');
 
     // From the editor: Jonah opens his own guide, is pointed at the proposal he already has, and withdraws it there.
     const eighthSlug = 'eighth-e-buggy-saltings-meadow';
@@ -159,6 +160,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     await expect.poll(() => focusedText(owen)).toBe('Show it to readers again');
     expect(await owen.getByRole('button', { name: 'Hide guide' }).count()).toBe(0);
     await screenshot(owen, 'guides-hidden-moderator');
+    expect(await seriousViolations(owen)).toBe('');
     const doc = await documentOf(db(), slug);
     expect(doc.hiddenAt).not.toBeNull();
     expect(doc.hiddenReason).toBe(reason);
@@ -172,6 +174,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     expect(await visitor.getByText(reason).count()).toBe(0);
     expect(await visitor.getByText(/a few members have built a crawler course/).count()).toBe(0);
     await screenshot(visitor, 'guides-hidden-visitor');
+    expect(await seriousViolations(visitor)).toBe('');
     await visitor.setViewportSize(VIEWPORTS.phone);
     await screenshot(visitor, 'guides-hidden-visitor-phone');
     await visitor.setViewportSize(VIEWPORTS.desktop);

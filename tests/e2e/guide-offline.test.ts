@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
-import { editBody, openProposal, revisionsOf, signedInPage, waitSaved } from './guide-helpers';
+import { editBody, openProposal, revisionsOf, seriousViolations, signedInPage, waitSaved } from './guide-helpers';
 
 let server: E2EServer;
 let browser: Browser;
@@ -68,6 +68,7 @@ describe('nothing lost offline, in Chromium', () => {
     await expect.poll(() => body.inputValue()).toContain('Checked again on the new surface.');
     expect(await body.inputValue()).not.toContain('Launch on half punch');
     await screenshot(rosa, 'guides-editor-restore-offer');
+    expect(await seriousViolations(rosa)).toBe('');
     await offer.getByRole('button', { name: 'Restore the newer text' }).click();
     await expect.poll(() => body.inputValue()).toContain(`${offlineText.trim()} Still typing.`);
     expect(await offer.count()).toBe(0);

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
-import { editBody, revisionsOf, signedInPage, waitSaved } from './guide-helpers';
+import { editBody, revisionsOf, seriousViolations, signedInPage, waitSaved } from './guide-helpers';
 
 let server: E2EServer;
 let browser: Browser;
@@ -69,6 +69,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await sentBack.getByText('Sent back', { exact: true }).waitFor(); // the state badge, in our words
     expect(await rosa.getByRole('region', { name: /Waiting for review/ }).getByText(title).count()).toBe(0);
     await screenshot(rosa, 'guides-workbench-returned');
+    expect(await seriousViolations(rosa)).toBe('');
     await rosa.setViewportSize(VIEWPORTS.phone);
     await screenshot(rosa, 'guides-workbench-returned-phone');
     await rosa.setViewportSize(VIEWPORTS.desktop);
@@ -79,6 +80,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await why.getByText(reason).waitFor();
     await expect.poll(() => rosa.getByLabel('Body').inputValue()).toContain('Initial brake');
     await screenshot(rosa, 'guides-editor-returned');
+    expect(await seriousViolations(rosa)).toBe('');
 
     // She fixes the checklist, and the draft saves while it is still "sent back".
     const body = await rosa.getByLabel('Body').inputValue();

@@ -19,13 +19,14 @@ function show(v: unknown) {
  * One side of a conflict (or the merged text). With `words` (live → draft) the words only this side
  * has are marked, so a one-number difference inside a long paragraph is found at a glance.
  */
-function Lines({ lines, tone, words }: { lines: string[]; tone?: 'theirs' | 'ours'; words?: WordPart[] }) {
+function Lines({ lines, tone, words, label }: { lines: string[]; tone?: 'theirs' | 'ours'; words?: WordPart[]; label: string }) {
   const cls = tone === 'theirs' ? 'border-ink/30 bg-paper-card' : tone === 'ours' ? 'border-copper/50 bg-copper-wash/40' : 'border-paper-line bg-paper-deep/60 text-ink-soft';
   const mine = tone === 'theirs' ? (w: WordPart) => !!w.removed : (w: WordPart) => !!w.added;
   const other = tone === 'theirs' ? (w: WordPart) => !!w.added : (w: WordPart) => !!w.removed;
   const marked = words && tone && lines.length > 0 && words.some((w) => w.added || w.removed);
   return (
-    <pre className={`max-h-72 overflow-auto rounded-md border p-3 font-mono text-[0.8rem] leading-6 whitespace-pre-wrap ${cls}`}>
+    // Focusable and named: a long passage scrolls inside its box, and keyboard users must be able to scroll it too.
+    <pre tabIndex={0} role="region" aria-label={label} className={`max-h-72 overflow-auto rounded-md border p-3 font-mono text-[0.8rem] leading-6 whitespace-pre-wrap ${cls}`}>
       {!lines.length
         ? '(nothing — removed on this side)'
         : marked
@@ -54,14 +55,14 @@ function Hunk({ region, number, liveNumber, choice, onChoose }: { region: Confli
       <div className="grid gap-3 md:grid-cols-2">
         <div className="flex min-w-0 flex-col gap-2">
           <p className="text-xs font-semibold tracking-wider text-ink-muted uppercase">Live version {liveNumber} (theirs)</p>
-          <Lines lines={region.theirs} tone="theirs" words={region.words} />
+          <Lines lines={region.theirs} tone="theirs" words={region.words} label={`Overlapping change ${number}, live version ${liveNumber}`} />
           <Button size="sm" variant={picked === 'theirs' ? 'primary' : 'secondary'} aria-pressed={picked === 'theirs'} onClick={() => onChoose({ pick: 'theirs' })}>
             Keep the live text
           </Button>
         </div>
         <div className="flex min-w-0 flex-col gap-2">
           <p className="text-xs font-semibold tracking-wider text-ink-muted uppercase">Your draft (yours)</p>
-          <Lines lines={region.ours} tone="ours" words={region.words} />
+          <Lines lines={region.ours} tone="ours" words={region.words} label={`Overlapping change ${number}, your draft`} />
           <Button size="sm" variant={picked === 'ours' ? 'primary' : 'secondary'} aria-pressed={picked === 'ours'} onClick={() => onChoose({ pick: 'ours' })}>
             Keep my text
           </Button>
@@ -199,7 +200,7 @@ export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }:
       )}
       <details className="rounded-md border border-paper-line bg-paper-card p-3">
         <summary className="cursor-pointer text-sm font-semibold">The merged text as it will be saved</summary>
-        <Lines lines={body.body.split('\n')} />
+        <Lines lines={body.body.split('\n')} label="The merged text" />
       </details>
       {error && <Notice tone="danger">{error}</Notice>}
       <div className="flex flex-wrap items-center gap-3">

@@ -100,7 +100,7 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
                 <td className="px-3 py-2">
                   <div className="flex flex-wrap justify-end gap-2 whitespace-nowrap">
                     {live && r.number !== live.number && (
-                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`} aria-label={`Compare version ${r.number} with live`}>
+                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`} aria-label={`Compare with live (version ${r.number})`}>
                         Compare with live
                       </Link>
                     )}
