@@ -170,7 +170,15 @@ export type MergeConflict = z.infer<typeof mergeConflictSchema>;
  */
 export const bodyRegionSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('ok'), lines: z.array(z.string()) }),
-  z.object({ kind: z.literal('conflict'), hunk: z.number().int(), base: z.array(z.string()), ours: z.array(z.string()), theirs: z.array(z.string()) }),
+  z.object({
+    kind: z.literal('conflict'),
+    hunk: z.number().int(),
+    base: z.array(z.string()),
+    ours: z.array(z.string()),
+    theirs: z.array(z.string()),
+    /** Word diff from the live lines to the draft's, so the screen can mark where the two sides differ inside a long paragraph. */
+    words: z.array(diffPartSchema),
+  }),
 ]);
 export type BodyRegion = z.infer<typeof bodyRegionSchema>;
 
@@ -182,6 +190,8 @@ export const rebaseResultSchema = z.object({
   merged: z.record(z.string(), z.unknown()),
   conflicts: z.array(mergeConflictSchema),
   bodyRegions: z.array(bodyRegionSchema),
+  /** What the merge brings into the draft from the live version: draft → `merged`, field by field and word by word. */
+  incoming: z.object({ changedFields: z.array(changedFieldSchema), bodyDiff: z.array(diffPartSchema) }),
   currentRevisionId: z.uuid(),
   currentNumber: z.number().int(),
   stale: z.boolean(),

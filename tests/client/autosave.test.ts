@@ -83,7 +83,7 @@ describe('save status', () => {
   it('reads as the status line shows it', () => {
     expect(describeStatus({ kind: 'saved', at: 0 }, () => '10:42')).toBe('Saved 10:42');
     expect(describeStatus({ kind: 'saving' })).toBe('Saving…');
-    expect(describeStatus({ kind: 'offline' })).toBe('Offline — kept in this browser');
+    expect(describeStatus({ kind: 'offline' })).toBe('Offline — not saved to the server yet, kept in this browser');
     expect(isUnsavedStatus({ kind: 'offline' })).toBe(true);
     expect(isUnsavedStatus({ kind: 'saved', at: 1 })).toBe(false);
   });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { diff3Merge } from 'node-diff3';
-import { handEditStart, resolveBody, resolveFields, type MergeRegion } from '../../src/features/editor/lib/merge';
+import { aroundChanges, handEditStart, resolveBody, resolveFields, type MergeRegion } from '../../src/features/editor/lib/merge';
 
 // Regions built the way the server builds them, from node-diff3 (an independent merge implementation),
 // so these checks exercise the helpers on real merge output rather than on hand-made shapes.
@@ -83,5 +83,33 @@ describe('resolveFields', () => {
     expect(r.content.title).toBe('Theirs');
     expect(r.content.tags).toEqual(['stock']);
     expect(merged.title).toBe('Mine'); // the input is not mutated
+  });
+});
+
+describe('aroundChanges', () => {
+  it('keeps the lines a change sits in and folds the unchanged paragraphs between into one marker', () => {
+    const parts = [
+      { value: 'Intro.\n\nMore intro.\n\nSpur 84, pinion ' },
+      { value: '34', removed: true },
+      { value: '32', added: true },
+      { value: '.\n\nMiddle one.\n\nMiddle two.\n\nCheck after ' },
+      { value: 'five', removed: true },
+      { value: 'four', added: true },
+      { value: ' minutes.\n\nEnd one.\n\nEnd two.' },
+    ];
+    expect(aroundChanges(parts)).toEqual([
+      { value: '⋯\nSpur 84, pinion ' },
+      { value: '34', removed: true },
+      { value: '32', added: true },
+      { value: '.\n⋯\nCheck after ' },
+      { value: 'five', removed: true },
+      { value: 'four', added: true },
+      { value: ' minutes.\n⋯' },
+    ]);
+  });
+
+  it('leaves short stretches and a text without changes alone', () => {
+    expect(aroundChanges([{ value: 'a ' }, { value: 'b', added: true }, { value: ' c\nd' }])).toEqual([{ value: 'a ' }, { value: 'b', added: true }, { value: ' c\nd' }]);
+    expect(aroundChanges([{ value: 'one\ntwo\nthree' }])).toEqual([{ value: 'one\ntwo\nthree' }]);
   });
 });

@@ -1,10 +1,9 @@
 import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import AxeBuilder from '@axe-core/playwright';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { launchBrowser, screenshot } from '../setup/browser';
-import { signedInPage } from './guide-helpers';
+import { seriousViolations, signedInPage } from './guide-helpers';
 
 let server: E2EServer;
 let browser: Browser;
@@ -20,12 +19,6 @@ afterAll(async () => {
   await browser?.close();
   await server?.close();
 });
-
-/** Serious and critical axe violations on the page as it stands, with the offending selectors. */
-async function seriousViolations(page: Page) {
-  const result = await new AxeBuilder({ page: page as never }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
-  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`).join('\n');
-}
 
 describe('accessibility (axe): no serious or critical violations', () => {
   it('home, guide list, guide page and comparison, for a visitor', async () => {

@@ -53,13 +53,14 @@ export function checkWorkedExamples(body: string): WorkedExampleCheck[] {
   });
 }
 
-export type ThreeWayMerge = { merged: Content; conflicts: MergeConflict[]; bodyRegions: BodyRegion[] };
+export type ThreeWayMerge = { merged: Content; conflicts: MergeConflict[]; bodyRegions: BodyRegion[]; incoming: { changedFields: ChangedField[]; bodyDiff: DiffPart[] } };
 
 /**
  * Three-way merge of a draft ("ours") and the live revision ("theirs") against the draft's base.
  * Metadata field by field (take the side that changed; both changed differently is a conflict);
  * the body line by line with diff3. Conflicts keep our value in `merged`, so nothing of the
- * proposer's text is lost if they save it as it is.
+ * proposer's text is lost if they save it as it is. `incoming` is what the merge takes from the live
+ * side (draft → merged), so the author can see what changes in their text before saving it.
  */
 export function threeWayMerge(base: Content, ours: Content, theirs: Content): ThreeWayMerge {
   const merged: Content = {};
@@ -90,11 +91,11 @@ export function threeWayMerge(base: Content, ours: Content, theirs: Content): Th
     } else if (region.conflict) {
       const { a, o, b } = region.conflict;
       out.push(...a);
-      bodyRegions.push({ kind: 'conflict', hunk, base: [...o], ours: [...a], theirs: [...b] });
+      bodyRegions.push({ kind: 'conflict', hunk, base: [...o], ours: [...a], theirs: [...b], words: bodyDiff({ body: b.join('\n') }, { body: a.join('\n') }) });
       conflicts.push({ field: 'body', hunk, base: o.join('\n'), ours: a.join('\n'), theirs: b.join('\n') });
       hunk++;
     }
   }
   merged.body = out.join('\n');
-  return { merged, conflicts, bodyRegions };
+  return { merged, conflicts, bodyRegions, incoming: { changedFields: changedFields(ours, merged), bodyDiff: bodyDiff(ours, merged) } };
 }

@@ -16,6 +16,9 @@ function compose(to: string, subject: string, heading: string, paragraphs: strin
 
 const noun = (kind: DocumentKind) => (kind === 'guide' ? 'guide' : 'parameter entry');
 const pagePath = (kind: DocumentKind, slug: string) => (kind === 'guide' ? `/guides/${slug}` : `/parameters/${slug}`);
+/** The client's editor for one revision (the same addresses the workbench links to); a new guide has no live page to edit from. */
+const editorPath = (kind: DocumentKind, slug: string, revisionId: string, isNew: boolean) =>
+  kind === 'guide' && isNew ? `/guides/new?draft=${revisionId}` : `${pagePath(kind, slug)}/edit?draft=${revisionId}`;
 
 type About = { appUrl: string; kind: DocumentKind; slug: string; title: string; number: number; revisionId: string };
 
@@ -27,7 +30,7 @@ export function reviewRequestMail(to: { email: string; displayName: string }, a:
     `Waiting for review: ${a.title} (version ${a.number})`,
     'A revision is waiting for review',
     [`Hello ${to.displayName},`, `${a.authorName} has sent ${what} "${a.title}" (version ${a.number}) for review.`, `Their note: ${a.note}`],
-    { label: 'Open it in the review queue', url: `${a.appUrl}/reviews/${a.revisionId}` },
+    { label: 'Open it in the review queue', url: `${a.appUrl}/review/${a.revisionId}` },
   );
 }
 
@@ -43,7 +46,7 @@ export function publishedMail(to: { email: string; displayName: string }, a: Abo
 }
 
 /** To the author when a moderator sends their revision back. */
-export function returnedMail(to: { email: string; displayName: string }, a: About & { reviewerName: string; reason: string }): MailMessage {
+export function returnedMail(to: { email: string; displayName: string }, a: About & { reviewerName: string; reason: string; isNew: boolean }): MailMessage {
   return compose(
     to.email,
     `Sent back for changes: ${a.title} (version ${a.number})`,
@@ -54,6 +57,6 @@ export function returnedMail(to: { email: string; displayName: string }, a: Abou
       a.reason,
       'Your text is kept as it is: change it and send it for review again whenever you are ready.',
     ],
-    { label: 'Open your revision', url: `${a.appUrl}/revisions/${a.revisionId}` },
+    { label: 'Open your revision', url: `${a.appUrl}${editorPath(a.kind, a.slug, a.revisionId, a.isNew)}` },
   );
 }

@@ -338,7 +338,7 @@ export function revisionService(ctx: AppContext) {
         const author = await activeUser(m, rev.authorId);
         if (author) {
           await ctx.mailer.send(
-            returnedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator', reason }),
+            returnedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator', reason, isNew: !rev.baseRevisionId }),
             m,
           );
         }

@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useParams } from 'react-router-dom';
 import { ROLE_RANK } from '@shared/constants';
@@ -8,7 +8,7 @@ import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/features/auth/api/auth';
 import { guideQueries } from '@/features/guides/api/guides';
 import { GuideArticle } from '@/features/guides/components/guide-article';
-import { HideGuideButton } from '@/features/guides/components/hide-guide-button';
+import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
 import { SetupSheet } from '@/features/setups/components/setup-sheet';
 import { renderWorkedExample } from '../worked-example';
@@ -17,8 +17,8 @@ function Missing({ error }: { error: Error }) {
   const notFound = error instanceof ApiError && error.status === 404;
   return (
     <Card className="mx-auto max-w-lg p-8 text-center">
-      <h1 className="font-serif text-2xl font-bold">{notFound ? 'No guide at this address' : 'This guide could not be loaded'}</h1>
-      <p className="mt-2 text-ink-soft">{notFound ? 'It may have been renamed or hidden by a moderator.' : error.message}</p>
+      <h1 className="font-serif text-2xl font-bold">{notFound ? 'This guide is not available' : 'This guide could not be loaded'}</h1>
+      <p className="mt-2 text-ink-soft">{notFound ? 'There is no guide at this address, or a moderator has taken it out of public view.' : error.message}</p>
       <Link to="/guides" className="mt-5 inline-block">
         Browse all guides
       </Link>
@@ -36,6 +36,8 @@ export function GuidePage() {
   const params = useQuery(guideQueries.parameterOptions());
   const parameterNames = useMemo(() => Object.fromEntries((params.data ?? []).map((p) => [p.slug, p.name])), [params.data]);
   const canModerate = !!me && ROLE_RANK[me.role] >= ROLE_RANK.moderator;
+  // Hiding or showing swaps one control for another: the new one takes the focus.
+  const [swapped, setSwapped] = useState<'hidden' | 'shown' | null>(null);
 
   if (number != null && !Number.isInteger(number)) return <Missing error={new ApiError(404, 'not_found', 'No such version')} />;
   const shown = number != null ? version : detail;
@@ -52,7 +54,7 @@ export function GuidePage() {
           Propose an edit
         </Link>
       )}
-      {canModerate && !hidden && <HideGuideButton slug={slug} />}
+      {canModerate && !hidden && <HideGuideButton slug={slug} onHidden={() => setSwapped('hidden')} focusOnMount={swapped === 'shown'} />}
     </>
   );
 
@@ -61,7 +63,8 @@ export function GuidePage() {
       <div className="min-w-0 max-w-3xl">
         {hidden && (
           <Notice tone="danger" title="Hidden from readers" className="mb-4">
-            {detail.data?.guide.hiddenReason}
+            <p>{detail.data?.guide.hiddenReason}</p>
+            {canModerate && <UnhideGuideButton slug={slug} onShown={() => setSwapped('shown')} focusOnMount={swapped === 'hidden'} />}
           </Notice>
         )}
         <GuideArticle revision={revision} liveNumber={number != null ? liveNumber : null} renderWorkedExample={renderWorkedExample} parameterNames={parameterNames} actions={actions} />

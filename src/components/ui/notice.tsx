@@ -7,7 +7,8 @@ const tones: Record<Tone, string> = {
   danger: 'border-danger-line bg-danger-wash text-ink',
   ok: 'border-ok-line bg-ok-wash text-ink',
 };
-const marks: Record<Tone, string> = { info: 'ℹ', caution: '⚠', danger: '⛔', ok: '✓' };
+// Plain text symbols, not emoji: they render in any font and keep to the notebook's ink colours.
+const marks: Record<Tone, string> = { info: 'ℹ', caution: '⚠', danger: '✖', ok: '✓' };
 
 /** A boxed message: cautions, errors, confirmations. */
 export function Notice({ tone = 'info', title, children, className = '' }: { tone?: Tone; title?: ReactNode; children?: ReactNode; className?: string }) {

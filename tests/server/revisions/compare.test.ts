@@ -27,6 +27,30 @@ describe('threeWayMerge', () => {
     const empty = threeWayMerge({ body: '' }, { body: 'ours' }, { body: 'theirs' });
     expect(empty.conflicts).toHaveLength(1);
   });
+
+  it('marks inside a conflicting hunk which words differ (live → draft)', () => {
+    const long = { body: 'Intro.\nUnder 75 °C after a race is fine; at 80 °C drop a tooth.\nEnd.' };
+    const r = threeWayMerge(long, { body: long.body.replace('75', '80') }, { body: long.body.replace('75', '70') });
+    const hunk = r.bodyRegions.find((x) => x.kind === 'conflict');
+    expect(hunk?.kind === 'conflict' && hunk.words.filter((w) => w.added || w.removed)).toEqual([
+      { value: '70', removed: true },
+      { value: '80', added: true },
+    ]);
+  });
+
+  it('says what the merge brings in from the live side: fields it takes and the body words it changes in the draft', () => {
+    const ours = { ...base, tags: ['a', 'b'], body: 'one\nTWO\nthree\nfour' };
+    const theirs = { ...base, title: 'T2', body: 'one\ntwo\nthree\nFOUR' };
+    const { incoming } = threeWayMerge(base, ours, theirs);
+    expect(incoming.changedFields).toEqual([{ field: 'title', from: 'T', to: 'T2' }]);
+    expect(incoming.bodyDiff.filter((w) => w.added || w.removed)).toEqual([
+      { value: 'four', removed: true },
+      { value: 'FOUR', added: true },
+    ]);
+    // A conflict keeps the draft's side in `merged`, so it is not "incoming".
+    const conflicted = threeWayMerge(base, { ...base, body: 'one\nours\nthree\nfour' }, { ...base, body: 'one\ntheirs\nthree\nfour' });
+    expect(conflicted.incoming.bodyDiff.every((w) => !w.added && !w.removed)).toBe(true);
+  });
 });
 
 describe('changedFields', () => {

@@ -89,6 +89,12 @@ describe('POST /api/revisions/:id/rebase', () => {
     expect(data.merged.body).toBe(BASE_BODY.replace('Spur 78, pinion 34.', 'Spur 81, pinion 34.').replace('Punch at level 3.', 'Punch at level 2 for the slick morning.'));
     expect(data.merged.tags).toEqual(['stock', 'spring']);
     expect(data.merged.summary).toBe('A calmer baseline for slick mornings on the tight indoor layout.');
+    // What the merge brings into Bram's draft: Alice's tags and her gearing words, nothing of his own.
+    expect(data.incoming.changedFields).toEqual([{ field: 'tags', from: ['stock'], to: ['stock', 'spring'] }]);
+    expect(data.incoming.bodyDiff.filter((w: { added?: boolean; removed?: boolean }) => w.added || w.removed)).toEqual([
+      { value: '78', removed: true },
+      { value: '81', added: true },
+    ]);
     // Rebase changes nothing by itself.
     expect((await bram.get(`/api/revisions/${b.id}`)).body.data.revision.content.body).toBe(bramBody);
 
@@ -114,7 +120,8 @@ describe('POST /api/revisions/:id/rebase', () => {
     expect(data.merged.title).toBe('Stock buggy, Harbour Flats with the new hairpin');
     expect(data.merged.body).toBe(bramBody);
     const conflictRegion = data.bodyRegions.find((r: { kind: string }) => r.kind === 'conflict');
-    expect(conflictRegion).toEqual({ kind: 'conflict', hunk: 0, base: ['Drag brake at 10 %.'], ours: ['Drag brake at 15 % for the hairpin.'], theirs: ['Drag brake at 5 %.'] });
+    expect(conflictRegion).toMatchObject({ kind: 'conflict', hunk: 0, base: ['Drag brake at 10 %.'], ours: ['Drag brake at 15 % for the hairpin.'], theirs: ['Drag brake at 5 %.'] });
+    expect(conflictRegion.words.filter((w: { added?: boolean; removed?: boolean }) => w.added || w.removed).map((w: { value: string }) => w.value)).toEqual(['5', '15', ' for the hairpin']);
     // Joining the regions with "theirs" chosen gives their body back.
     const theirs = data.bodyRegions.flatMap((r: { kind: string; lines?: string[]; theirs?: string[] }) => (r.kind === 'ok' ? r.lines! : r.theirs!)).join('\n');
     expect(theirs).toBe(aliceBody);

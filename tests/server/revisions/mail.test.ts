@@ -33,7 +33,8 @@ describe('mail from POST /api/revisions/:id/submit and POST /api/reviews/:revisi
     const toMod = await t.waitForMail(modUser.email, /waiting for review/i);
     expect(toMod.subject).toBe('Waiting for review: Short course on Saltings loose dirt (version 1)');
     expect(toMod.text).toContain('New guide for the loose dirt');
-    expect(toMod.text).toContain(`/reviews/${revision.id}`);
+    // The client's review page for it (src/app/router.tsx: review/:revisionId).
+    expect(toMod.text).toContain(`/review/${revision.id}`);
     expect(toMod.html).toContain('Short course on Saltings loose dirt');
     await t.waitForMail(admin.email, /waiting for review/i);
     expect(await outboxTo(authorUser.email)).toEqual([]);
@@ -65,6 +66,8 @@ describe('mail from POST /api/revisions/:id/submit and POST /api/reviews/:revisi
     const mail = await t.waitForMail(authorUser.email, /sent back/i);
     expect(mail.subject).toBe('Sent back for changes: Drag car launch on asphalt (version 1)');
     expect(mail.text).toContain('Say which pack you ran & add the <cutoff> caution.');
+    // The link opens the author's editor on this revision (a new guide: the new-guide editor).
+    expect(mail.text).toContain(`/guides/new?draft=${revision.id}`);
     // The reason is escaped in the HTML part, never markup.
     expect(mail.html).toContain('Say which pack you ran &amp; add the &lt;cutoff&gt; caution.');
   });

@@ -1,4 +1,5 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { toast } from 'sonner';
 import type { DocumentKind } from '@shared/constants';
 import { REVISION_STATE_LABELS } from '@shared/constants';
@@ -11,7 +12,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { TextAreaField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
-import { createGuide, createProposal, patchRevision, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
+import { createGuide, createProposal, patchRevision, revisionQueries, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
 import { useAutosave } from '../hooks/use-autosave';
 import { clearLocalDraft, localDraftKey, readLocalDraft, shouldOfferRestore, type LocalDraft } from '../lib/autosave';
 import { AutosaveStatus } from './autosave-status';
@@ -21,6 +22,8 @@ import { MergeScreen } from './merge-screen';
 import { ParameterFields, toParameterForm, type ParameterForm } from './parameter-fields';
 
 type Content = GuideForm | ParameterForm;
+
+const typedAt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
 
 export type DocumentEditorProps = {
   kind: DocumentKind;
@@ -71,8 +74,12 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
   const [noteError, setNoteError] = useState<string>();
   const submit = useSubmitRevision();
   const withdraw = useWithdrawRevision();
+  const qc = useQueryClient();
   const storageKey = localDraftKey({ revisionId, kind, slug });
   const slugRef = useRef(slug);
+  const bodyRef = useRef<HTMLDivElement>(null);
+  // The restore notice goes away with the button that was pressed: carry on where the writing is.
+  const focusBody = () => requestAnimationFrame(() => bodyRef.current?.querySelector('textarea')?.focus());
 
   // A newer copy in this browser than on the server (a reload before the last save, or a dropped connection)?
   const [offer, setOffer] = useState<LocalDraft<Content> | null>(() => {
@@ -150,6 +157,10 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
       onSubmitted(res.revision);
     } catch (err) {
       if (err instanceof ApiError && err.code === 'stale_base') {
+        // The 409 names the live revision: take it as the page's "live", so once the merge moves the
+        // draft's base onto it the editor does not warn about a change it has already merged.
+        const current = (err.details as { current?: Revision | null } | undefined)?.current;
+        if (current && slugRef.current) qc.setQueryData(revisionQueries.live(kind, slugRef.current).queryKey, current);
         setSubmitOpen(false);
         setMode('merge');
         return;
@@ -164,6 +175,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
     try {
       await withdraw.mutateAsync(revisionId);
       setState('draft');
+      focusBody(); // the button that was pressed is gone; the author withdrew to write
       toast.success('Withdrawn: it is a draft on your workbench again');
     } catch (err) {
       toast.error((err as Error).message);
@@ -183,6 +195,8 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           setBaseRevisionId(currentRevisionId);
           autosave.markSaved(form);
           setMode('edit');
+          // The live version may have moved again while the author was merging; the banner will say so.
+          if (slugRef.current) void qc.invalidateQueries({ queryKey: revisionQueries.live(kind, slugRef.current).queryKey });
           toast.success('Merged and saved. Check it over, then submit again.');
         }}
       />
@@ -209,7 +223,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
       {offer && (
         <Notice tone="caution" title="This browser holds newer text for this draft">
           <p>
-            It was typed {new Date(offer.editedAt).toLocaleString('en-GB')} and never reached the server (a reload or a dropped connection).
+            It was typed {typedAt.format(new Date(offer.editedAt))} and never reached the server (a reload or a dropped connection). Restore it to carry on from there; it is saved to the server once the connection allows.
           </p>
           <div className="mt-2 flex flex-wrap gap-2">
             <Button
@@ -217,6 +231,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
               onClick={() => {
                 setContent(offer.content);
                 setOffer(null);
+                focusBody();
               }}
             >
               Restore the newer text
@@ -227,6 +242,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
               onClick={() => {
                 clearLocalDraft(window.localStorage, storageKey);
                 setOffer(null);
+                focusBody();
               }}
             >
               Keep the saved version
@@ -235,8 +251,9 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
         </Notice>
       )}
       {state === 'returned' && draft?.reason && (
-        <Notice tone="caution" title="Sent back by the moderator">
-          {draft.reason}
+        <Notice tone="caution" title={`Sent back by ${draft.reviewedBy?.displayName ?? 'the moderator'}`}>
+          <p>{draft.reason}</p>
+          <p className="mt-1 text-ink-soft">Change what is asked, then submit it again; it goes back into the review queue as this same version.</p>
         </Notice>
       )}
       {state === 'in_review' && <Notice title="Waiting for review">A moderator will publish it or send it back with a reason. Withdraw it if you want to change something first.</Notice>}
@@ -257,7 +274,7 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
             <ParameterFields slug={slug ?? ''} value={content as ParameterForm} onChange={update} errors={errors} parameterOptions={parameterOptions} />
           )}
         </Card>
-        <div className="min-w-0">
+        <div className="min-w-0" ref={bodyRef}>
           <BodyField value={content.body} onChange={(body) => update({ body })} error={errors.body} renderWorkedExample={renderWorkedExample} />
         </div>
       </fieldset>

@@ -1,3 +1,4 @@
+import { useEffect, useRef, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
@@ -25,12 +26,18 @@ const tone: Record<MyRevision['state'], string> = {
   archived: 'border-paper-line bg-paper-deep text-ink-soft',
 };
 
-function Row({ r }: { r: MyRevision }) {
+function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean; onWithdrawn: (id: string) => void }) {
   const withdraw = useWithdrawRevision();
   const editable = r.state === 'draft' || r.state === 'returned';
+  const editRef = useRef<HTMLAnchorElement>(null);
+  // A withdrawn proposal moves to "Drafts" and its Withdraw button is gone: keep the focus on it there.
+  useEffect(() => {
+    if (focusEdit && editable) editRef.current?.focus();
+  }, [focusEdit, editable]);
   const handleWithdraw = async () => {
     try {
       await withdraw.mutateAsync(r.id);
+      onWithdrawn(r.id);
       toast.success('Withdrawn: it is a draft again');
     } catch (err) {
       toast.error((err as Error).message);
@@ -59,17 +66,17 @@ function Row({ r }: { r: MyRevision }) {
         </div>
         <div className="flex shrink-0 flex-wrap gap-2">
           {editable && (
-            <Link to={editHref(r)} className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark">
+            <Link ref={editRef} to={editHref(r)} aria-label={`Continue editing: ${r.title || 'untitled draft'}`} className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark">
               Continue editing
             </Link>
           )}
           {r.state === 'in_review' && (
-            <Button size="sm" variant="secondary" onClick={handleWithdraw} pending={withdraw.isPending}>
+            <Button size="sm" variant="secondary" onClick={handleWithdraw} pending={withdraw.isPending} aria-label={`Withdraw: ${r.title || 'untitled draft'}`}>
               Withdraw
             </Button>
           )}
           {(r.state === 'published' || r.state === 'archived') && (
-            <Link to={viewHref(r)} className="rounded-md border border-ink/25 px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep">
+            <Link to={viewHref(r)} aria-label={`View: ${r.title}, version ${r.number}`} className="rounded-md border border-ink/25 px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep">
               View
             </Link>
           )}
@@ -89,6 +96,7 @@ const GROUPS: Array<{ title: string; states: MyRevision['state'][]; empty: strin
 /** The member's own drafts and proposals, grouped by where they stand. */
 export function Workbench() {
   const mine = useQuery(revisionQueries.mine());
+  const [withdrawnId, setWithdrawnId] = useState<string | null>(null);
   if (mine.isPending) return <Spinner label="Loading your workbench…" />;
   if (mine.isError) return <Notice tone="danger" title="Your workbench could not be loaded">{mine.error.message}</Notice>;
   return (
@@ -101,7 +109,7 @@ export function Workbench() {
             <h2 id={`wb-${g.states[0]}`} className="text-lg font-semibold">
               {g.title} <span className="text-sm font-normal text-ink-muted">({rows.length})</span>
             </h2>
-            {rows.length === 0 ? <p className="text-sm text-ink-soft">{g.empty}</p> : <ul className="flex flex-col gap-3">{rows.map((r) => <Row key={r.id} r={r} />)}</ul>}
+            {rows.length === 0 ? <p className="text-sm text-ink-soft">{g.empty}</p> : <ul className="flex flex-col gap-3">{rows.map((r) => <Row key={r.id} r={r} focusEdit={r.id === withdrawnId} onWithdrawn={setWithdrawnId} />)}</ul>}
           </section>
         );
       })}

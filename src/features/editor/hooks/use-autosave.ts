@@ -92,7 +92,8 @@ export function useAutosave<C>({ storageKey, content, savedContent, save, canSav
       setStatus({ kind: 'local', message: cannotSaveReason ?? 'Kept in this browser' });
       return;
     }
-    setStatus({ kind: 'pending' });
+    // Still offline: keep saying so (the next try is scheduled anyway) rather than a calmer "unsaved changes".
+    setStatus((prev) => (prev.kind === 'offline' ? prev : { kind: 'pending' }));
     if (timer.current) clearTimeout(timer.current);
     timer.current = setTimeout(() => void run(), delayMs);
     return () => {

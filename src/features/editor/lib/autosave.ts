@@ -99,7 +99,7 @@ export function isUnsavedStatus(s: SaveStatus) {
 
 const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
-/** "Saved 10:42", "Saving…", "Offline — kept in this browser". */
+/** "Saved 10:42", "Saving…", "Offline — not saved to the server yet, kept in this browser". */
 export function describeStatus(s: SaveStatus, format: (t: number) => string = (t) => clock.format(new Date(t))): string {
   switch (s.kind) {
     case 'idle':
@@ -111,7 +111,7 @@ export function describeStatus(s: SaveStatus, format: (t: number) => string = (t
     case 'saved':
       return `Saved ${format(s.at)}`;
     case 'offline':
-      return 'Offline — kept in this browser';
+      return 'Offline — not saved to the server yet, kept in this browser';
     case 'local':
     case 'error':
       return s.message;

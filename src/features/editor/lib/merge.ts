@@ -4,7 +4,10 @@
  * both sides changed. The author picks per conflict; these helpers build the resolved content.
  */
 
-export type MergeRegion = { kind: 'ok'; lines: string[] } | { kind: 'conflict'; hunk: number; base: string[]; ours: string[]; theirs: string[] };
+/** A run of a word diff (live → draft inside a conflict; draft → merged for what comes in). */
+export type WordPart = { value: string; added?: boolean; removed?: boolean };
+
+export type MergeRegion = { kind: 'ok'; lines: string[] } | { kind: 'conflict'; hunk: number; base: string[]; ours: string[]; theirs: string[]; words?: WordPart[] };
 export type ConflictRegion = Extract<MergeRegion, { kind: 'conflict' }>;
 
 /** A field conflict (for the body, one entry per hunk; `hunk` says which). */
@@ -58,4 +61,30 @@ export function resolveFields(merged: Record<string, unknown>, conflicts: FieldC
 /** A starting point for editing a hunk by hand: the live lines, then the draft's. */
 export function handEditStart(region: ConflictRegion): string {
   return [...region.theirs, ...region.ours].join('\n');
+}
+
+/**
+ * Cuts the unchanged stretches of a word diff down to the paragraphs (lines) around each change, so
+ * a few merged sentences in a long guide read at a glance. A dropped stretch becomes a "⋯" line.
+ */
+export function aroundChanges(parts: WordPart[]): WordPart[] {
+  if (!parts.some((p) => p.added || p.removed)) return parts;
+  const out: WordPart[] = [];
+  parts.forEach((p, i) => {
+    if (p.added || p.removed) {
+      out.push(p);
+      return;
+    }
+    const after = i > 0; // something changed just before this stretch
+    const before = i < parts.length - 1; // something changes just after it
+    const lines = p.value.split('\n');
+    if (lines.length <= 2) {
+      out.push(p);
+      return;
+    }
+    const head = after ? lines[0] : null;
+    const tail = before ? lines[lines.length - 1] : null;
+    out.push({ value: [head, '⋯', tail].filter((x) => x !== null).join('\n') });
+  });
+  return out;
 }

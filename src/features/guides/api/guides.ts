@@ -115,3 +115,12 @@ export function useHideGuide(slug: string) {
     onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
   });
 }
+
+/** Moderator: show a hidden guide to readers again. */
+export function useUnhideGuide(slug: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post(`/api/guides/${encodeURIComponent(slug)}/unhide`, {}),
+    onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
+  });
+}

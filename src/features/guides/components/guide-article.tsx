@@ -32,11 +32,15 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
         <GuideMeta content={c} parameterNames={parameterNames} />
         <div className="flex flex-wrap items-center justify-between gap-3">
           <p className="text-sm text-ink-soft" data-testid="version-line">
-            {isLive ? (
+            {isLive && revision.restoredFromNumber != null ? (
+              // A restore is a moderator's copy of older text: naming them as its author (and reviewer) would misattribute it.
+              <>
+                Version {revision.number}, published on {date} · restores version {revision.restoredFromNumber}, brought back by <span className="font-medium text-ink">{revision.author.displayName}</span>
+              </>
+            ) : isLive ? (
               <>
                 Version {revision.number}, published on {date} by <span className="font-medium text-ink">{revision.author.displayName}</span>
                 {revision.reviewedBy && <> · reviewed by {revision.reviewedBy.displayName}</>}
-                {revision.restoredFromNumber != null && <> · restores version {revision.restoredFromNumber}</>}
               </>
             ) : (
               <>

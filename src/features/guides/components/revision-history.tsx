@@ -100,10 +100,12 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
                 <td className="px-3 py-2">
                   <div className="flex flex-wrap justify-end gap-2 whitespace-nowrap">
                     {live && r.number !== live.number && (
-                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`}>Compare with live</Link>
+                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`} aria-label={`Compare with live (version ${r.number})`}>
+                        Compare with live
+                      </Link>
                     )}
                     {canModerate && live && r.state === 'archived' && (
-                      <button type="button" className="text-copper-dark underline decoration-copper/40 underline-offset-2 hover:decoration-copper" onClick={() => setRestoring(r)}>
+                      <button type="button" className="text-copper-dark underline decoration-copper/40 underline-offset-2 hover:decoration-copper" onClick={() => setRestoring(r)} aria-label={`Restore version ${r.number}`}>
                         Restore
                       </button>
                     )}

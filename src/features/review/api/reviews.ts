@@ -35,14 +35,19 @@ export const reviewQueries = {
     }),
 };
 
-function useInvalidateAfterDecision() {
+function useInvalidateAfterDecision(revisionId: string) {
   const qc = useQueryClient();
-  // A decision changes the queue, the count and the live content readers see.
-  return () => qc.invalidateQueries({ predicate: (q) => ['reviews', 'guides', 'parameters', 'revisions'].includes(String(q.queryKey[0])) });
+  return () => {
+    // The moderator goes straight back to the queue: drop the decided proposal from the cached copy,
+    // so it does not show there again while the queue refetches.
+    qc.setQueriesData<ReviewItem[]>({ queryKey: [...reviewQueries.all(), 'queue'] }, (rows) => rows?.filter((r) => r.revisionId !== revisionId));
+    // A decision changes the queue, the count and the live content readers see.
+    return qc.invalidateQueries({ predicate: (q) => ['reviews', 'guides', 'parameters', 'revisions'].includes(String(q.queryKey[0])) });
+  };
 }
 
 export function usePublishRevision(revisionId: string) {
-  const invalidate = useInvalidateAfterDecision();
+  const invalidate = useInvalidateAfterDecision(revisionId);
   return useMutation({
     mutationFn: async () => (await api.post<Envelope<{ revision: Revision }>>(`/api/reviews/${revisionId}/publish`)).data,
     onSuccess: invalidate,
@@ -50,7 +55,7 @@ export function usePublishRevision(revisionId: string) {
 }
 
 export function useReturnRevision(revisionId: string) {
-  const invalidate = useInvalidateAfterDecision();
+  const invalidate = useInvalidateAfterDecision(revisionId);
   return useMutation({
     mutationFn: async (reason: string) => (await api.post<Envelope<{ revision: Revision }>>(`/api/reviews/${revisionId}/return`, { reason })).data,
     onSuccess: invalidate,
