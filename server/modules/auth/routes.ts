@@ -96,6 +96,7 @@ export const authRoutes = [
     summary: 'Sign out and end this session',
     tags: ['auth'],
     access: 'public',
+    owner: { resource: 'account', rule: 'self' },
     status: 204,
     handler: async ({ req, res }) => {
       if (req.session) await logOut(req);
@@ -109,6 +110,7 @@ export const authRoutes = [
     summary: 'The signed-in account, or null',
     tags: ['auth'],
     access: 'public',
+    owner: { resource: 'account', rule: 'self' },
     response: z.object({ user: userSchema.nullable() }),
     handler: ({ user }) => ({ data: { user } }),
   }),
@@ -130,6 +132,7 @@ export const authRoutes = [
     summary: 'Change your display name',
     tags: ['account'],
     access: 'member',
+    owner: { resource: 'account', rule: 'self' },
     body: updateProfileSchema,
     response: userData,
     handler: async ({ body, user, req, ctx }) => {
@@ -144,6 +147,7 @@ export const authRoutes = [
     summary: 'Change your password; ends your other sessions and rotates this one',
     tags: ['account'],
     access: 'member',
+    owner: { resource: 'account', rule: 'self' },
     rateLimit: 'auth',
     body: changePasswordSchema,
     response: userData,
