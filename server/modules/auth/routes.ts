@@ -10,6 +10,7 @@ import {
   verifyEmailSchema,
 } from '../../../shared/schemas/user';
 import { defineRoute } from '../../lib/route';
+import { AppError } from '../../lib/errors';
 import { logIn, logOut } from '../../middleware/auth';
 import { csrf } from '../../middleware/csrf';
 import { presentUser } from './presenter';
@@ -84,8 +85,15 @@ export const authRoutes = [
     rateLimit: 'auth',
     body: signInSchema,
     response: userData,
-    handler: async ({ body, req, ctx }) => {
-      const user = presentUser(await authService(ctx).authenticate(body.email, body.password));
+    handler: async ({ body, req, res, ctx }) => {
+      const user = presentUser(
+        await authService(ctx)
+          .authenticate(body.email, body.password)
+          .catch((err: unknown) => {
+            if (err instanceof AppError && err.code === 'sign_in_throttled') res.setHeader('Retry-After', String((err.details as { retryAfterSeconds: number }).retryAfterSeconds));
+            throw err;
+          }),
+      );
       await logIn(req, user);
       return { data: { user } };
     },
