@@ -196,8 +196,9 @@ describe('POST /api/setups when the app process is killed mid-upload', () => {
       up.end(body);
       const orphan = await waitFor('the object on disk', () => filesOnDisk().find((f) => !before.includes(f) && !path.basename(f).startsWith('.')));
       await waitFor('the app INSERT waiting on the lock', async () => {
-        const rows = await locker.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
-        return rows.rowCount ? true : undefined;
+        // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
+        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        return rows.length ? true : undefined;
       });
       expect(fs.readFileSync(path.join(uploads, orphan))).toEqual(content);
       await app.kill('SIGKILL');
@@ -283,8 +284,9 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
       up.end(body);
       orphan = await waitFor('the object in the bucket', async () => (await bucketKeys())[0]);
       await waitFor('the app INSERT waiting on the lock', async () => {
-        const rows = await locker.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
-        return rows.rowCount ? true : undefined;
+        // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
+        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        return rows.length ? true : undefined;
       });
       await app.kill('SIGKILL');
       expect(await up.outcome, 'the killed upload got no answer').toHaveProperty('error');
