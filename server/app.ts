@@ -20,6 +20,41 @@ export type CreatedApp = { app: Express; close: () => Promise<void> };
 
 const distDir = path.resolve(process.cwd(), 'dist');
 
+/**
+ * Browser features the app never uses are switched off for it and anything it might embed, so injected
+ * script (or a compromised dependency) cannot ask for a camera, a location or a payment. The only one
+ * kept is clipboard writing, for the calculators' "copy result" button, and only for our own origin.
+ * Every name is one Chromium knows (an unknown one only earns a console warning); the browser test checks it.
+ */
+export const PERMISSIONS_POLICY = [
+  ...[
+    'accelerometer',
+    'autoplay',
+    'browsing-topics',
+    'camera',
+    'clipboard-read',
+    'display-capture',
+    'encrypted-media',
+    'fullscreen',
+    'geolocation',
+    'gyroscope',
+    'hid',
+    'idle-detection',
+    'local-fonts',
+    'magnetometer',
+    'microphone',
+    'midi',
+    'payment',
+    'picture-in-picture',
+    'publickey-credentials-get',
+    'screen-wake-lock',
+    'serial',
+    'usb',
+    'xr-spatial-tracking',
+  ].map((feature) => `${feature}=()`),
+  'clipboard-write=(self)',
+].join(', ');
+
 /** Builds the Express app (middleware, module routers, 404, error handler). Does not listen. */
 export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveClient?: boolean } = {}): CreatedApp {
   const routes = opts.routes ?? routeTable;
@@ -51,9 +86,16 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
       },
       strictTransportSecurity: ctx.config.production ? { maxAge: 31_536_000, includeSubDomains: true } : false,
       referrerPolicy: { policy: 'strict-origin-when-cross-origin' },
+      // Our window and our responses stay ours: no opener handle for other sites, no embedding of our files.
+      crossOriginOpenerPolicy: { policy: 'same-origin' },
+      crossOriginResourcePolicy: { policy: 'same-origin' },
       crossOriginEmbedderPolicy: false,
     }),
   );
+  app.use((_req, res, next) => {
+    res.setHeader('Permissions-Policy', PERMISSIONS_POLICY);
+    next();
+  });
 
   app.use('/api', express.json({ limit: LIMITS.jsonBodyBytes, strict: true }));
   const { pool } = installAuth(app, ctx);

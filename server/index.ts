@@ -4,7 +4,7 @@ import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createMailer } from './lib/mailer';
 import { createDocumentListener } from './lib/document-listener';
-import { createStorage, sweepDiskStorage } from './lib/storage';
+import { createStorage, SWEEP_GRACE_MS } from './lib/storage';
 import { createSearchService } from './modules/search/service';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
@@ -15,20 +15,24 @@ async function main() {
   const logger = createLogger(config.logLevel);
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
-  if (config.storage.driver === 'disk') {
-    // A minute of grace: another instance on the same directory may be between its write and its row.
-    const swept = await sweepDiskStorage(config.storage.uploadDir, {
-      olderThan: new Date(Date.now() - 60_000),
+  const storage = createStorage(config.storage);
+  try {
+    // The grace keeps a write still in flight in another instance safe (see SWEEP_GRACE_MS).
+    const swept = await storage.sweep({
+      olderThan: new Date(Date.now() - SWEEP_GRACE_MS[storage.driver]),
       referenced: async (keys) => new Set((await dataSource.query('SELECT storage_key FROM setups WHERE storage_key = ANY($1)', [keys])).map((r: { storage_key: string }) => r.storage_key)),
     });
-    if (swept.temp.length || swept.orphans.length) logger.warn({ temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
+    if (swept.temp.length || swept.orphans.length) logger.warn({ driver: storage.driver, temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
+  } catch (err) {
+    // Housekeeping only: an unreachable bucket must not keep the app from serving; the next start tries again.
+    logger.error({ err, driver: storage.driver }, 'the start-up sweep of stored uploads failed');
   }
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();
   const search = createSearchService({ dataSource, logger, listener: documentListener });
   await search.start();
-  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage), search };
+  const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage, search };
   const { app, close } = createApp(ctx);
   mailer.start();
   const server = app.listen(config.port, config.host, () => {

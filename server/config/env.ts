@@ -18,6 +18,7 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   RATE_LIMIT_AUTH_PER_15MIN: z.coerce.number().int().min(1).default(20),
   RATE_LIMIT_UPLOAD_PER_15MIN: z.coerce.number().int().min(1).default(60),
+  SIGN_IN_ATTEMPTS_PER_ACCOUNT_PER_15MIN: z.coerce.number().int().min(1).default(10),
   UPLOAD_DIR: z.string().optional(),
   STORAGE_DRIVER: z.enum(['disk', 's3']).default('disk'),
   STORAGE_S3_ENDPOINT: z.string().optional(),
@@ -42,7 +43,7 @@ export type Config = {
   sessionSecret: string;
   bcryptCost: number;
   logLevel: string;
-  rateLimits: { authPer15Min: number; uploadPer15Min: number };
+  rateLimits: { authPer15Min: number; uploadPer15Min: number; signInPerAccountPer15Min: number };
   uploadDir: string;
   storage: StorageConfig;
   trustProxy: boolean;
@@ -72,7 +73,7 @@ export function loadConfig(source: Record<string, string | undefined> = process.
     sessionSecret: e.SESSION_SECRET ?? 'tunewright-local-demo-secret-not-for-production',
     bcryptCost: e.BCRYPT_COST ?? (e.NODE_ENV === 'test' ? 4 : 12),
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
-    rateLimits: { authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN, uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN },
+    rateLimits: { authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN, uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN, signInPerAccountPer15Min: e.SIGN_IN_ATTEMPTS_PER_ACCOUNT_PER_15MIN },
     uploadDir: e.UPLOAD_DIR ?? '.data/uploads',
     storage: {
       driver: e.STORAGE_DRIVER,

@@ -1,7 +1,7 @@
 import { createDocument } from 'zod-openapi';
 import { z } from 'zod';
 import { apiErrorSchema } from '../../shared/schemas/common';
-import type { RouteDef } from './route';
+import type { OwnedResource, OwnershipRule, RouteDef } from './route';
 import { APP_VERSION } from './version';
 
 const toOpenApiPath = (p: string) => p.replace(/:([A-Za-z0-9_]+)/g, '{$1}');
@@ -16,6 +16,15 @@ const ERROR_STATUSES: Record<string, string> = {
   '415': 'Unsupported media type',
   '429': 'Rate limited',
   '503': 'Database unavailable',
+};
+
+const RESOURCE_WORDS: Record<OwnedResource, string> = { revision: "the revision's author", 'setup-upload': "the upload's owner", account: 'the account holder' };
+const OWNERSHIP_WORDS: Record<OwnershipRule, (r: OwnedResource) => string> = {
+  owner: (r) => `${RESOURCE_WORDS[r]} only`,
+  'owner-or-moderator': (r) => `${RESOURCE_WORDS[r]} and moderators`,
+  'not-owner': (r) => `anyone allowed except ${RESOURCE_WORDS[r]}`,
+  any: () => 'any caller allowed; the answer marks your own',
+  self: () => "only ever the caller's own",
 };
 
 /** The OpenAPI 3.1 document, generated from the route table's zod schemas. */
@@ -40,7 +49,7 @@ export function buildOpenApi(routes: RouteDef[], opts: { production: boolean }) 
     paths[path][r.method] = {
       summary: r.summary,
       tags: r.tags,
-      description: `Access: ${r.access}${r.method !== 'get' ? '; requires the x-csrf-token header' : ''}`,
+      description: `Access: ${r.access}${r.owner ? `; ownership: ${OWNERSHIP_WORDS[r.owner.rule](r.owner.resource)}` : ''}${r.method !== 'get' ? '; requires the x-csrf-token header' : ''}`,
       ...(Object.keys(requestParams).length ? { requestParams } : {}),
       ...(r.body && !r.multipart ? { requestBody: { content: { 'application/json': { schema: r.body } } } } : {}),
       ...(r.multipart ? { requestBody: { content: { 'multipart/form-data': { schema: z.object({ file: z.string().meta({ format: 'binary' }) }) } } } } : {}),

@@ -11,6 +11,24 @@ import { findUnstorableInput } from './input-text';
 export type Access = 'public' | Role;
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
+/** Things a member owns: a revision they wrote, a setup they uploaded, their own account. */
+export type OwnedResource = 'revision' | 'setup-upload' | 'account';
+
+/**
+ * How a route treats the owner of what it acts on (checked in the module's policy or service, which
+ * has the row; declared here so the docs and the authorization matrix can enumerate every such route):
+ * - `owner`: only the owner may; others get the module's refusal (revisions: 404 to those who cannot
+ *   see it, 403 `not_own_revision` to those who can; uploads: 404 to everyone, moderators included).
+ * - `owner-or-moderator`: the owner and moderators see it; anyone else is told it does not exist (404).
+ * - `not-owner`: anyone at the access level except the owner (no one reviews their own revision or
+ *   changes their own role).
+ * - `any`: the access level alone decides; the answer says whether it is the caller's own.
+ * - `self`: there is no id to point elsewhere; the route only ever reads or changes the caller's own.
+ */
+export type OwnershipRule = 'owner' | 'owner-or-moderator' | 'not-owner' | 'any' | 'self';
+
+export type Ownership = { resource: OwnedResource; rule: OwnershipRule };
+
 export type HandlerResult = { status?: number; data?: unknown; meta?: unknown } | void;
 
 export type HandlerInput<B, Q, P> = {
@@ -29,6 +47,8 @@ export type RouteDef<B = unknown, Q = unknown, P = unknown> = {
   summary: string;
   tags: string[];
   access: Access;
+  /** Required on every route that takes an owned resource's id (the authorization matrix fails without it). */
+  owner?: Ownership;
   body?: z.ZodType<B>;
   query?: z.ZodType<Q>;
   params?: z.ZodType<P>;

@@ -49,7 +49,30 @@ function expectProductionHeaders(res: request.Response) {
   expect(res.headers['referrer-policy']).toBe('strict-origin-when-cross-origin');
   expect(res.headers['x-frame-options']).toBe('SAMEORIGIN');
   expect(res.headers['cross-origin-opener-policy']).toBe('same-origin');
+  expect(res.headers['cross-origin-resource-policy']).toBe('same-origin');
+  expectPermissionsPolicy(res);
   expect(res.headers['x-powered-by']).toBeUndefined();
+}
+
+/** The Permissions-Policy header split into feature → allowlist (structured-field dictionary, RFC 8941). */
+function permissions(header: string) {
+  return new Map(
+    header.split(',').map((item) => {
+      const [feature, allow] = item.trim().split('=');
+      return [feature, allow] as const;
+    }),
+  );
+}
+
+function expectPermissionsPolicy(res: request.Response) {
+  const policy = permissions(String(res.headers['permissions-policy']));
+  // Nothing in the app uses these; each must be denied to every origin, our own included.
+  for (const feature of ['camera', 'microphone', 'geolocation', 'payment', 'usb', 'serial', 'hid', 'midi', 'display-capture', 'fullscreen', 'clipboard-read', 'publickey-credentials-get']) {
+    expect(policy.get(feature), feature).toBe('()');
+  }
+  // The calculators' copy button writes to the clipboard, from our own origin only.
+  expect(policy.get('clipboard-write')).toBe('(self)');
+  expect([...policy.values()].every((allow) => allow === '()' || allow === '(self)'), 'no feature is open to other origins').toBe(true);
 }
 
 describe('security headers in production', () => {
@@ -84,6 +107,16 @@ describe('security headers in production', () => {
     expect(html).toBe(fs.readFileSync(path.resolve('dist', 'index.html'), 'utf8'));
   });
 
+  it('downloads and the API document carry the same cross-origin and permissions headers', async () => {
+    for (const url of ['/api/openapi.json', '/schemas/setup-record.v1.json', '/api/docs']) {
+      const res = await request(t.app).get(url).set(https);
+      expect(res.status, url).toBe(200);
+      expect(res.headers['cross-origin-resource-policy'], url).toBe('same-origin');
+      expect(res.headers['cross-origin-opener-policy'], url).toBe('same-origin');
+      expectPermissionsPolicy(res);
+    }
+  });
+
   it('hashed assets are served with a script-safe content type and long caching', async () => {
     const html = (await request(t.app).get('/').set(https)).text;
     const src = /<script[^>]+src="([^"]+)"/.exec(html)?.[1];
@@ -93,6 +126,8 @@ describe('security headers in production', () => {
     expect(res.headers['content-type']).toMatch(/^(text|application)\/javascript/);
     expect(res.headers['cache-control']).toMatch(/immutable/);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['cross-origin-resource-policy']).toBe('same-origin');
+    expectPermissionsPolicy(res);
   });
 
   it('does not mount the local mail viewer or list it in the API document', async () => {

@@ -302,11 +302,13 @@ describe('PUT and DELETE /api/revisions/:id/setup', () => {
     expect(res.body.error).toMatchObject({ code: 'invalid_setup', details: [{ path: 'escSettings.drag-brake.unit' }] });
   });
 
-  it('403 for another member, 409 once the revision left draft, 401 for visitors, 404 for no revision', async () => {
+  it("404 for another member (someone else's draft is not there for them), 409 once the revision left draft, 401 for visitors, 404 for no revision", async () => {
     const { user } = await signedInClient(t);
     const rev = await draftFor(user.id);
     const { client: other } = await signedInClient(t);
-    expect((await other.put(`/api/revisions/${rev.id}/setup`, buildSetupRecord())).status).toBe(403);
+    const refused = await other.put(`/api/revisions/${rev.id}/setup`, buildSetupRecord());
+    expect(refused.status).toBe(404);
+    expect(refused.body.error.code).toBe('not_found');
     const { client: author, user: a2 } = await signedInClient(t);
     const submitted = await draftFor(a2.id, 'in_review');
     const res = await author.put(`/api/revisions/${submitted.id}/setup`, buildSetupRecord());

@@ -4,7 +4,8 @@ import path from 'node:path';
 import S3rver from 's3rver';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedParameters } from '../../server/db/seed-content';
-import { createDiskStorage, createS3Storage, newStorageKey, sweepDiskStorage, type Storage } from '../../server/lib/storage';
+import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { createDiskStorage, createS3Storage, newStorageKey, sweepDiskStorage, SWEEP_GRACE_MS, type Storage } from '../../server/lib/storage';
 import { createClient, createTestApp, type TestApp } from '../setup/test-app';
 import { signedInClient } from '../factories/user';
 import { buildSetupRecord } from '../factories/setup-record';
@@ -40,6 +41,12 @@ describe('storage', () => {
   let s3: S3rver;
   let endpoint: string;
   let s3Dir: string;
+
+  /** s3rver keeps each object as `<key>._S3rver_object` under its directory and reports the file's mtime as LastModified. */
+  function ageS3rverObject(key: string, when: Date) {
+    const file = path.join(s3Dir, BUCKET, ...path.posix.dirname(key).split('/'), `${path.posix.basename(key)}._S3rver_object`);
+    fs.utimesSync(file, when, when);
+  }
 
   beforeAll(async () => {
     dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-disk-'));
@@ -103,6 +110,42 @@ describe('storage', () => {
     } finally {
       fs.rmSync(root, { recursive: true, force: true });
     }
+  });
+
+  it("the S3 driver's start-up sweep removes old unreferenced objects under the app's prefix, and keeps rows' objects, fresh objects and foreign keys", async () => {
+    // Small pages, so the sweep has to follow the listing across several of them.
+    const storage = createS3Storage({ endpoint, region: 'us-east-1', bucket: BUCKET, forcePathStyle: true, ...FAKE_KEY, listPageSize: 2 });
+    const raw = new S3Client({ endpoint, region: 'us-east-1', forcePathStyle: true, credentials: FAKE_KEY, requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' });
+    const kept = [newStorageKey('setups', 'json'), newStorageKey('setups', 'csv')];
+    const orphans = [newStorageKey('setups', 'json'), newStorageKey('setups', 'csv'), newStorageKey('setups', 'json')];
+    const fresh = newStorageKey('setups', 'json');
+    for (const k of [...kept, ...orphans, fresh]) await storage.put(k, Buffer.from('{}'), 'application/json');
+    // Another application's objects in the same bucket: outside our prefix, or not a key we could have made.
+    const foreign = ['other-app/2026/01/notes.json', 'setups/Shared Notes.TXT', 'setups-archive/2026/01/x.json'];
+    for (const k of foreign) await raw.send(new PutObjectCommand({ Bucket: BUCKET, Key: k, Body: 'theirs' }));
+    // s3rver reports an object's LastModified from its file's mtime: age everything but the fresh one.
+    const past = new Date(Date.now() - 30 * 60_000);
+    for (const k of [...kept, ...orphans, ...foreign]) ageS3rverObject(k, past);
+    const asked: string[][] = [];
+    const result = await storage.sweep({
+      olderThan: new Date(Date.now() - SWEEP_GRACE_MS.s3),
+      referenced: async (keys) => {
+        asked.push(keys);
+        return new Set(keys.filter((k) => kept.includes(k)));
+      },
+    });
+    expect(result.temp).toEqual([]);
+    expect([...result.orphans].sort()).toEqual([...orphans].sort());
+    // Only old keys the app could have written were looked up, a page at a time.
+    expect(asked.flat().sort()).toEqual([...kept, ...orphans].sort());
+    expect(asked.length).toBeGreaterThan(1);
+    for (const k of orphans) expect(await storage.get(k)).toBeNull();
+    for (const k of [...kept, fresh]) expect(await storage.get(k)).not.toBeNull();
+    for (const k of foreign) expect((await raw.send(new GetObjectCommand({ Bucket: BUCKET, Key: k }))).$metadata.httpStatusCode).toBe(200);
+    // A second pass finds nothing more to do.
+    expect((await storage.sweep({ olderThan: new Date(Date.now() - SWEEP_GRACE_MS.s3), referenced: async (keys) => new Set(keys) })).orphans).toEqual([]);
+    for (const k of [...kept, fresh, ...foreign]) await raw.send(new DeleteObjectCommand({ Bucket: BUCKET, Key: k }));
+    raw.destroy();
   });
 
   describe('POST /api/setups with STORAGE_DRIVER=s3', () => {

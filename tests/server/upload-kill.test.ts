@@ -5,12 +5,15 @@ import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
+import S3rver from 's3rver';
+import { ListObjectsCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { seedParameters } from '../../server/db/seed-content';
 import { createTestDatabase, type TestDatabase } from '../setup/test-db';
 import { startAppProcess, type AppProcess } from '../setup/app-process';
 import { httpClient } from '../setup/http-client';
 import { insertAccounts } from '../setup/accounts';
 import { buildSetupRecord } from '../factories/setup-record';
+import { newStorageKey, SWEEP_GRACE_MS } from '../../server/lib/storage';
 
 // The app process killed (SIGKILL, no clean-up of its own) in the middle of a setup upload, then started
 // again on the same database and upload directory: storage and the setups table must still agree.
@@ -193,8 +196,9 @@ describe('POST /api/setups when the app process is killed mid-upload', () => {
       up.end(body);
       const orphan = await waitFor('the object on disk', () => filesOnDisk().find((f) => !before.includes(f) && !path.basename(f).startsWith('.')));
       await waitFor('the app INSERT waiting on the lock', async () => {
-        const rows = await locker.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
-        return rows.rowCount ? true : undefined;
+        // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
+        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        return rows.length ? true : undefined;
       });
       expect(fs.readFileSync(path.join(uploads, orphan))).toEqual(content);
       await app.kill('SIGKILL');
@@ -235,5 +239,84 @@ describe('POST /api/setups when the app process is killed mid-upload', () => {
       await locker.end().catch(() => {});
     }
     console.log(`upload-kill: gap kill, restart sweep and a good upload took ${Date.now() - started} ms`);
+  }, 60_000);
+});
+
+describe('POST /api/setups on S3 storage when the app process is killed between object and row', () => {
+  const BUCKET = 'tunewright-kill';
+  // s3rver accepts any credentials; these are placeholders, not secrets.
+  const FAKE_KEY = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' };
+  const s3Dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-kill-s3rver-'));
+  let s3: S3rver;
+  let endpoint: string;
+  let bucket: S3Client;
+
+  beforeAll(async () => {
+    s3 = new S3rver({ address: '127.0.0.1', port: 0, silent: true, directory: s3Dir, configureBuckets: [{ name: BUCKET }] });
+    endpoint = `http://127.0.0.1:${(await s3.run()).port}`;
+    bucket = new S3Client({ endpoint, region: 'us-east-1', forcePathStyle: true, credentials: FAKE_KEY, requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' });
+  });
+  afterAll(async () => {
+    bucket?.destroy();
+    await s3?.close();
+    fs.rmSync(s3Dir, { recursive: true, force: true });
+  });
+
+  const s3Env = () => ({ ...env(), STORAGE_DRIVER: 's3', STORAGE_S3_ENDPOINT: endpoint, STORAGE_S3_BUCKET: BUCKET, STORAGE_S3_ACCESS_KEY_ID: FAKE_KEY.accessKeyId, STORAGE_S3_SECRET_ACCESS_KEY: FAKE_KEY.secretAccessKey });
+  const bucketKeys = async () => ((await bucket.send(new ListObjectsCommand({ Bucket: BUCKET }))).Contents ?? []).map((o) => o.Key!).sort();
+  /** s3rver reports LastModified from the mtime of `<key>._S3rver_object` in its directory. */
+  const age = (key: string, when: Date) => fs.utimesSync(path.join(s3Dir, BUCKET, ...path.posix.dirname(key).split('/'), `${path.posix.basename(key)}._S3rver_object`), when, when);
+
+  it('the restart removes the orphaned object from the bucket, spares an unreferenced object younger than the grace, and the next upload is stored (201)', async () => {
+    await app?.stop();
+    app = await startAppProcess(s3Env());
+    const session = await signedInMember(app.baseUrl, 'kill-s3');
+    const locker = new pg.Client({ connectionString: db.url });
+    await locker.connect();
+    let orphan: string;
+    try {
+      await locker.query('BEGIN');
+      await locker.query('LOCK TABLE setups IN ACCESS EXCLUSIVE MODE');
+      const content = Buffer.from(JSON.stringify(buildSetupRecord()));
+      const { boundary, body } = multipartBody('harbour-flats-s3-gap.json', content);
+      const up = rawUpload(app.port, session, boundary, body.length);
+      await up.accepted;
+      up.end(body);
+      orphan = await waitFor('the object in the bucket', async () => (await bucketKeys())[0]);
+      await waitFor('the app INSERT waiting on the lock', async () => {
+        // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
+        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        return rows.length ? true : undefined;
+      });
+      await app.kill('SIGKILL');
+      expect(await up.outcome, 'the killed upload got no answer').toHaveProperty('error');
+      await locker.query('ROLLBACK');
+    } finally {
+      await locker.end().catch(() => {});
+    }
+    await waitFor('the dead backend to go', async () => {
+      const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND query ILIKE 'INSERT INTO "setups"%' AND pid <> pg_backend_pid()`);
+      return rows.length === 0 ? true : undefined;
+    });
+    expect(await rowsOf(session.member.id)).toBe(0);
+    expect(await bucketKeys()).toEqual([orphan]);
+
+    // Age the orphan past the grace, as if the restart came later; leave a second unreferenced object
+    // fresh, as another instance's upload between its object and its row would be.
+    age(orphan, new Date(Date.now() - SWEEP_GRACE_MS.s3 - 60_000));
+    const inFlight = newStorageKey('setups', 'json');
+    await bucket.send(new PutObjectCommand({ Bucket: BUCKET, Key: inFlight, Body: '{}', ContentType: 'application/json' }));
+
+    app = await startAppProcess(s3Env());
+    expect(await bucketKeys(), 'the orphan is gone, the young object stays').toEqual([inFlight]);
+    expect(app.output()).toContain(orphan);
+    expect(app.output()).not.toContain(inFlight);
+
+    const after = await completeUpload(app, 'kill-s3-after');
+    expect('status' in after.res && after.res.status, JSON.stringify(after.res)).toBe(201);
+    const created = JSON.parse((after.res as { text: string }).text).data as { id: string };
+    const [row] = await db.dataSource.query('SELECT storage_key FROM setups WHERE id = $1', [created.id]);
+    expect(await bucketKeys()).toEqual([inFlight, row.storage_key].sort());
+    expect(filesOnDisk().filter((f) => f === row.storage_key), 'nothing went to local disk').toEqual([]);
   }, 60_000);
 });

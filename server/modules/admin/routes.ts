@@ -25,6 +25,7 @@ export const adminRoutes = [
     summary: "Change an account's role or disable/enable it",
     tags: ['admin'],
     access: 'admin',
+    owner: { resource: 'account', rule: 'not-owner' },
     params: uuidParam,
     body: adminUserPatchSchema,
     response: z.object({ user: adminUserSchema }),

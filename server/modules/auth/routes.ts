@@ -10,6 +10,7 @@ import {
   verifyEmailSchema,
 } from '../../../shared/schemas/user';
 import { defineRoute } from '../../lib/route';
+import { AppError } from '../../lib/errors';
 import { logIn, logOut } from '../../middleware/auth';
 import { csrf } from '../../middleware/csrf';
 import { presentUser } from './presenter';
@@ -84,8 +85,15 @@ export const authRoutes = [
     rateLimit: 'auth',
     body: signInSchema,
     response: userData,
-    handler: async ({ body, req, ctx }) => {
-      const user = presentUser(await authService(ctx).authenticate(body.email, body.password));
+    handler: async ({ body, req, res, ctx }) => {
+      const user = presentUser(
+        await authService(ctx)
+          .authenticate(body.email, body.password)
+          .catch((err: unknown) => {
+            if (err instanceof AppError && err.code === 'sign_in_throttled') res.setHeader('Retry-After', String((err.details as { retryAfterSeconds: number }).retryAfterSeconds));
+            throw err;
+          }),
+      );
       await logIn(req, user);
       return { data: { user } };
     },
@@ -96,6 +104,7 @@ export const authRoutes = [
     summary: 'Sign out and end this session',
     tags: ['auth'],
     access: 'public',
+    owner: { resource: 'account', rule: 'self' },
     status: 204,
     handler: async ({ req, res }) => {
       if (req.session) await logOut(req);
@@ -109,6 +118,7 @@ export const authRoutes = [
     summary: 'The signed-in account, or null',
     tags: ['auth'],
     access: 'public',
+    owner: { resource: 'account', rule: 'self' },
     response: z.object({ user: userSchema.nullable() }),
     handler: ({ user }) => ({ data: { user } }),
   }),
@@ -130,6 +140,7 @@ export const authRoutes = [
     summary: 'Change your display name',
     tags: ['account'],
     access: 'member',
+    owner: { resource: 'account', rule: 'self' },
     body: updateProfileSchema,
     response: userData,
     handler: async ({ body, user, req, ctx }) => {
@@ -144,6 +155,7 @@ export const authRoutes = [
     summary: 'Change your password; ends your other sessions and rotates this one',
     tags: ['account'],
     access: 'member',
+    owner: { resource: 'account', rule: 'self' },
     rateLimit: 'auth',
     body: changePasswordSchema,
     response: userData,

@@ -8,6 +8,7 @@ import type { AppContext } from '../../context';
 import { UserEntity } from './user.entity';
 import { UserTokenEntity, type TokenPurpose } from './user-token.entity';
 import { passwordChangedMail, resetMail, verificationMail } from './mail';
+import { signInThrottle } from './sign-in-throttle';
 
 // Compared against when the e-mail is unknown, so both failures take the same time.
 const dummyHashes = new Map<number, Promise<string>>();
@@ -48,6 +49,7 @@ async function consumeToken(m: EntityManager, token: string, purpose: TokenPurpo
 export function authService(ctx: AppContext) {
   const ds: DataSource = ctx.dataSource;
   const users = () => ds.getRepository(UserEntity);
+  const throttle = (db: DataSource | EntityManager = ds) => signInThrottle(db, ctx.config.rateLimits.signInPerAccountPer15Min);
 
   return {
     async signUp(input: SignUpInput) {
@@ -78,9 +80,12 @@ export function authService(ctx: AppContext) {
 
     /** Checks credentials; the same answer for an unknown e-mail and a wrong password. */
     async authenticate(email: string, password: string) {
+      // Counted before the password is checked, for every address alike (see sign-in-throttle.ts).
+      await throttle().reserve(email);
       const user = await users().findOne({ where: { email } });
       const ok = await verifyPassword(password, user?.passwordHash ?? (await dummyHash(ctx.config.bcryptCost)));
       if (!user || !ok || user.disabledAt) throw new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an account.');
+      await throttle().clear(email);
       if (!user.emailVerifiedAt) throw new AppError(403, 'email_unverified', 'Confirm your e-mail address first: open the link we sent you, or ask for a new one.');
       return user;
     },
@@ -117,7 +122,9 @@ export function authService(ctx: AppContext) {
         user.emailVerifiedAt ??= new Date();
         await m.getRepository(UserEntity).save(user);
         await endSessions(m, user.id);
-        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName), m);
+        // The mailbox is proven: a member locked out by someone guessing at their address gets straight back in.
+        await throttle(m).clear(user.email);
+        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName, { at: new Date(), via: 'reset', appUrl: ctx.config.appUrl }), m);
         return user;
       });
     },
@@ -132,7 +139,7 @@ export function authService(ctx: AppContext) {
       await ds.transaction(async (m) => {
         await m.getRepository(UserEntity).save(user);
         await endSessions(m, user.id);
-        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName), m);
+        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName, { at: new Date(), via: 'account', appUrl: ctx.config.appUrl }), m);
       });
       return user;
     },

@@ -32,8 +32,11 @@ export function canSeeDocument(actor: Actor, doc: DocumentFacts): boolean {
   return doc.hiddenAt === null || isModerator(actor);
 }
 
-/** Author-only actions: strangers are told nothing exists (404); moderators, who can see it, get 403. */
-function authorOnly(actor: Actor, rev: RevisionFacts): Decision {
+/**
+ * Author-only actions: whoever cannot see the revision is told nothing exists (404, the same answer as
+ * for an id that was never used); whoever can see it (moderators, anyone for a live one) gets 403.
+ */
+export function authorOnly(actor: Actor, rev: RevisionFacts): Decision {
   if (isAuthor(actor, rev)) return ALLOW;
   if (!canSeeRevision(actor, rev)) return NOT_FOUND;
   return deny(403, 'not_own_revision', 'Only the author can change this revision');

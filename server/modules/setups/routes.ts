@@ -62,6 +62,7 @@ export const setupRoutes: RouteDef[] = [
     summary: "The setup library: published guides' baselines, and your own uploads when signed in",
     tags: ['setups'],
     access: 'public',
+    owner: { resource: 'setup-upload', rule: 'self' },
     response: setupLibrarySchema,
     handler: async ({ user, ctx }) => {
       const baselines = (await listBaselines(ctx.dataSource)).map(presentBaseline);
@@ -84,6 +85,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'Compare two setups (upload ids, or guide:<slug> for a live baseline): fields, differences, computed deltas, cautions',
     tags: ['setups'],
     access: 'public',
+    owner: { resource: 'setup-upload', rule: 'owner' },
     query: compareQuery,
     response: z.object({ a: compareSideSchema, b: compareSideSchema }).passthrough(),
     handler: async ({ query, user, ctx }) => ({ data: await compareRefs(ctx.dataSource, user, query.a, query.b, query.rpm) }),
@@ -107,6 +109,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'One of your uploaded setups',
     tags: ['setups'],
     access: 'member',
+    owner: { resource: 'setup-upload', rule: 'owner' },
     params: uuidParam,
     response: setupUploadSchema,
     handler: async ({ params, user, ctx }) => ({ data: presentUpload(await getUpload(ctx.dataSource, user, params.id)) }),
@@ -117,6 +120,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'Download one of your uploaded setups as it was uploaded',
     tags: ['setups'],
     access: 'member',
+    owner: { resource: 'setup-upload', rule: 'owner' },
     params: uuidParam,
     download: true,
     handler: async ({ params, user, ctx, res }) => {
@@ -132,6 +136,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'Delete one of your uploaded setups',
     tags: ['setups'],
     access: 'member',
+    owner: { resource: 'setup-upload', rule: 'owner' },
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {
@@ -183,6 +188,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'Attach or replace the baseline setup of your own draft guide revision',
     tags: ['setups', 'revisions'],
     access: 'member',
+    owner: { resource: 'revision', rule: 'owner' },
     params: uuidParam,
     body: recordBody,
     response: setupRecordStructureSchema,
@@ -194,6 +200,7 @@ export const setupRoutes: RouteDef[] = [
     summary: 'Remove the baseline setup from your own draft guide revision',
     tags: ['setups', 'revisions'],
     access: 'member',
+    owner: { resource: 'revision', rule: 'owner' },
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {

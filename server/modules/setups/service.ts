@@ -4,14 +4,15 @@ import type { SettingDefinitionRow } from '../../../shared/schemas/setup';
 import { compareSetups } from '../../../shared/setup/compare';
 import { parseSetupText, validateSetupObject } from '../../../shared/setup/import';
 import type { AppContext } from '../../context';
-import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { AppError, notFound } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
 import { DocumentEntity } from '../revisions/document.entity';
 import { RevisionEntity } from '../revisions/revision.entity';
 import { UserEntity } from '../auth/user.entity';
 import { SetupEntity } from './setup.entity';
 import { checkFileContent, checkFileName, invalidSetup } from './upload';
-import { canReadUpload } from './policy';
+import { canReadUpload, mayChangeBaseline } from './policy';
+import type { Actor } from '../revisions/policy';
 
 type Db = DataSource | EntityManager;
 
@@ -145,18 +146,19 @@ export async function compareRefs(db: Db, user: { id: string } | null, a: string
 }
 
 /** The author's own draft guide revision, or the reason it cannot take a baseline. */
-async function ownDraft(m: EntityManager, user: { id: string }, revisionId: string) {
+async function ownDraft(m: EntityManager, user: Actor, revisionId: string) {
   const revision = await m.getRepository(RevisionEntity).findOne({ where: { id: revisionId }, lock: { mode: 'pessimistic_write' } });
   if (!revision) throw notFound('That revision');
+  // Who first: a stranger learns nothing about someone else's draft, not even its kind.
+  const decision = mayChangeBaseline(user, revision);
+  if (!decision.ok) throw new AppError(decision.status, decision.code, decision.message);
   const doc = await m.getRepository(DocumentEntity).findOneByOrFail({ id: revision.documentId });
   if (doc.kind !== 'guide') throw new AppError(409, 'not_a_guide', 'Only guide revisions carry a baseline setup.');
-  if (revision.authorId !== user.id) throw forbidden('Only the author of this draft can change its baseline setup.');
-  if (revision.state !== 'draft') throw conflict('not_draft', 'The baseline can only change while the revision is a draft; start a new draft to change it.');
   return revision;
 }
 
 /** Attaches (or replaces) the baseline of the author's own draft, after validating it against the library. */
-export async function attachToRevision(ctx: AppContext, user: { id: string }, revisionId: string, body: unknown) {
+export async function attachToRevision(ctx: AppContext, user: Actor, revisionId: string, body: unknown) {
   return ctx.dataSource.transaction(async (m) => {
     const revision = await ownDraft(m, user, revisionId);
     const result = validateSetupObject(body, await loadSettingLibrary(m));
@@ -168,7 +170,7 @@ export async function attachToRevision(ctx: AppContext, user: { id: string }, re
   });
 }
 
-export async function detachFromRevision(ctx: AppContext, user: { id: string }, revisionId: string) {
+export async function detachFromRevision(ctx: AppContext, user: Actor, revisionId: string) {
   await ctx.dataSource.transaction(async (m) => {
     const revision = await ownDraft(m, user, revisionId);
     await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: null });

@@ -46,19 +46,58 @@ function deltaText(d: SetupDelta) {
 }
 const valueText = (v: number | null, unit: string) => (v === null ? '—' : unit === ':1' ? `${fmt(v, 2)}:1` : unit === 'deg' ? `${fmt(v, 1)}°` : `${fmt(v, unit === 'rpm' ? 0 : 2)} ${unit}`);
 
-/** The comparison page body: pick two setups, then see every field side by side, the computed deltas and the cautions. */
+/** The rpm the timing is read at: a draft while typing, committed to the URL on Enter or leaving the field. */
+function RpmField({ rpm, onCommit }: { rpm: number | undefined; onCommit: (value: string) => void }) {
+  const shown = String(rpm ?? 20000);
+  const [draft, setDraft] = useState(shown);
+  // Leaving the field untouched changes nothing (no rpm added to the address, no new comparison).
+  const commit = () => draft !== shown && onCommit(draft);
+  return (
+    <label className="flex flex-col text-sm font-medium sm:w-40">
+      Timing read at
+      <span className="mt-1 flex items-center gap-1">
+        <input
+          type="number"
+          name="rpm"
+          min={1000}
+          max={150000}
+          step={1000}
+          value={draft}
+          onChange={(e) => setDraft(e.target.value)}
+          onBlur={commit}
+          onKeyDown={(e) => e.key === 'Enter' && commit()}
+          className="w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal tabular-nums"
+        />
+        <span className="font-normal text-ink-muted">rpm</span>
+      </span>
+    </label>
+  );
+}
+
+/**
+ * The comparison page body: pick two setups, then see every field side by side, the computed deltas and
+ * the cautions. Everything it shows comes from the URL (a, b, rpm, only=changed), so a link, a reload
+ * and the browser's back and forward buttons all show the comparison the address names; each new pair
+ * is its own history entry, while the rpm and the filter refine the entry they are on.
+ */
 export function CompareView() {
   const [params, setParams] = useSearchParams();
   const a = params.get('a') ?? '';
   const b = params.get('b') ?? '';
   const rpmParam = Number(params.get('rpm'));
   const rpm = Number.isFinite(rpmParam) && rpmParam > 0 ? rpmParam : undefined;
-  const [onlyChanged, setOnlyChanged] = useState(false);
-  const set = (key: string, value: string) => {
-    const next = new URLSearchParams(params);
-    if (value) next.set(key, value);
-    else next.delete(key);
-    setParams(next, { replace: true });
+  const onlyChanged = params.get('only') === 'changed';
+  const set = (key: 'a' | 'b' | 'rpm' | 'only', value: string) => {
+    if ((params.get(key) ?? '') === value) return;
+    setParams(
+      (current) => {
+        const next = new URLSearchParams(current);
+        if (value) next.set(key, value);
+        else next.delete(key);
+        return next;
+      },
+      { replace: key === 'rpm' || key === 'only' },
+    );
   };
   const cmp = useQuery({ ...setupQueries.compare(a, b, rpm), enabled: !!a && !!b });
   const labels = cmp.data ? { a: `A: ${cmp.data.a.label}`, b: `B: ${cmp.data.b.label}` } : { a: 'A', b: 'B' };
@@ -74,22 +113,8 @@ export function CompareView() {
       <Card className="flex flex-col gap-3 p-4 sm:flex-row sm:items-end">
         <SetupPicker label="A (for instance a guide's baseline)" name="a" value={a} onChange={(v) => set('a', v)} />
         <SetupPicker label="B (for instance your own setup)" name="b" value={b} onChange={(v) => set('b', v)} />
-        <label className="flex flex-col text-sm font-medium sm:w-40">
-          Timing read at
-          <span className="mt-1 flex items-center gap-1">
-            <input
-              type="number"
-              min={1000}
-              max={150000}
-              step={1000}
-              defaultValue={rpm ?? 20000}
-              onBlur={(e) => set('rpm', e.target.value)}
-              onKeyDown={(e) => e.key === 'Enter' && set('rpm', (e.target as HTMLInputElement).value)}
-              className="w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal tabular-nums"
-            />
-            <span className="font-normal text-ink-muted">rpm</span>
-          </span>
-        </label>
+        {/* Keyed by the URL's rpm: back, forward or a new link starts the field from the address again. */}
+        <RpmField key={rpm ?? 'default'} rpm={rpm} onCommit={(v) => set('rpm', v)} />
       </Card>
 
       {(!a || !b) && <p className="text-ink-soft">Choose two setups to compare: a published baseline and one of your uploads, or any two.</p>}
@@ -140,7 +165,7 @@ export function CompareView() {
                 Every field ({cmp.data.differences.length} {cmp.data.differences.length === 1 ? 'difference' : 'differences'})
               </h2>
               <label className="flex items-center gap-2 text-sm">
-                <input type="checkbox" checked={onlyChanged} onChange={(e) => setOnlyChanged(e.target.checked)} /> Show only differences
+                <input type="checkbox" checked={onlyChanged} onChange={(e) => set('only', e.target.checked ? 'changed' : '')} /> Show only differences
               </label>
             </div>
             <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
