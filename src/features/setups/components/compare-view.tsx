@@ -96,7 +96,8 @@ export function CompareView() {
         else next.delete(key);
         return next;
       },
-      { replace: key === 'rpm' || key === 'only' },
+      // The checkbox is controlled by the address: update it in the same frame as the click, not a tick later.
+      { replace: key === 'rpm' || key === 'only', flushSync: key === 'only' },
     );
   };
   const cmp = useQuery({ ...setupQueries.compare(a, b, rpm), enabled: !!a && !!b });
