@@ -133,39 +133,15 @@ class TermIndex<T> extends MiniSearch<T> {
 
 type FacetCounts = { type: Int32Array; class: Int32Array; surface: Int32Array; parameter: Int32Array };
 
-/**
- * Facet counts over the matching items. Each facet is counted with the other facets' filters
- * applied but not its own, so a reader can switch value. `flags` bits: 1 type, 2 class, 4 surface,
- * 8 parameter filter passed.
- */
-function countFacets(
-  docs: number[],
-  flags: number[],
-  items: { itemType: Int8Array; itemClass: Int8Array; itemSurface: Int8Array; itemParamCount: Uint8Array; itemParams: Uint16Array },
-  counts: FacetCounts,
-) {
-  const { type: cType, class: cClass, surface: cSurface, parameter: cParam } = counts;
-  const { itemType, itemClass, itemSurface, itemParamCount, itemParams } = items;
-  for (let i = 0; i < docs.length; i++) {
-    const doc = docs[i];
-    const f = flags[i];
-    if ((f & 14) === 14) cType[itemType[doc]]++;
-    const cls = itemClass[doc];
-    if ((f & 13) === 13 && cls >= 0) cClass[cls]++;
-    const surface = itemSurface[doc];
-    if ((f & 11) === 11 && surface >= 0) cSurface[surface]++;
-    if ((f & 7) === 7) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) cParam[itemParams[base + k]]++;
-  }
-}
-
 /** Per-item data kept in arrays indexed by MiniSearch's short id. */
 type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[] };
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
 type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
 const MAX_CACHED_TERMS = 4000;
-/** Parameters counted per item for facets (the guide schema allows 40). */
-const MAX_ITEM_PARAMS = 40;
+
+/** Bit planes of the parameter facet counter: counts up to 2^31 - 1 items. */
+const COUNT_PLANES = 31;
 
 type Derived = { term: string; data: FieldTermData; weight: number; bit: number; exact: boolean; typed: boolean };
 
@@ -187,13 +163,23 @@ export class SearchIndex {
   private hmask = new Int32Array(1024);
   /** 1 where a typed word (or its typo/prefix variant) matched, not only another name of it. */
   private typed = new Uint8Array(1024);
+  // Reused per query: the items touched by scoring, and the ones that pass the filters with their tier.
+  private touchedIds = new Int32Array(1024);
+  private candidateIds = new Int32Array(1024);
+  private candidateTiers = new Int32Array(1024);
+  private coverageKeys = new Int32Array(256);
+  private coverageValues = new Int32Array(256);
   // Per-item facet data in flat arrays (indexed by short id): the hot loops stay in cache.
   private alive = new Uint8Array(1024);
   private itemType = new Int8Array(1024);
   private itemClass = new Int8Array(1024);
   private itemSurface = new Int8Array(1024);
-  private itemParamCount = new Uint8Array(1024);
-  private itemParams = new Uint16Array(1024 * MAX_ITEM_PARAMS);
+  /**
+   * The parameters an item is about as a bit set of `paramWords` 32-bit words per item: the facet
+   * loop adds whole words into bit-sliced counters instead of bumping one counter per parameter.
+   */
+  private paramWords = 1;
+  private itemParamBits = new Int32Array(1024);
   private paramIndex = new Map<string, number>();
   private synonyms = new SynonymTable([]);
   private headline = new Map<string, number>();
@@ -263,6 +249,9 @@ export class SearchIndex {
     this.score = grow(this.score, (k) => new Float64Array(k));
     this.mask = grow(this.mask, (k) => new Int32Array(k));
     this.hmask = grow(this.hmask, (k) => new Int32Array(k));
+    this.touchedIds = new Int32Array(size);
+    this.candidateIds = new Int32Array(size);
+    this.candidateTiers = new Int32Array(size);
     const u8 = (a: Uint8Array, k = 1) => {
       const b = new Uint8Array(size * k);
       b.set(a);
@@ -275,13 +264,12 @@ export class SearchIndex {
     };
     this.typed = u8(this.typed);
     this.alive = u8(this.alive);
-    this.itemParamCount = u8(this.itemParamCount);
     this.itemType = i8(this.itemType);
     this.itemClass = i8(this.itemClass);
     this.itemSurface = i8(this.itemSurface);
-    const params = new Uint16Array(size * MAX_ITEM_PARAMS);
-    params.set(this.itemParams);
-    this.itemParams = params;
+    const params = new Int32Array(size * this.paramWords);
+    params.set(this.itemParamBits);
+    this.itemParamBits = params;
     this.lengths = this.lengths.map((a) => grow(a, (k) => new Float64Array(k)));
   }
 
@@ -290,8 +278,20 @@ export class SearchIndex {
     if (i === undefined) {
       i = this.paramIndex.size;
       this.paramIndex.set(slug, i);
+      if (i >= this.paramWords * 32) this.widenParamBits();
     }
     return i;
+  }
+
+  /** One more word per item for the parameter bit sets (every 32 distinct parameters). */
+  private widenParamBits() {
+    const from = this.paramWords;
+    const to = from + 1;
+    const size = this.itemParamBits.length / from;
+    const bits = new Int32Array(size * to);
+    for (let short = 0; short < size; short++) for (let w = 0; w < from; w++) bits[short * to + w] = this.itemParamBits[short * from + w];
+    this.paramWords = to;
+    this.itemParamBits = bits;
   }
 
   private attach(doc: SearchDocument) {
@@ -308,15 +308,16 @@ export class SearchIndex {
       type: TYPE_INDEX.get(doc.type) ?? 0,
       cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
       surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
-      params: [...new Set(doc.parameters)].slice(0, MAX_ITEM_PARAMS).map((p) => this.paramIdx(p)),
+      params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
     };
     this.slots[short] = slot;
     this.alive[short] = 1;
     this.itemType[short] = slot.type;
     this.itemClass[short] = slot.cls;
     this.itemSurface[short] = slot.surface;
-    this.itemParamCount[short] = slot.params.length;
-    slot.params.forEach((p, k) => (this.itemParams[short * MAX_ITEM_PARAMS + k] = p));
+    const words = this.paramWords;
+    this.itemParamBits.fill(0, short * words, (short + 1) * words);
+    for (const p of slot.params) this.itemParamBits[short * words + (p >>> 5)] |= 1 << (p & 31);
   }
 
   get size() {
@@ -486,46 +487,83 @@ export class SearchIndex {
     return flat;
   }
 
-  /** Scores every matching item into the flat arrays; returns the touched short ids. */
-  private scoreAll(derived: Derived[], fields: Field[], scope: string): number[] {
-    const touched: number[] = [];
-    const { score, mask, hmask, typed, alive } = this;
+  /**
+   * How many query groups a term mask covers (some form of the group has all its terms in the mask),
+   * as a function remembered per mask: the items of one query share a handful of masks. A small
+   * direct-mapped table, since a Map lookup per item costs more than the counting it saves.
+   */
+  private coverage(forms: Int32Array, formGroup: Int32Array) {
+    const keys = this.coverageKeys.fill(-1);
+    const values = this.coverageValues;
+    const slotMask = keys.length - 1;
+    return (m: number) => {
+      if (m === 0) return 0;
+      const h = (Math.imul(m, 0x9e3779b1) >>> 24) & slotMask;
+      if (keys[h] === m) return values[h];
+      let n = 0;
+      for (let k = 0; k < forms.length; ) {
+        const g = formGroup[k];
+        if ((m & forms[k]) === forms[k]) {
+          n++;
+          while (k < forms.length && formGroup[k] === g) k++; // on to the next group
+        } else k++;
+      }
+      keys[h] = m;
+      values[h] = n;
+      return n;
+    };
+  }
+
+  /**
+   * Scores every matching item into the flat arrays. The touched short ids go to `touchedIds`
+   * (a reused buffer, so a query allocates nothing per item); returns how many there are.
+   */
+  private scoreAll(derived: Derived[], fields: Field[], scope: string): number {
+    const { score, mask, hmask, typed, alive, touchedIds } = this;
+    let n = 0;
     for (const d of derived) {
       const p = this.flatten(d.term, d.data, fields, scope);
       const bit = 1 << d.bit;
       const w = d.weight;
       const isTyped = d.typed ? 1 : 0;
       const { docs, impact, headline } = p;
-      for (let i = 0; i < docs.length; i++) {
-        const doc = docs[i];
-        if (alive[doc] === 0) continue; // removed since these postings were flattened
-        if (score[doc] === 0 && typed[doc] === 0 && mask[doc] === 0) touched.push(doc);
-        score[doc] += w * impact[i];
-        typed[doc] |= isTyped;
-        if (d.exact) {
+      if (d.exact) {
+        for (let i = 0; i < docs.length; i++) {
+          const doc = docs[i];
+          if (alive[doc] === 0) continue; // removed since these postings were flattened
+          // Every impact and weight is positive, so a zero score means "not touched yet".
+          if (score[doc] === 0) touchedIds[n++] = doc;
+          score[doc] += w * impact[i];
+          typed[doc] |= isTyped;
           mask[doc] |= bit;
           if (headline[i]) hmask[doc] |= bit;
         }
+      } else {
+        for (let i = 0; i < docs.length; i++) {
+          const doc = docs[i];
+          if (alive[doc] === 0) continue;
+          if (score[doc] === 0) touchedIds[n++] = doc;
+          score[doc] += w * impact[i];
+          typed[doc] |= isTyped;
+        }
       }
     }
-    return touched;
+    return n;
   }
 
   private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean }) {
     const terms = toTerms(q);
     if (!terms.length) return null;
     const groups = this.synonyms.group(terms);
-    const { derived, forms, formGroup, groupCount } = this.derive(groups, opts);
-    const seenExact = new Int32Array(groupCount);
-    const seenHeadline = new Int32Array(groupCount);
+    const { derived, forms, formGroup } = this.derive(groups, opts);
     const named = new Set<number>();
     for (const g of groups)
       for (const slug of g.slugs) {
         const short = this.mini.shortId(docId('parameter', slug));
         if (short !== undefined) named.add(short);
       }
-    const touched = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
-    const { score, mask, hmask, typed, slots, itemType, itemClass, itemSurface, itemParamCount, itemParams } = this;
+    const touchedCount = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
+    const { score, mask, hmask, typed, slots, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
     for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
     const f = opts.filters ?? {};
@@ -533,69 +571,84 @@ export class SearchIndex {
     const fClass = f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1;
     const fSurface = f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1;
     const fParam = f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1;
-    const counts = {
+    const counts: FacetCounts = {
       type: new Int32Array(SEARCH_TYPES.length),
       class: new Int32Array(CLASSES.length),
       surface: new Int32Array(SURFACES.length),
       parameter: new Int32Array(this.paramIndex.size),
     };
-    const tiers = new Int32Array(touched.length);
-    let maxTier = 0;
+    const { type: cType, class: cClass, surface: cSurface, parameter: cParam } = counts;
+    const withFacets = opts.facets;
+    // The parameter facet is counted in bit-sliced form: plane j holds bit j of every parameter's count.
+    const planes = new Int32Array(paramWords * COUNT_PLANES);
+    const coverage = this.coverage(forms, formGroup);
     let anyExact = false;
-    const candidates: number[] = [];
-    const included: number[] = [];
-    const flags: number[] = [];
-    for (let i = 0; i < touched.length; i++) {
-      const doc = touched[i];
-      const m = mask[doc];
-      const hm = hmask[doc];
-      let exactGroups = 0;
-      let headlineGroups = 0;
-      // Stamp with i + 1 so the per-group arrays need no clearing between items.
-      const stamp = i + 1;
-      for (let k = 0; k < forms.length; k++) {
-        const fm = forms[k];
-        const g = formGroup[k];
-        if ((m & fm) === fm && seenExact[g] !== stamp) {
-          seenExact[g] = stamp;
-          exactGroups++;
-        }
-        if ((hm & fm) === fm && seenHeadline[g] !== stamp) {
-          seenHeadline[g] = stamp;
-          headlineGroups++;
-        }
-      }
+    let candidates = 0;
+    for (let i = 0; i < touchedCount; i++) {
+      const doc = touchedIds[i];
+      const exactGroups = coverage(mask[doc]);
       // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
       if (!exactGroups && !typed[doc]) continue;
       if (exactGroups) anyExact = true;
-      const okType = fType < 0 || itemType[doc] === fType;
-      const okClass = fClass < 0 || itemClass[doc] === fClass;
-      const okSurface = fSurface < 0 || itemSurface[doc] === fSurface;
-      let okParam = fParam < 0;
-      if (!okParam) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) if (itemParams[base + k] === fParam) okParam = true;
-      if (opts.facets) {
-        included.push(doc);
-        flags.push((okType ? 1 : 0) | (okClass ? 2 : 0) | (okSurface ? 4 : 0) | (okParam ? 8 : 0));
+      // -1: no filter; -2: a value nothing has (matches no item).
+      const okType = fType === -1 || itemType[doc] === fType;
+      const okClass = fClass === -1 || itemClass[doc] === fClass;
+      const okSurface = fSurface === -1 || itemSurface[doc] === fSurface;
+      const base = doc * paramWords;
+      const okParam = fParam === -1 || (fParam >= 0 && ((itemParamBits[base + (fParam >>> 5)] >>> (fParam & 31)) & 1) === 1);
+      if (withFacets) {
+        // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
+        if (okClass && okSurface && okParam) cType[itemType[doc]]++;
+        const cls = itemClass[doc];
+        if (cls >= 0 && okType && okSurface && okParam) cClass[cls]++;
+        const surface = itemSurface[doc];
+        if (surface >= 0 && okType && okClass && okParam) cSurface[surface]++;
+        if (okType && okClass && okSurface)
+          for (let w = 0; w < paramWords; w++) {
+            // Add the item's parameter word to the counters: a ripple carry, two steps on average.
+            let carry = itemParamBits[base + w];
+            for (let j = w * COUNT_PLANES; carry !== 0; j++) {
+              const next = planes[j] & carry;
+              planes[j] ^= carry;
+              carry = next;
+            }
+          }
       }
       if (okType && okClass && okSurface && okParam) {
-        const tier = exactGroups * 64 + headlineGroups;
-        tiers[candidates.length] = tier;
-        candidates.push(doc);
-        if (tier > maxTier) maxTier = tier;
+        candidateTiers[candidates] = exactGroups * 64 + coverage(hmask[doc]);
+        candidateIds[candidates++] = doc;
       }
     }
-    if (opts.facets) countFacets(included, flags, { itemType, itemClass, itemSurface, itemParamCount, itemParams }, counts);
+    if (withFacets)
+      for (let p = 0; p < cParam.length; p++) {
+        const from = (p >>> 5) * COUNT_PLANES;
+        const bit = p & 31;
+        let n = 0;
+        for (let j = 0; j < COUNT_PLANES; j++) n += ((planes[from + j] >>> bit) & 1) << j;
+        cParam[p] = n;
+      }
     // Only the page is ordered: keep the best `limit` by (tier, score) in a small sorted buffer.
     const page: Array<{ doc: number; tier: number }> = [];
-    const better = (tier: number, doc: number, than: { doc: number; tier: number }) => tier > than.tier || (tier === than.tier && score[doc] > score[than.doc]);
-    for (let i = 0; i < candidates.length; i++) {
-      const doc = candidates[i];
-      const tier = tiers[i];
-      if (page.length >= opts.limit && !better(tier, doc, page[page.length - 1])) continue;
+    const limit = opts.limit;
+    // The page's worst entry, kept in locals so most candidates are turned away with two comparisons.
+    let worstTier = -1;
+    let worstScore = -1;
+    for (let i = 0; i < candidates; i++) {
+      const doc = candidateIds[i];
+      const tier = candidateTiers[i];
+      const s = score[doc];
+      if (page.length >= limit && (tier < worstTier || (tier === worstTier && s <= worstScore))) continue;
       let at = page.length;
-      while (at > 0 && better(tier, doc, page[at - 1])) at--;
+      while (at > 0) {
+        const p = page[at - 1];
+        if (!(tier > p.tier || (tier === p.tier && s > score[p.doc]))) break;
+        at--;
+      }
       page.splice(at, 0, { doc, tier });
-      if (page.length > opts.limit) page.pop();
+      if (page.length > limit) page.pop();
+      const last = page[page.length - 1];
+      worstTier = last.tier;
+      worstScore = score[last.doc];
     }
     const results = page.map(({ doc, tier }) => {
       // Highlight the words typed (or their typo/prefix variants); other names only when none of those occur.
@@ -605,13 +658,14 @@ export class SearchIndex {
       const matched = typedTerms.size ? typedTerms : otherTerms;
       return { doc: slots[doc]!.doc, score: score[doc], exact: tier >= 64, matched };
     });
-    for (const doc of touched) {
+    for (let i = 0; i < touchedCount; i++) {
+      const doc = touchedIds[i];
       score[doc] = 0;
       mask[doc] = 0;
       hmask[doc] = 0;
       typed[doc] = 0;
     }
-    return { results, total: candidates.length, counts, anyExact };
+    return { results, total: candidates, counts, anyExact };
   }
 
   /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */
