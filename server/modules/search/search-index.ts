@@ -46,8 +46,10 @@ const WEIGHTS = { fuzzy: 0.35, prefix: 0.5 };
  */
 const KNOWN_WORD_DOCS = 5;
 const MAX_PREFIX_TERMS = 40;
-/** Query terms are tracked as bits of one 32-bit mask. */
+/** Query terms are tracked as bits of one 32-bit mask (bits 0-29)… */
 const MAX_QUERY_TERMS = 30;
+/** …and bit 30 marks an item where a typed word (or its typo/prefix variant) matched, not only another name of it. */
+const TYPED_BIT = 1 << 30;
 const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
 
 const CLASS_NAMES = new Map<string, string>(CLASSES.map((c) => [c.slug, c.name]));
@@ -62,34 +64,48 @@ const paramWords = (slug: string) => slug.replace(/-/g, ' ');
 
 type FieldTermData = Map<number, Map<number, number>>;
 
-const isWordChar = (c: string | undefined) => !!c && /[\p{L}\p{N}]/u.test(c);
+const LETTER_OR_DIGIT = /[\p{L}\p{N}]/u;
+/** A letter or digit in any script; ASCII is decided without the regular expression (the common case). */
+function isWordChar(c: string | undefined) {
+  if (!c) return false;
+  const code = c.charCodeAt(0);
+  if (code < 128) return (code >= 48 && code <= 57) || ((code | 32) >= 97 && (code | 32) <= 122);
+  return LETTER_OR_DIGIT.test(c);
+}
+
+/** A matched term's written forms: "3.2v" is also "3,2 v"; "battery" also "batteries". */
+function termNeedles(t: string) {
+  const num = /^(\d+(?:\.\d+)?)([a-z%°]+)$/.exec(t);
+  const needles = num ? [num[1], num[1].replace('.', ',')] : t.endsWith('y') ? [t, `${t.slice(0, -1)}ies`] : [t];
+  return { needles: [...new Set(needles)], unit: num ? num[2] : null };
+}
 
 /**
  * Where the written forms of index terms occur in `lower` (already lower-cased): "brake" finds
  * brake and brakes, "battery" batteries, "3.2v" both 3.2V and 3.2 V. indexOf scans are far cheaper
- * than a regex over a long body; the window chosen is tokenized properly afterwards.
+ * than a regex over a long body; the window chosen is tokenized properly afterwards. Each hit is
+ * packed as `at * terms.length + term` (term: its index in `terms`), so one numeric sort puts them in text order.
  */
-function findWords(lower: string, terms: Set<string>): Array<{ at: number; term: string }> {
-  const out: Array<{ at: number; term: string }> = [];
-  for (const t of terms) {
-    const num = /^(\d+(?:\.\d+)?)([a-z%°]+)$/.exec(t);
-    const needles = num ? [num[1], num[1].replace('.', ',')] : t.endsWith('y') ? [t, `${t.slice(0, -1)}ies`] : [t];
-    for (const needle of new Set(needles)) {
+function findWords(lower: string, terms: Array<{ needles: string[]; unit: string | null }>): number[] {
+  const out: number[] = [];
+  for (let ti = 0; ti < terms.length; ti++) {
+    const { needles, unit } = terms[ti];
+    for (const needle of needles) {
       for (let at = lower.indexOf(needle); at !== -1; at = lower.indexOf(needle, at + needle.length)) {
         if (isWordChar(lower[at - 1])) continue;
         let end = at + needle.length;
-        if (num) {
+        if (unit !== null) {
           if (lower[end] === ' ' || lower[end] === '-') end++;
-          if (!lower.startsWith(num[2], end)) continue;
-          end += num[2].length;
+          if (!lower.startsWith(unit, end)) continue;
+          end += unit.length;
         } else if (lower.startsWith('es', end) && !isWordChar(lower[end + 2])) end += 2;
         else if (lower[end] === 's' && !isWordChar(lower[end + 1])) end += 1;
         if (isWordChar(lower[end])) continue;
-        out.push({ at, term: t });
+        out.push(at * terms.length + ti);
       }
     }
   }
-  return out.sort((a, b) => a.at - b.at);
+  return out.sort((x, y) => x - y);
 }
 
 /**
@@ -133,39 +149,30 @@ class TermIndex<T> extends MiniSearch<T> {
 
 type FacetCounts = { type: Int32Array; class: Int32Array; surface: Int32Array; parameter: Int32Array };
 
-/**
- * Facet counts over the matching items. Each facet is counted with the other facets' filters
- * applied but not its own, so a reader can switch value. `flags` bits: 1 type, 2 class, 4 surface,
- * 8 parameter filter passed.
- */
-function countFacets(
-  docs: number[],
-  flags: number[],
-  items: { itemType: Int8Array; itemClass: Int8Array; itemSurface: Int8Array; itemParamCount: Uint8Array; itemParams: Uint16Array },
-  counts: FacetCounts,
-) {
-  const { type: cType, class: cClass, surface: cSurface, parameter: cParam } = counts;
-  const { itemType, itemClass, itemSurface, itemParamCount, itemParams } = items;
-  for (let i = 0; i < docs.length; i++) {
-    const doc = docs[i];
-    const f = flags[i];
-    if ((f & 14) === 14) cType[itemType[doc]]++;
-    const cls = itemClass[doc];
-    if ((f & 13) === 13 && cls >= 0) cClass[cls]++;
-    const surface = itemSurface[doc];
-    if ((f & 11) === 11 && surface >= 0) cSurface[surface]++;
-    if ((f & 7) === 7) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) cParam[itemParams[base + k]]++;
-  }
-}
-
 /** Per-item data kept in arrays indexed by MiniSearch's short id. */
-type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[] };
+type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[]; snippet: SnippetSource[] };
+
+/** A text a snippet can be cut from: the summary or the body, with any literal mark tags removed. */
+type SnippetSource = { text: string; cells: number[] };
+const NO_CELLS: number[] = [];
+
+/** The texts a snippet is cut from, prepared once when the item is indexed. */
+function snippetSources(doc: SearchDocument): SnippetSource[] {
+  return [doc.summary, doc.body].filter(Boolean).map((raw) => {
+    const text = raw.replace(/<\/?mark>/gi, '');
+    // Where table cells (joined with " · ") are, so a snippet can prefer prose to table rows.
+    const cells: number[] = [];
+    for (let at = text.indexOf(' · '); at !== -1; at = text.indexOf(' · ', at + 3)) cells.push(at);
+    return { text, cells: cells.length ? cells : NO_CELLS };
+  });
+}
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
 type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
 const MAX_CACHED_TERMS = 4000;
-/** Parameters counted per item for facets (the guide schema allows 40). */
-const MAX_ITEM_PARAMS = 40;
+
+/** Bit planes of the parameter facet counter: counts up to 2^31 - 1 items. */
+const COUNT_PLANES = 31;
 
 type Derived = { term: string; data: FieldTermData; weight: number; bit: number; exact: boolean; typed: boolean };
 
@@ -185,16 +192,28 @@ export class SearchIndex {
   private score = new Float64Array(1024);
   private mask = new Int32Array(1024);
   private hmask = new Int32Array(1024);
-  /** 1 where a typed word (or its typo/prefix variant) matched, not only another name of it. */
-  private typed = new Uint8Array(1024);
+  // Reused per query: the items touched by scoring, and the ones that pass the filters with their tier.
+  private touchedIds = new Int32Array(1024);
+  private candidateIds = new Int32Array(1024);
+  private candidateTiers = new Int32Array(1024);
+  /** One past the highest short id given out (MiniSearch gives each added item a new one). */
+  private idLimit = 0;
+  private coverageKeys = new Int32Array(256);
+  private coverageValues = new Int32Array(256);
   // Per-item facet data in flat arrays (indexed by short id): the hot loops stay in cache.
   private alive = new Uint8Array(1024);
   private itemType = new Int8Array(1024);
   private itemClass = new Int8Array(1024);
   private itemSurface = new Int8Array(1024);
-  private itemParamCount = new Uint8Array(1024);
-  private itemParams = new Uint16Array(1024 * MAX_ITEM_PARAMS);
+  /**
+   * The parameters an item is about as a bit set of `paramWords` 32-bit words per item: the facet
+   * loop adds whole words into bit-sliced counters instead of bumping one counter per parameter.
+   */
+  private paramWords = 1;
+  private itemParamBits = new Int32Array(1024);
   private paramIndex = new Map<string, number>();
+  /** The slugs of paramIndex by their number. */
+  private paramSlugs: string[] = [];
   private synonyms = new SynonymTable([]);
   private headline = new Map<string, number>();
   private flat = new Map<string, FlatPostings>();
@@ -263,6 +282,9 @@ export class SearchIndex {
     this.score = grow(this.score, (k) => new Float64Array(k));
     this.mask = grow(this.mask, (k) => new Int32Array(k));
     this.hmask = grow(this.hmask, (k) => new Int32Array(k));
+    this.touchedIds = new Int32Array(size);
+    this.candidateIds = new Int32Array(size);
+    this.candidateTiers = new Int32Array(size);
     const u8 = (a: Uint8Array, k = 1) => {
       const b = new Uint8Array(size * k);
       b.set(a);
@@ -273,15 +295,13 @@ export class SearchIndex {
       b.set(a);
       return b;
     };
-    this.typed = u8(this.typed);
     this.alive = u8(this.alive);
-    this.itemParamCount = u8(this.itemParamCount);
     this.itemType = i8(this.itemType);
     this.itemClass = i8(this.itemClass);
     this.itemSurface = i8(this.itemSurface);
-    const params = new Uint16Array(size * MAX_ITEM_PARAMS);
-    params.set(this.itemParams);
-    this.itemParams = params;
+    const params = new Int32Array(size * this.paramWords);
+    params.set(this.itemParamBits);
+    this.itemParamBits = params;
     this.lengths = this.lengths.map((a) => grow(a, (k) => new Float64Array(k)));
   }
 
@@ -290,8 +310,21 @@ export class SearchIndex {
     if (i === undefined) {
       i = this.paramIndex.size;
       this.paramIndex.set(slug, i);
+      this.paramSlugs.push(slug);
+      if (i >= this.paramWords * 32) this.widenParamBits();
     }
     return i;
+  }
+
+  /** One more word per item for the parameter bit sets (every 32 distinct parameters). */
+  private widenParamBits() {
+    const from = this.paramWords;
+    const to = from + 1;
+    const size = this.itemParamBits.length / from;
+    const bits = new Int32Array(size * to);
+    for (let short = 0; short < size; short++) for (let w = 0; w < from; w++) bits[short * to + w] = this.itemParamBits[short * from + w];
+    this.paramWords = to;
+    this.itemParamBits = bits;
   }
 
   private attach(doc: SearchDocument) {
@@ -301,6 +334,7 @@ export class SearchIndex {
     for (const t of this.headlineTerms(doc)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
     const short = this.mini.shortId(id)!;
     this.grow(short + 1);
+    this.idLimit = Math.max(this.idLimit, short + 1);
     const lens = this.mini.fieldLengths(short) ?? [];
     FIELDS.forEach((f, i) => (this.lengths[i][short] = lens[this.mini.fieldId(f)] ?? 0));
     const slot: Slot = {
@@ -308,15 +342,17 @@ export class SearchIndex {
       type: TYPE_INDEX.get(doc.type) ?? 0,
       cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
       surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
-      params: [...new Set(doc.parameters)].slice(0, MAX_ITEM_PARAMS).map((p) => this.paramIdx(p)),
+      params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
+      snippet: snippetSources(doc),
     };
     this.slots[short] = slot;
     this.alive[short] = 1;
     this.itemType[short] = slot.type;
     this.itemClass[short] = slot.cls;
     this.itemSurface[short] = slot.surface;
-    this.itemParamCount[short] = slot.params.length;
-    slot.params.forEach((p, k) => (this.itemParams[short * MAX_ITEM_PARAMS + k] = p));
+    const words = this.paramWords;
+    this.itemParamBits.fill(0, short * words, (short + 1) * words);
+    for (const p of slot.params) this.itemParamBits[short * words + (p >>> 5)] |= 1 << (p & 31);
   }
 
   get size() {
@@ -335,6 +371,7 @@ export class SearchIndex {
     this.params.clear();
     this.docs.clear();
     this.slots = [];
+    this.idLimit = 0;
     this.alive.fill(0);
     this.headline.clear();
     const unique = new Map(docs.map((d) => [docId(d.type, d.slug), d]));
@@ -486,137 +523,236 @@ export class SearchIndex {
     return flat;
   }
 
-  /** Scores every matching item into the flat arrays; returns the touched short ids. */
-  private scoreAll(derived: Derived[], fields: Field[], scope: string): number[] {
-    const touched: number[] = [];
-    const { score, mask, hmask, typed, alive } = this;
-    for (const d of derived) {
-      const p = this.flatten(d.term, d.data, fields, scope);
-      const bit = 1 << d.bit;
-      const w = d.weight;
-      const isTyped = d.typed ? 1 : 0;
-      const { docs, impact, headline } = p;
-      for (let i = 0; i < docs.length; i++) {
-        const doc = docs[i];
-        if (alive[doc] === 0) continue; // removed since these postings were flattened
-        if (score[doc] === 0 && typed[doc] === 0 && mask[doc] === 0) touched.push(doc);
-        score[doc] += w * impact[i];
-        typed[doc] |= isTyped;
-        if (d.exact) {
-          mask[doc] |= bit;
-          if (headline[i]) hmask[doc] |= bit;
-        }
+  /**
+   * How many query groups a term mask covers (some form of the group has all its terms in the mask),
+   * as a function remembered per mask: the items of one query share a handful of masks. A small
+   * direct-mapped table, since a Map lookup per item costs more than the counting it saves.
+   */
+  private coverage(forms: Int32Array, formGroup: Int32Array) {
+    const keys = this.coverageKeys.fill(-1);
+    const values = this.coverageValues;
+    const slotMask = keys.length - 1;
+    return (m: number) => {
+      if (m === 0) return 0;
+      const h = (Math.imul(m, 0x9e3779b1) >>> 24) & slotMask;
+      if (keys[h] === m) return values[h];
+      let n = 0;
+      for (let k = 0; k < forms.length; ) {
+        const g = formGroup[k];
+        if ((m & forms[k]) === forms[k]) {
+          n++;
+          while (k < forms.length && formGroup[k] === g) k++; // on to the next group
+        } else k++;
       }
-    }
-    return touched;
+      keys[h] = m;
+      values[h] = n;
+      return n;
+    };
   }
 
-  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean }) {
+  /**
+   * Scores every matching item into the flat arrays. The touched short ids go to `touchedIds`
+   * (a reused buffer, so a query allocates nothing per item); returns how many there are.
+   */
+  private scoreAll(derived: Derived[], fields: Field[], scope: string): number {
+    const { score, mask, hmask, touchedIds } = this;
+    let n = 0;
+    for (const d of derived) {
+      const p = this.flatten(d.term, d.data, fields, scope);
+      const bit = d.exact ? 1 << d.bit : 0;
+      const typedBit = d.typed ? TYPED_BIT : 0;
+      const w = d.weight;
+      const { docs, impact, headline } = p;
+      // Items removed since these postings were flattened are scored too and dropped once, in run().
+      for (let i = 0; i < docs.length; i++) {
+        const doc = docs[i];
+        // Every impact and weight is positive, so a zero score means "not touched yet".
+        if (score[doc] === 0) touchedIds[n++] = doc;
+        score[doc] += w * impact[i];
+        mask[doc] |= bit | typedBit;
+        if (headline[i]) hmask[doc] |= bit;
+      }
+    }
+    return n;
+  }
+
+
+  /** `highlight`: say which terms each hit holds (for snippets; only with every field searched). */
+  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean; highlight?: boolean }) {
     const terms = toTerms(q);
     if (!terms.length) return null;
     const groups = this.synonyms.group(terms);
-    const { derived, forms, formGroup, groupCount } = this.derive(groups, opts);
-    const seenExact = new Int32Array(groupCount);
-    const seenHeadline = new Int32Array(groupCount);
+    const { derived, forms, formGroup } = this.derive(groups, opts);
     const named = new Set<number>();
     for (const g of groups)
       for (const slug of g.slugs) {
         const short = this.mini.shortId(docId('parameter', slug));
         if (short !== undefined) named.add(short);
       }
-    const touched = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
-    const { score, mask, hmask, typed, slots, itemType, itemClass, itemSurface, itemParamCount, itemParams } = this;
+    const touchedCount = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
+    const { score, mask, slots } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
     for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
     const f = opts.filters ?? {};
-    const fType = f.type ? (TYPE_INDEX.get(f.type) ?? -2) : -1;
-    const fClass = f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1;
-    const fSurface = f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1;
-    const fParam = f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1;
-    const counts = {
+    // -1: no filter; -2: a value nothing has (matches no item).
+    const filter = {
+      type: f.type ? (TYPE_INDEX.get(f.type) ?? -2) : -1,
+      class: f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1,
+      surface: f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1,
+      parameter: f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1,
+    };
+    const counts: FacetCounts = {
       type: new Int32Array(SEARCH_TYPES.length),
       class: new Int32Array(CLASSES.length),
       surface: new Int32Array(SURFACES.length),
       parameter: new Int32Array(this.paramIndex.size),
     };
-    const tiers = new Int32Array(touched.length);
-    let maxTier = 0;
-    let anyExact = false;
-    const candidates: number[] = [];
-    const included: number[] = [];
-    const flags: number[] = [];
-    for (let i = 0; i < touched.length; i++) {
-      const doc = touched[i];
-      const m = mask[doc];
-      const hm = hmask[doc];
-      let exactGroups = 0;
-      let headlineGroups = 0;
-      // Stamp with i + 1 so the per-group arrays need no clearing between items.
-      const stamp = i + 1;
-      for (let k = 0; k < forms.length; k++) {
-        const fm = forms[k];
-        const g = formGroup[k];
-        if ((m & fm) === fm && seenExact[g] !== stamp) {
-          seenExact[g] = stamp;
-          exactGroups++;
-        }
-        if ((hm & fm) === fm && seenHeadline[g] !== stamp) {
-          seenHeadline[g] = stamp;
-          headlineGroups++;
-        }
-      }
-      // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
-      if (!exactGroups && !typed[doc]) continue;
-      if (exactGroups) anyExact = true;
-      const okType = fType < 0 || itemType[doc] === fType;
-      const okClass = fClass < 0 || itemClass[doc] === fClass;
-      const okSurface = fSurface < 0 || itemSurface[doc] === fSurface;
-      let okParam = fParam < 0;
-      if (!okParam) for (let k = 0, base = doc * MAX_ITEM_PARAMS, n = itemParamCount[doc]; k < n; k++) if (itemParams[base + k] === fParam) okParam = true;
-      if (opts.facets) {
-        included.push(doc);
-        flags.push((okType ? 1 : 0) | (okClass ? 2 : 0) | (okSurface ? 4 : 0) | (okParam ? 8 : 0));
-      }
-      if (okType && okClass && okSurface && okParam) {
-        const tier = exactGroups * 64 + headlineGroups;
-        tiers[candidates.length] = tier;
-        candidates.push(doc);
-        if (tier > maxTier) maxTier = tier;
-      }
-    }
-    if (opts.facets) countFacets(included, flags, { itemType, itemClass, itemSurface, itemParamCount, itemParams }, counts);
-    // Only the page is ordered: keep the best `limit` by (tier, score) in a small sorted buffer.
-    const page: Array<{ doc: number; tier: number }> = [];
-    const better = (tier: number, doc: number, than: { doc: number; tier: number }) => tier > than.tier || (tier === than.tier && score[doc] > score[than.doc]);
-    for (let i = 0; i < candidates.length; i++) {
-      const doc = candidates[i];
-      const tier = tiers[i];
-      if (page.length >= opts.limit && !better(tier, doc, page[page.length - 1])) continue;
-      let at = page.length;
-      while (at > 0 && better(tier, doc, page[at - 1])) at--;
-      page.splice(at, 0, { doc, tier });
-      if (page.length > opts.limit) page.pop();
-    }
-    const results = page.map(({ doc, tier }) => {
-      // Highlight the words typed (or their typo/prefix variants); other names only when none of those occur.
-      const typedTerms = new Set<string>();
-      const otherTerms = new Set<string>();
-      for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) (d.typed ? typedTerms : otherTerms).add(d.term);
-      const matched = typedTerms.size ? typedTerms : otherTerms;
-      return { doc: slots[doc]!.doc, score: score[doc], exact: tier >= 64, matched };
+    const { candidates, anyExact } = this.collect(touchedCount, this.coverage(forms, formGroup), filter, opts.facets ? counts : null);
+    const results = this.selectPage(candidates, opts.limit).map(({ doc, tier }) => {
+      const slot = slots[doc]!;
+      const matched = opts.highlight ? this.termsIn(derived, doc, mask[doc]) : new Set<string>();
+      return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
     });
-    for (const doc of touched) {
+    this.clearScores(touchedCount);
+    return { results, total: candidates, counts, anyExact };
+  }
+
+  /**
+   * One pass over the touched items: drops removed items and those only another name reached
+   * partly, applies the filters, counts the facets (when `counts` is given) and writes the
+   * candidates with their tier to candidateIds/candidateTiers. Kept apart from run() so its loop is
+   * optimised on its own (a rarely taken branch elsewhere in a long function kept the whole of it
+   * falling back to the interpreter).
+   */
+  private collect(touchedCount: number, coverage: (m: number) => number, filter: { type: number; class: number; surface: number; parameter: number }, counts: FacetCounts | null) {
+    const { mask, hmask, alive, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
+    const { type: fType, class: fClass, surface: fSurface, parameter: fParam } = filter;
+    // Filters are tested with `|` on both sides, so every comparison runs whatever the filter.
+    const anyType = fType === -1 ? 1 : 0;
+    const anyClass = fClass === -1 ? 1 : 0;
+    const anySurface = fSurface === -1 ? 1 : 0;
+    const anyParam = fParam === -1 ? 1 : 0;
+    const paramWord = fParam >= 0 ? fParam >>> 5 : 0;
+    const paramBit = fParam >= 0 ? fParam & 31 : 0;
+    const paramKnown = fParam >= 0 ? 1 : 0;
+    const withFacets = counts !== null;
+    const cType = counts?.type ?? new Int32Array(0);
+    const cClass = counts?.class ?? new Int32Array(0);
+    const cSurface = counts?.surface ?? new Int32Array(0);
+    // The parameter facet is counted in bit-sliced form: plane j holds bit j of every parameter's count.
+    const planes = new Int32Array(paramWords * COUNT_PLANES);
+    let anyExact = false;
+    let candidates = 0;
+    for (let i = 0; i < touchedCount; i++) {
+      const doc = touchedIds[i];
+      if (alive[doc] === 0) continue; // removed since its postings were flattened
+      const m = mask[doc];
+      const exactGroups = coverage(m);
+      // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
+      if (!exactGroups && (m & TYPED_BIT) === 0) continue;
+      if (exactGroups) anyExact = true;
+      const base = doc * paramWords;
+      const okType = anyType | (itemType[doc] === fType ? 1 : 0);
+      const okClass = anyClass | (itemClass[doc] === fClass ? 1 : 0);
+      const okSurface = anySurface | (itemSurface[doc] === fSurface ? 1 : 0);
+      const okParam = anyParam | (paramKnown & (itemParamBits[base + paramWord] >>> paramBit));
+      if (withFacets) {
+        // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
+        if (okClass & okSurface & okParam) cType[itemType[doc]]++;
+        const cls = itemClass[doc];
+        if (cls >= 0 && okType & okSurface & okParam) cClass[cls]++;
+        const surface = itemSurface[doc];
+        if (surface >= 0 && okType & okClass & okParam) cSurface[surface]++;
+        if (okType & okClass & okSurface)
+          for (let w = 0; w < paramWords; w++) {
+            // Add the item's parameter word to the counters: a ripple carry, two steps on average.
+            let carry = itemParamBits[base + w];
+            for (let j = w * COUNT_PLANES; carry !== 0; j++) {
+              const next = planes[j] & carry;
+              planes[j] ^= carry;
+              carry = next;
+            }
+          }
+      }
+      if (okType & okClass & okSurface & okParam) {
+        candidateTiers[candidates] = exactGroups * 64 + coverage(hmask[doc]);
+        candidateIds[candidates++] = doc;
+      }
+    }
+    if (counts)
+      for (let p = 0; p < counts.parameter.length; p++) {
+        const from = (p >>> 5) * COUNT_PLANES;
+        const bit = p & 31;
+        let n = 0;
+        for (let j = 0; j < COUNT_PLANES; j++) n += ((planes[from + j] >>> bit) & 1) << j;
+        counts.parameter[p] = n;
+      }
+    return { candidates, anyExact };
+  }
+
+  /** The best `limit` candidates by (tier, score), kept in a small sorted buffer: only the page is ordered. */
+  private selectPage(candidates: number, limit: number) {
+    const { score, candidateIds, candidateTiers } = this;
+    const page: Array<{ doc: number; tier: number }> = [];
+    // The page's worst entry, kept in locals so most candidates are turned away with two comparisons.
+    let worstTier = -1;
+    let worstScore = -1;
+    for (let i = 0; i < candidates; i++) {
+      const doc = candidateIds[i];
+      const tier = candidateTiers[i];
+      const s = score[doc];
+      if (page.length >= limit && (tier < worstTier || (tier === worstTier && s <= worstScore))) continue;
+      let at = page.length;
+      while (at > 0) {
+        const p = page[at - 1];
+        if (!(tier > p.tier || (tier === p.tier && s > score[p.doc]))) break;
+        at--;
+      }
+      page.splice(at, 0, { doc, tier });
+      if (page.length > limit) page.pop();
+      const last = page[page.length - 1];
+      worstTier = last.tier;
+      worstScore = score[last.doc];
+    }
+    return page;
+  }
+
+  /**
+   * The terms a hit holds, for its snippet: the words typed (or their typo/prefix variants), else
+   * the other names. Scoring already noted each exact term's bit in `m` (over every field); only
+   * typo and prefix variants need a look-up.
+   */
+  private termsIn(derived: Derived[], doc: number, m: number) {
+    const typedTerms = new Set<string>();
+    const otherTerms = new Set<string>();
+    for (const d of derived) {
+      const holds = d.exact ? ((m >>> d.bit) & 1) === 1 : [...d.data.values()].some((postings) => postings.has(doc));
+      if (holds) (d.typed ? typedTerms : otherTerms).add(d.term);
+    }
+    return typedTerms.size ? typedTerms : otherTerms;
+  }
+
+  /** Back to all zeros for the next query. */
+  private clearScores(touchedCount: number) {
+    const { score, mask, hmask, touchedIds } = this;
+    if (touchedCount * 4 > this.idLimit) {
+      // Most items were touched: clearing whole ranges is cheaper than one store per item and array.
+      score.fill(0, 0, this.idLimit);
+      mask.fill(0, 0, this.idLimit);
+      hmask.fill(0, 0, this.idLimit);
+      return;
+    }
+    for (let i = 0; i < touchedCount; i++) {
+      const doc = touchedIds[i];
       score[doc] = 0;
       mask[doc] = 0;
       hmask[doc] = 0;
-      typed[doc] = 0;
     }
-    return { results, total: candidates.length, counts, anyExact };
   }
 
   /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */
   search(q: string, filters: SearchFilters = {}, limit = 10): IndexSearchResult {
-    const r = this.run(q, { filters, limit, facets: true });
+    const r = this.run(q, { filters, limit, facets: true, highlight: true });
     const empty = { type: [], class: [], surface: [], parameter: [] };
     if (!r) return { hits: [], facets: empty, total: 0 };
     const hits: SearchHit[] = r.results.map((x) => ({
@@ -625,7 +761,7 @@ export class SearchIndex {
       title: x.doc.title,
       url: x.doc.url,
       score: Math.round(x.score * 1000) / 1000,
-      snippet: this.snippet(x.doc, x.matched),
+      snippet: this.snippet(x.snippet, x.matched),
       exact: x.exact,
     }));
     const list = (arr: Int32Array, value: (i: number) => string, label: (v: string) => string) =>
@@ -634,7 +770,7 @@ export class SearchIndex {
         .filter((x) => x.count > 0)
         .sort((a, b) => b.count - a.count || a.value.localeCompare(b.value))
         .map((x) => ({ value: x.value, label: label(x.value), count: x.count }));
-    const paramSlugs = [...this.paramIndex.keys()];
+    const { paramSlugs } = this;
     const facets: SearchFacets = {
       type: list(
         r.counts.type,
@@ -654,7 +790,7 @@ export class SearchIndex {
       parameter: list(
         r.counts.parameter,
         (i) => paramSlugs[i],
-        (v) => this.docs.get(docId('parameter', v))?.title ?? paramWords(v),
+        (v) => this.params.get(v)?.title ?? paramWords(v),
       ),
     };
     const didYouMean = r.anyExact ? undefined : this.didYouMean(q);
@@ -671,24 +807,41 @@ export class SearchIndex {
   /**
    * A short passage with the matched words wrapped in <mark>…</mark>. The passage is plain text
    * with any literal mark tags removed, so the client can split on them and render text nodes only.
+   * `sources`: the item's summary and body as kept for snippets (see snippetSources).
    */
-  snippet(doc: SearchDocument, matched: Set<string>, width = 220): string {
-    const sources = [doc.summary, doc.body].filter(Boolean).map((s) => s.replace(/<\/?mark>/gi, ''));
+  private snippet(sources: SnippetSource[], matched: Set<string>, width = 220): string {
     if (!sources.length) return '';
+    const terms = [...matched].map(termNeedles);
+    const K = terms.length || 1;
+    const seen = new Int32Array(terms.length);
     // Find candidate places cheaply, then tokenize only the chosen window.
-    let best = { text: sources[0], from: 0, score: -1 };
-    for (const [i, text] of sources.entries()) {
-      const hits = findWords(text.toLowerCase(), matched);
+    let best = { text: sources[0].text, from: 0, score: -1 };
+    for (let i = 0; i < sources.length; i++) {
+      const { text, cells: cellAt } = sources[i];
+      const lower = text.toLowerCase();
+      const hits = findWords(lower, terms);
       if (!hits.length && best.score < 0) best = { text, from: 0, score: 0 };
       // The window of `width` characters holding the most distinct matched words, then the most hits.
-      for (let a = 0, b = 0; a < hits.length; a++) {
-        while (b < hits.length && hits[b].at < hits[a].at + width) b++;
-        const distinct = new Set(hits.slice(a, b).map((h) => h.term)).size;
+      for (let a = 0, b = 0, c0 = 0, c1 = 0; a < hits.length; a++) {
+        const from = Math.floor(hits[a] / K);
+        while (b < hits.length && Math.floor(hits[b] / K) < from + width) b++;
+        let distinct = 0;
+        for (let k = a; k < b; k++) {
+          const t = hits[k] % K;
+          if (seen[t] !== a + 1) {
+            seen[t] = a + 1;
+            distinct++;
+          }
+        }
         // Prefer prose to table rows (cells are joined with " · ") when they hold as many words.
-        const cells = text.slice(hits[a].at, hits[a].at + width).split(' · ').length - 1;
+        while (c0 < cellAt.length && cellAt[c0] < from) c0++;
+        if (c1 < c0) c1 = c0;
+        while (c1 < cellAt.length && cellAt[c1] + 3 <= from + width) c1++;
+        const cells = c1 - c0;
         const score = distinct * 100 + (b - a) - 3 * cells + (i === 0 ? 1 : 0);
-        if (score > best.score) best = { text, from: hits[a].at, score };
+        if (score > best.score) best = { text, from, score };
       }
+      seen.fill(0);
     }
     const { text } = best;
     let start = Math.max(0, best.from - 60);
@@ -704,7 +857,10 @@ export class SearchIndex {
     const window = text.slice(start, end);
     let out = start > 0 ? '…' : '';
     let pos = 0;
+    // A term keeps its token's first character (processTerm only trims endings), so most tokens are ruled out by it.
+    const firsts = [...matched].map((t) => t.charCodeAt(0));
     for (const s of tokenizeWithSpans(window)) {
+      if (!firsts.includes(s.token.charCodeAt(0))) continue;
       const term = processTerm(s.token);
       if (!term || !matched.has(term)) continue;
       out += window.slice(pos, s.start) + '<mark>' + window.slice(s.start, s.end) + '</mark>';
