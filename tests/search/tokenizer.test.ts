@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { processTerm, tokenize, tokenizeWithSpans, toTerms } from '../../server/modules/search/tokenizer';
+import { processTerm, scanTokens, tokenize, tokenizeWithSpans, toTerms } from '../../server/modules/search/tokenizer';
+import { rng } from '../bench/search-corpus';
 import { markdownToText } from '../../server/modules/search/markdown-text';
 import { editDistance } from '../../server/modules/search/spelling';
 import { snippetSegments } from '../../shared/schemas/search';
@@ -74,6 +75,36 @@ describe('markdownToText', () => {
     expect(text).toContain('brake worked example');
     expect(text).toContain('Text after the example counts too.');
     expect(text).not.toMatch(/[#*[\]|]|dragBrakePct|initial-brake\)/);
+  });
+});
+
+describe('scanTokens', () => {
+  // The specification the hand-written scanner follows (see tokenizer.ts), run by the regex engine itself.
+  const SPEC = /\d+\/\d+|\d+(?:[.,]\d+)*[a-z%°]*|°[cf]?|%|[\p{L}\p{N}]+(?:['’][\p{L}]+)?/gu;
+  const bySpec = (lower: string) => [...lower.matchAll(SPEC)].map((m) => [m.index, m.index + m[0].length]);
+  const byScanner = (lower: string) => {
+    const out: number[][] = [];
+    scanTokens(lower, (start, end) => out.push([start, end]));
+    return out;
+  };
+
+  it('finds the same tokens as the regular expression it replaces, in any script', () => {
+    for (const text of [
+      '17.5t buggy on 2s at 3.2v, 1/10 scale; 12,000 rpm; 1/ 5 /8 3.2.1 4,5,6t 7.v',
+      '18 °c or 64°f at 30%; °x % 5%%',
+      'maker’s advice, don\'t; rock\'n\'roll ’quote’ it\'s1',
+      'ærø straße ½ ² ٣ µs 中文 żółw ж日本 𝐀𝐁 😀x \ud800 a\udc00b',
+      '', ' ', '...', "'s", '1', 'a',
+    ])
+      expect(byScanner(text), text).toEqual(bySpec(text));
+    // And on many random strings from an alphabet of the awkward cases.
+    const alphabet = [..."ab s1 2.5,v-'’°%/cé 12,000 kv ies ss²½٣µßﬁ\u0301ωж中·", '𝐀', '😀', '\ud800', '\udc00', '1/', '.5', ',5'];
+    const r = rng(42);
+    for (let i = 0; i < 3000; i++) {
+      let text = '';
+      for (let k = 0, n = 1 + Math.floor(r() * 24); k < n; k++) text += alphabet[Math.floor(r() * alphabet.length)];
+      expect(byScanner(text), JSON.stringify(text)).toEqual(bySpec(text));
+    }
   });
 });
 

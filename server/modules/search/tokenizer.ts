@@ -38,7 +38,103 @@ const UNIT_WORDS = new Set([
   '°f',
 ]);
 
-const RAW = /\d+\/\d+|\d+(?:[.,]\d+)*[a-z%°]*|°[cf]?|%|[\p{L}\p{N}]+(?:['’][\p{L}]+)?/gu;
+/*
+ * Raw tokens, as the regular expression
+ *   /\d+\/\d+|\d+(?:[.,]\d+)*[a-z%°]*|°[cf]?|%|[\p{L}\p{N}]+(?:['’][\p{L}]+)?/gu
+ * would find them in lower-cased text: scales (1/10), numbers with their unit letters (17.5t, 3.2v),
+ * degrees, percent, and words in any script (with one apostrophe part: "maker’s"). Scanned by hand
+ * because a Unicode-property regular expression costs about ten times as much per word, and this
+ * runs over every indexed text and every snippet; tests/search/tokenizer.test.ts holds the two equal.
+ */
+const LETTER = /^\p{L}$/u;
+const LETTER_OR_NUMBER = /^[\p{L}\p{N}]$/u;
+const nonAsciiClass = new Map<number, number>();
+
+/** 1 for a letter, 2 for a number (any script), 0 otherwise; ASCII without a regular expression. */
+function charClass(code: number): number {
+  if (code < 128) return (code | 32) >= 97 && (code | 32) <= 122 ? 1 : code >= 48 && code <= 57 ? 2 : 0;
+  let c = nonAsciiClass.get(code);
+  if (c === undefined) {
+    const ch = String.fromCodePoint(code);
+    c = LETTER.test(ch) ? 1 : LETTER_OR_NUMBER.test(ch) ? 2 : 0;
+    if (nonAsciiClass.size < 10_000) nonAsciiClass.set(code, c);
+  }
+  return c;
+}
+
+/** The code point at `i` (a surrogate pair read whole, as the `u` flag does) and its length in UTF-16 units. */
+function codePointAt(s: string, i: number): [number, number] {
+  const code = s.codePointAt(i) ?? 0;
+  return [code, code > 0xffff ? 2 : 1];
+}
+
+/** Length of the run of letters (`withNumbers`: or numbers) starting at `i`. */
+function wordRun(s: string, i: number, withNumbers: boolean): number {
+  let j = i;
+  while (j < s.length) {
+    const [code, len] = codePointAt(s, j);
+    const c = charClass(code);
+    if (c === 1 || (withNumbers && c === 2)) j += len;
+    else break;
+  }
+  return j - i;
+}
+
+const isUnitLetter = (code: number) => (code >= 97 && code <= 122) || code === 37 || code === 176; // a-z % °
+
+/** Calls `emit(start, end)` for each raw token of `lower` (already lower-cased), in order. */
+export function scanTokens(lower: string, emit: (start: number, end: number) => void) {
+  const n = lower.length;
+  const at = (i: number) => (i < n ? lower.charCodeAt(i) : -1);
+  let p = 0;
+  while (p < n) {
+    const code = lower.charCodeAt(p);
+    if (isDigit(code)) {
+      let q = p + 1;
+      while (isDigit(at(q))) q++;
+      if (at(q) === 47 && isDigit(at(q + 1))) {
+        // 1/10
+        q += 2;
+        while (isDigit(at(q))) q++;
+      } else {
+        // 17.5t, 12,000, 3.2v, 30%
+        while ((at(q) === 46 || at(q) === 44) && isDigit(at(q + 1))) {
+          q += 2;
+          while (isDigit(at(q))) q++;
+        }
+        while (isUnitLetter(at(q))) q++;
+      }
+      emit(p, q);
+      p = q;
+      continue;
+    }
+    if (code === 176) {
+      // °, °c, °f
+      const q = at(p + 1) === 99 || at(p + 1) === 102 ? p + 2 : p + 1;
+      emit(p, q);
+      p = q;
+      continue;
+    }
+    if (code === 37) {
+      emit(p, p + 1);
+      p++;
+      continue;
+    }
+    const word = wordRun(lower, p, true);
+    if (word) {
+      let q = p + word;
+      const next = at(q);
+      if (next === 39 || next === 0x2019) {
+        const tail = wordRun(lower, q + 1, false);
+        if (tail) q += 1 + tail;
+      }
+      emit(p, q);
+      p = q;
+      continue;
+    }
+    p += codePointAt(lower, p)[1];
+  }
+}
 
 const STOP_WORDS = new Set(
   (
@@ -48,6 +144,13 @@ const STOP_WORDS = new Set(
     'need want make makes mean means meaning'
   ).split(' '),
 );
+
+const isDigit = (code: number) => code >= 48 && code <= 57;
+
+function hasDigit(s: string) {
+  for (let i = 0; i < s.length; i++) if (isDigit(s.charCodeAt(i))) return true;
+  return false;
+}
 
 function normaliseNumber(raw: string) {
   // "12,000" is a thousands separator; "17,5T" is a decimal comma.
@@ -63,21 +166,20 @@ function normaliseNumber(raw: string) {
 export function tokenizeWithSpans(text: string): TokenSpan[] {
   const lower = text.toLowerCase();
   const out: TokenSpan[] = [];
-  for (const m of lower.matchAll(RAW)) {
-    let token = m[0];
-    const start = m.index;
-    const end = start + token.length;
-    if (/^\d/.test(token) && !token.includes('/')) token = normaliseNumber(token);
-    token = token.replace(/['’]s$/, '').replace(/['’]/g, '');
+  scanTokens(lower, (start, end) => {
+    let token = lower.slice(start, end);
+    // Plain checks before the regular expressions: this loop runs for every word indexed and every snippet.
+    if (isDigit(token.charCodeAt(0)) && !token.includes('/')) token = normaliseNumber(token);
+    if (token.includes("'") || token.includes('’')) token = token.replace(/['’]s$/, '').replace(/['’]/g, '');
     const prev = out[out.length - 1];
     // Join "3.2 V", "4-pole", "18 °C" into one token when a bare number is followed by a unit word.
-    if (prev && /^\d+(\.\d+)?$/.test(prev.token) && UNIT_WORDS.has(token) && start - prev.end <= 1 && /^[ -]?$/.test(lower.slice(prev.end, start))) {
+    if (prev && UNIT_WORDS.has(token) && start - prev.end <= 1 && /^\d+(\.\d+)?$/.test(prev.token) && /^[ -]?$/.test(lower.slice(prev.end, start))) {
       prev.token += token === 'poles' ? 'pole' : token;
       prev.end = end;
-      continue;
+      return;
     }
     out.push({ token, start, end });
-  }
+  });
   return out;
 }
 
@@ -92,7 +194,7 @@ export function tokenize(text: string): string[] {
  */
 export function processTerm(token: string): string | null {
   if (!token) return null;
-  if (/\d/.test(token)) return token;
+  if (hasDigit(token)) return token;
   if (STOP_WORDS.has(token)) return null;
   if (token.length > 4 && token.endsWith('ies')) return token.slice(0, -3) + 'y';
   if (token.length > 3 && token.endsWith('s') && !/(ss|us|is)$/.test(token)) return token.slice(0, -1);
@@ -111,5 +213,5 @@ export function toTerms(text: string): string[] {
 
 /** True when a term is a trade token with digits (`17.5t`, `2s`, `1/10`): never fuzzy-matched. */
 export function isNumericTerm(term: string) {
-  return /\d/.test(term);
+  return hasDigit(term);
 }
