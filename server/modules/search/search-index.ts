@@ -62,34 +62,48 @@ const paramWords = (slug: string) => slug.replace(/-/g, ' ');
 
 type FieldTermData = Map<number, Map<number, number>>;
 
-const isWordChar = (c: string | undefined) => !!c && /[\p{L}\p{N}]/u.test(c);
+const LETTER_OR_DIGIT = /[\p{L}\p{N}]/u;
+/** A letter or digit in any script; ASCII is decided without the regular expression (the common case). */
+function isWordChar(c: string | undefined) {
+  if (!c) return false;
+  const code = c.charCodeAt(0);
+  if (code < 128) return (code >= 48 && code <= 57) || ((code | 32) >= 97 && (code | 32) <= 122);
+  return LETTER_OR_DIGIT.test(c);
+}
+
+/** A matched term's written forms: "3.2v" is also "3,2 v"; "battery" also "batteries". */
+function termNeedles(t: string) {
+  const num = /^(\d+(?:\.\d+)?)([a-z%°]+)$/.exec(t);
+  const needles = num ? [num[1], num[1].replace('.', ',')] : t.endsWith('y') ? [t, `${t.slice(0, -1)}ies`] : [t];
+  return { needles: [...new Set(needles)], unit: num ? num[2] : null };
+}
 
 /**
  * Where the written forms of index terms occur in `lower` (already lower-cased): "brake" finds
  * brake and brakes, "battery" batteries, "3.2v" both 3.2V and 3.2 V. indexOf scans are far cheaper
- * than a regex over a long body; the window chosen is tokenized properly afterwards.
+ * than a regex over a long body; the window chosen is tokenized properly afterwards. Each hit is
+ * packed as `at * terms.length + term` (term: its index in `terms`), so one numeric sort puts them in text order.
  */
-function findWords(lower: string, terms: Set<string>): Array<{ at: number; term: string }> {
-  const out: Array<{ at: number; term: string }> = [];
-  for (const t of terms) {
-    const num = /^(\d+(?:\.\d+)?)([a-z%°]+)$/.exec(t);
-    const needles = num ? [num[1], num[1].replace('.', ',')] : t.endsWith('y') ? [t, `${t.slice(0, -1)}ies`] : [t];
-    for (const needle of new Set(needles)) {
+function findWords(lower: string, terms: Array<{ needles: string[]; unit: string | null }>): number[] {
+  const out: number[] = [];
+  for (let ti = 0; ti < terms.length; ti++) {
+    const { needles, unit } = terms[ti];
+    for (const needle of needles) {
       for (let at = lower.indexOf(needle); at !== -1; at = lower.indexOf(needle, at + needle.length)) {
         if (isWordChar(lower[at - 1])) continue;
         let end = at + needle.length;
-        if (num) {
+        if (unit !== null) {
           if (lower[end] === ' ' || lower[end] === '-') end++;
-          if (!lower.startsWith(num[2], end)) continue;
-          end += num[2].length;
+          if (!lower.startsWith(unit, end)) continue;
+          end += unit.length;
         } else if (lower.startsWith('es', end) && !isWordChar(lower[end + 2])) end += 2;
         else if (lower[end] === 's' && !isWordChar(lower[end + 1])) end += 1;
         if (isWordChar(lower[end])) continue;
-        out.push({ at, term: t });
+        out.push(at * terms.length + ti);
       }
     }
   }
-  return out.sort((a, b) => a.at - b.at);
+  return out.sort((x, y) => x - y);
 }
 
 /**
@@ -134,7 +148,10 @@ class TermIndex<T> extends MiniSearch<T> {
 type FacetCounts = { type: Int32Array; class: Int32Array; surface: Int32Array; parameter: Int32Array };
 
 /** Per-item data kept in arrays indexed by MiniSearch's short id. */
-type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[] };
+type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[]; snippetText: string[] };
+
+/** The texts a snippet is cut from, with any literal mark tags removed (done once, when the item is indexed). */
+const snippetText = (doc: SearchDocument) => [doc.summary, doc.body].filter(Boolean).map((s) => s.replace(/<\/?mark>/gi, ''));
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
 type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
@@ -309,6 +326,7 @@ export class SearchIndex {
       cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
       surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
       params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
+      snippetText: snippetText(doc),
     };
     this.slots[short] = slot;
     this.alive[short] = 1;
@@ -318,6 +336,12 @@ export class SearchIndex {
     const words = this.paramWords;
     this.itemParamBits.fill(0, short * words, (short + 1) * words);
     for (const p of slot.params) this.itemParamBits[short * words + (p >>> 5)] |= 1 << (p & 31);
+  }
+
+  private slotOf(doc: SearchDocument) {
+    const short = this.mini.shortId(docId(doc.type, doc.slug));
+    const slot = short === undefined ? undefined : this.slots[short];
+    return slot?.doc === doc ? slot : undefined;
   }
 
   get size() {
@@ -727,22 +751,42 @@ export class SearchIndex {
    * with any literal mark tags removed, so the client can split on them and render text nodes only.
    */
   snippet(doc: SearchDocument, matched: Set<string>, width = 220): string {
-    const sources = [doc.summary, doc.body].filter(Boolean).map((s) => s.replace(/<\/?mark>/gi, ''));
+    const sources = this.slotOf(doc)?.snippetText ?? snippetText(doc);
     if (!sources.length) return '';
+    const terms = [...matched].map(termNeedles);
+    const K = terms.length || 1;
+    const seen = new Int32Array(terms.length);
     // Find candidate places cheaply, then tokenize only the chosen window.
     let best = { text: sources[0], from: 0, score: -1 };
-    for (const [i, text] of sources.entries()) {
-      const hits = findWords(text.toLowerCase(), matched);
+    for (let i = 0; i < sources.length; i++) {
+      const text = sources[i];
+      const lower = text.toLowerCase();
+      const hits = findWords(lower, terms);
       if (!hits.length && best.score < 0) best = { text, from: 0, score: 0 };
+      // Table cells are joined with " · ": where they are, found once per text.
+      const cellAt: number[] = [];
+      if (hits.length) for (let at = text.indexOf(' · '); at !== -1; at = text.indexOf(' · ', at + 3)) cellAt.push(at);
       // The window of `width` characters holding the most distinct matched words, then the most hits.
-      for (let a = 0, b = 0; a < hits.length; a++) {
-        while (b < hits.length && hits[b].at < hits[a].at + width) b++;
-        const distinct = new Set(hits.slice(a, b).map((h) => h.term)).size;
+      for (let a = 0, b = 0, c0 = 0, c1 = 0; a < hits.length; a++) {
+        const from = Math.floor(hits[a] / K);
+        while (b < hits.length && Math.floor(hits[b] / K) < from + width) b++;
+        let distinct = 0;
+        for (let k = a; k < b; k++) {
+          const t = hits[k] % K;
+          if (seen[t] !== a + 1) {
+            seen[t] = a + 1;
+            distinct++;
+          }
+        }
         // Prefer prose to table rows (cells are joined with " · ") when they hold as many words.
-        const cells = text.slice(hits[a].at, hits[a].at + width).split(' · ').length - 1;
+        while (c0 < cellAt.length && cellAt[c0] < from) c0++;
+        if (c1 < c0) c1 = c0;
+        while (c1 < cellAt.length && cellAt[c1] + 3 <= from + width) c1++;
+        const cells = c1 - c0;
         const score = distinct * 100 + (b - a) - 3 * cells + (i === 0 ? 1 : 0);
-        if (score > best.score) best = { text, from: hits[a].at, score };
+        if (score > best.score) best = { text, from, score };
       }
+      seen.fill(0);
     }
     const { text } = best;
     let start = Math.max(0, best.from - 60);
