@@ -148,10 +148,22 @@ class TermIndex<T> extends MiniSearch<T> {
 type FacetCounts = { type: Int32Array; class: Int32Array; surface: Int32Array; parameter: Int32Array };
 
 /** Per-item data kept in arrays indexed by MiniSearch's short id. */
-type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[]; snippetText: string[] };
+type Slot = { doc: SearchDocument; type: number; cls: number; surface: number; params: number[]; snippet: SnippetSource[] };
 
-/** The texts a snippet is cut from, with any literal mark tags removed (done once, when the item is indexed). */
-const snippetText = (doc: SearchDocument) => [doc.summary, doc.body].filter(Boolean).map((s) => s.replace(/<\/?mark>/gi, ''));
+/** A text a snippet can be cut from: the summary or the body, with any literal mark tags removed. */
+type SnippetSource = { text: string; cells: number[] };
+const NO_CELLS: number[] = [];
+
+/** The texts a snippet is cut from, prepared once when the item is indexed. */
+function snippetSources(doc: SearchDocument): SnippetSource[] {
+  return [doc.summary, doc.body].filter(Boolean).map((raw) => {
+    const text = raw.replace(/<\/?mark>/gi, '');
+    // Where table cells (joined with " · ") are, so a snippet can prefer prose to table rows.
+    const cells: number[] = [];
+    for (let at = text.indexOf(' · '); at !== -1; at = text.indexOf(' · ', at + 3)) cells.push(at);
+    return { text, cells: cells.length ? cells : NO_CELLS };
+  });
+}
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
 type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
@@ -326,7 +338,7 @@ export class SearchIndex {
       cls: doc.class ? (CLASS_INDEX.get(doc.class) ?? -1) : -1,
       surface: doc.surface ? (SURFACE_INDEX.get(doc.surface) ?? -1) : -1,
       params: [...new Set(doc.parameters)].map((p) => this.paramIdx(p)),
-      snippetText: snippetText(doc),
+      snippet: snippetSources(doc),
     };
     this.slots[short] = slot;
     this.alive[short] = 1;
@@ -336,12 +348,6 @@ export class SearchIndex {
     const words = this.paramWords;
     this.itemParamBits.fill(0, short * words, (short + 1) * words);
     for (const p of slot.params) this.itemParamBits[short * words + (p >>> 5)] |= 1 << (p & 31);
-  }
-
-  private slotOf(doc: SearchDocument) {
-    const short = this.mini.shortId(docId(doc.type, doc.slug));
-    const slot = short === undefined ? undefined : this.slots[short];
-    return slot?.doc === doc ? slot : undefined;
   }
 
   get size() {
@@ -680,7 +686,8 @@ export class SearchIndex {
       const otherTerms = new Set<string>();
       for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) (d.typed ? typedTerms : otherTerms).add(d.term);
       const matched = typedTerms.size ? typedTerms : otherTerms;
-      return { doc: slots[doc]!.doc, score: score[doc], exact: tier >= 64, matched };
+      const slot = slots[doc]!;
+      return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
     });
     for (let i = 0; i < touchedCount; i++) {
       const doc = touchedIds[i];
@@ -703,7 +710,7 @@ export class SearchIndex {
       title: x.doc.title,
       url: x.doc.url,
       score: Math.round(x.score * 1000) / 1000,
-      snippet: this.snippet(x.doc, x.matched),
+      snippet: this.snippet(x.snippet, x.matched),
       exact: x.exact,
     }));
     const list = (arr: Int32Array, value: (i: number) => string, label: (v: string) => string) =>
@@ -749,23 +756,20 @@ export class SearchIndex {
   /**
    * A short passage with the matched words wrapped in <mark>…</mark>. The passage is plain text
    * with any literal mark tags removed, so the client can split on them and render text nodes only.
+   * `sources`: the item's summary and body as kept for snippets (see snippetSources).
    */
-  snippet(doc: SearchDocument, matched: Set<string>, width = 220): string {
-    const sources = this.slotOf(doc)?.snippetText ?? snippetText(doc);
+  private snippet(sources: SnippetSource[], matched: Set<string>, width = 220): string {
     if (!sources.length) return '';
     const terms = [...matched].map(termNeedles);
     const K = terms.length || 1;
     const seen = new Int32Array(terms.length);
     // Find candidate places cheaply, then tokenize only the chosen window.
-    let best = { text: sources[0], from: 0, score: -1 };
+    let best = { text: sources[0].text, from: 0, score: -1 };
     for (let i = 0; i < sources.length; i++) {
-      const text = sources[i];
+      const { text, cells: cellAt } = sources[i];
       const lower = text.toLowerCase();
       const hits = findWords(lower, terms);
       if (!hits.length && best.score < 0) best = { text, from: 0, score: 0 };
-      // Table cells are joined with " · ": where they are, found once per text.
-      const cellAt: number[] = [];
-      if (hits.length) for (let at = text.indexOf(' · '); at !== -1; at = text.indexOf(' · ', at + 3)) cellAt.push(at);
       // The window of `width` characters holding the most distinct matched words, then the most hits.
       for (let a = 0, b = 0, c0 = 0, c1 = 0; a < hits.length; a++) {
         const from = Math.floor(hits[a] / K);
@@ -802,7 +806,10 @@ export class SearchIndex {
     const window = text.slice(start, end);
     let out = start > 0 ? '…' : '';
     let pos = 0;
+    // A term keeps its token's first character (processTerm only trims endings), so most tokens are ruled out by it.
+    const firsts = [...matched].map((t) => t.charCodeAt(0));
     for (const s of tokenizeWithSpans(window)) {
+      if (!firsts.includes(s.token.charCodeAt(0))) continue;
       const term = processTerm(s.token);
       if (!term || !matched.has(term)) continue;
       out += window.slice(pos, s.start) + '<mark>' + window.slice(s.start, s.end) + '</mark>';

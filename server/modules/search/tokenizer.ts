@@ -82,27 +82,27 @@ function wordRun(s: string, i: number, withNumbers: boolean): number {
 
 const isUnitLetter = (code: number) => (code >= 97 && code <= 122) || code === 37 || code === 176; // a-z % °
 
-/** Calls `emit(start, end)` for each raw token of `lower` (already lower-cased), in order. */
-export function scanTokens(lower: string, emit: (start: number, end: number) => void) {
+/** Calls `emit(start, end, apostrophe)` for each raw token of `lower` (already lower-cased), in order. */
+export function scanTokens(lower: string, emit: (start: number, end: number, apostrophe?: boolean) => void) {
   const n = lower.length;
-  const at = (i: number) => (i < n ? lower.charCodeAt(i) : -1);
+  // charCodeAt past the end is NaN, which fails every test below, as the end of text should.
   let p = 0;
   while (p < n) {
     const code = lower.charCodeAt(p);
     if (isDigit(code)) {
       let q = p + 1;
-      while (isDigit(at(q))) q++;
-      if (at(q) === 47 && isDigit(at(q + 1))) {
+      while (isDigit(lower.charCodeAt(q))) q++;
+      if (lower.charCodeAt(q) === 47 && isDigit(lower.charCodeAt(q + 1))) {
         // 1/10
         q += 2;
-        while (isDigit(at(q))) q++;
+        while (isDigit(lower.charCodeAt(q))) q++;
       } else {
         // 17.5t, 12,000, 3.2v, 30%
-        while ((at(q) === 46 || at(q) === 44) && isDigit(at(q + 1))) {
+        while ((lower.charCodeAt(q) === 46 || lower.charCodeAt(q) === 44) && isDigit(lower.charCodeAt(q + 1))) {
           q += 2;
-          while (isDigit(at(q))) q++;
+          while (isDigit(lower.charCodeAt(q))) q++;
         }
-        while (isUnitLetter(at(q))) q++;
+        while (isUnitLetter(lower.charCodeAt(q))) q++;
       }
       emit(p, q);
       p = q;
@@ -110,7 +110,7 @@ export function scanTokens(lower: string, emit: (start: number, end: number) => 
     }
     if (code === 176) {
       // °, °c, °f
-      const q = at(p + 1) === 99 || at(p + 1) === 102 ? p + 2 : p + 1;
+      const q = lower.charCodeAt(p + 1) === 99 || lower.charCodeAt(p + 1) === 102 ? p + 2 : p + 1;
       emit(p, q);
       p = q;
       continue;
@@ -123,10 +123,15 @@ export function scanTokens(lower: string, emit: (start: number, end: number) => 
     const word = wordRun(lower, p, true);
     if (word) {
       let q = p + word;
-      const next = at(q);
+      const next = lower.charCodeAt(q);
       if (next === 39 || next === 0x2019) {
         const tail = wordRun(lower, q + 1, false);
-        if (tail) q += 1 + tail;
+        if (tail) {
+          q += 1 + tail;
+          emit(p, q, true);
+          p = q;
+          continue;
+        }
       }
       emit(p, q);
       p = q;
@@ -166,14 +171,21 @@ function normaliseNumber(raw: string) {
 export function tokenizeWithSpans(text: string): TokenSpan[] {
   const lower = text.toLowerCase();
   const out: TokenSpan[] = [];
-  scanTokens(lower, (start, end) => {
+  scanTokens(lower, (start, end, apostrophe) => {
     let token = lower.slice(start, end);
     // Plain checks before the regular expressions: this loop runs for every word indexed and every snippet.
     if (isDigit(token.charCodeAt(0)) && !token.includes('/')) token = normaliseNumber(token);
-    if (token.includes("'") || token.includes('’')) token = token.replace(/['’]s$/, '').replace(/['’]/g, '');
+    if (apostrophe) token = token.replace(/['’]s$/, '').replace(/['’]/g, '');
     const prev = out[out.length - 1];
     // Join "3.2 V", "4-pole", "18 °C" into one token when a bare number is followed by a unit word.
-    if (prev && UNIT_WORDS.has(token) && start - prev.end <= 1 && /^\d+(\.\d+)?$/.test(prev.token) && /^[ -]?$/.test(lower.slice(prev.end, start))) {
+    if (
+      prev &&
+      start - prev.end <= 1 &&
+      isDigit(prev.token.charCodeAt(0)) &&
+      UNIT_WORDS.has(token) &&
+      /^\d+(\.\d+)?$/.test(prev.token) &&
+      /^[ -]?$/.test(lower.slice(prev.end, start))
+    ) {
       prev.token += token === 'poles' ? 'pole' : token;
       prev.end = end;
       return;
