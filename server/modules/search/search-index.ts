@@ -46,8 +46,10 @@ const WEIGHTS = { fuzzy: 0.35, prefix: 0.5 };
  */
 const KNOWN_WORD_DOCS = 5;
 const MAX_PREFIX_TERMS = 40;
-/** Query terms are tracked as bits of one 32-bit mask. */
+/** Query terms are tracked as bits of one 32-bit mask (bits 0-29)… */
 const MAX_QUERY_TERMS = 30;
+/** …and bit 30 marks an item where a typed word (or its typo/prefix variant) matched, not only another name of it. */
+const TYPED_BIT = 1 << 30;
 const BM25 = { k: 1.2, b: 0.7, d: 0.5 };
 
 const CLASS_NAMES = new Map<string, string>(CLASSES.map((c) => [c.slug, c.name]));
@@ -190,12 +192,12 @@ export class SearchIndex {
   private score = new Float64Array(1024);
   private mask = new Int32Array(1024);
   private hmask = new Int32Array(1024);
-  /** 1 where a typed word (or its typo/prefix variant) matched, not only another name of it. */
-  private typed = new Uint8Array(1024);
   // Reused per query: the items touched by scoring, and the ones that pass the filters with their tier.
   private touchedIds = new Int32Array(1024);
   private candidateIds = new Int32Array(1024);
   private candidateTiers = new Int32Array(1024);
+  /** One past the highest short id given out (MiniSearch gives each added item a new one). */
+  private idLimit = 0;
   private coverageKeys = new Int32Array(256);
   private coverageValues = new Int32Array(256);
   // Per-item facet data in flat arrays (indexed by short id): the hot loops stay in cache.
@@ -210,6 +212,8 @@ export class SearchIndex {
   private paramWords = 1;
   private itemParamBits = new Int32Array(1024);
   private paramIndex = new Map<string, number>();
+  /** The slugs of paramIndex by their number. */
+  private paramSlugs: string[] = [];
   private synonyms = new SynonymTable([]);
   private headline = new Map<string, number>();
   private flat = new Map<string, FlatPostings>();
@@ -291,7 +295,6 @@ export class SearchIndex {
       b.set(a);
       return b;
     };
-    this.typed = u8(this.typed);
     this.alive = u8(this.alive);
     this.itemType = i8(this.itemType);
     this.itemClass = i8(this.itemClass);
@@ -307,6 +310,7 @@ export class SearchIndex {
     if (i === undefined) {
       i = this.paramIndex.size;
       this.paramIndex.set(slug, i);
+      this.paramSlugs.push(slug);
       if (i >= this.paramWords * 32) this.widenParamBits();
     }
     return i;
@@ -330,6 +334,7 @@ export class SearchIndex {
     for (const t of this.headlineTerms(doc)) this.headline.set(t, (this.headline.get(t) ?? 0) + 1);
     const short = this.mini.shortId(id)!;
     this.grow(short + 1);
+    this.idLimit = Math.max(this.idLimit, short + 1);
     const lens = this.mini.fieldLengths(short) ?? [];
     FIELDS.forEach((f, i) => (this.lengths[i][short] = lens[this.mini.fieldId(f)] ?? 0));
     const slot: Slot = {
@@ -366,6 +371,7 @@ export class SearchIndex {
     this.params.clear();
     this.docs.clear();
     this.slots = [];
+    this.idLimit = 0;
     this.alive.fill(0);
     this.headline.clear();
     const unique = new Map(docs.map((d) => [docId(d.type, d.slug), d]));
@@ -549,37 +555,27 @@ export class SearchIndex {
    * (a reused buffer, so a query allocates nothing per item); returns how many there are.
    */
   private scoreAll(derived: Derived[], fields: Field[], scope: string): number {
-    const { score, mask, hmask, typed, alive, touchedIds } = this;
+    const { score, mask, hmask, touchedIds } = this;
     let n = 0;
     for (const d of derived) {
       const p = this.flatten(d.term, d.data, fields, scope);
-      const bit = 1 << d.bit;
+      const bit = d.exact ? 1 << d.bit : 0;
+      const typedBit = d.typed ? TYPED_BIT : 0;
       const w = d.weight;
-      const isTyped = d.typed ? 1 : 0;
       const { docs, impact, headline } = p;
-      if (d.exact) {
-        for (let i = 0; i < docs.length; i++) {
-          const doc = docs[i];
-          if (alive[doc] === 0) continue; // removed since these postings were flattened
-          // Every impact and weight is positive, so a zero score means "not touched yet".
-          if (score[doc] === 0) touchedIds[n++] = doc;
-          score[doc] += w * impact[i];
-          typed[doc] |= isTyped;
-          mask[doc] |= bit;
-          if (headline[i]) hmask[doc] |= bit;
-        }
-      } else {
-        for (let i = 0; i < docs.length; i++) {
-          const doc = docs[i];
-          if (alive[doc] === 0) continue;
-          if (score[doc] === 0) touchedIds[n++] = doc;
-          score[doc] += w * impact[i];
-          typed[doc] |= isTyped;
-        }
+      // Items removed since these postings were flattened are scored too and dropped once, in run().
+      for (let i = 0; i < docs.length; i++) {
+        const doc = docs[i];
+        // Every impact and weight is positive, so a zero score means "not touched yet".
+        if (score[doc] === 0) touchedIds[n++] = doc;
+        score[doc] += w * impact[i];
+        mask[doc] |= bit | typedBit;
+        if (headline[i]) hmask[doc] |= bit;
       }
     }
     return n;
   }
+
 
   private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean }) {
     const terms = toTerms(q);
@@ -593,7 +589,7 @@ export class SearchIndex {
         if (short !== undefined) named.add(short);
       }
     const touchedCount = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
-    const { score, mask, hmask, typed, slots, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
+    const { score, mask, hmask, alive, slots, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
     for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
     const f = opts.filters ?? {};
@@ -616,9 +612,11 @@ export class SearchIndex {
     let candidates = 0;
     for (let i = 0; i < touchedCount; i++) {
       const doc = touchedIds[i];
-      const exactGroups = coverage(mask[doc]);
+      if (alive[doc] === 0) continue; // removed since its postings were flattened
+      const m = mask[doc];
+      const exactGroups = coverage(m);
       // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
-      if (!exactGroups && !typed[doc]) continue;
+      if (!exactGroups && (m & TYPED_BIT) === 0) continue;
       if (exactGroups) anyExact = true;
       // -1: no filter; -2: a value nothing has (matches no item).
       const okType = fType === -1 || itemType[doc] === fType;
@@ -689,13 +687,18 @@ export class SearchIndex {
       const slot = slots[doc]!;
       return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
     });
-    for (let i = 0; i < touchedCount; i++) {
-      const doc = touchedIds[i];
-      score[doc] = 0;
-      mask[doc] = 0;
-      hmask[doc] = 0;
-      typed[doc] = 0;
-    }
+    if (touchedCount * 4 > this.idLimit) {
+      // Most items were touched: clearing whole ranges is cheaper than one store per item and array.
+      score.fill(0, 0, this.idLimit);
+      mask.fill(0, 0, this.idLimit);
+      hmask.fill(0, 0, this.idLimit);
+    } else
+      for (let i = 0; i < touchedCount; i++) {
+        const doc = touchedIds[i];
+        score[doc] = 0;
+        mask[doc] = 0;
+        hmask[doc] = 0;
+      }
     return { results, total: candidates, counts, anyExact };
   }
 
@@ -719,7 +722,7 @@ export class SearchIndex {
         .filter((x) => x.count > 0)
         .sort((a, b) => b.count - a.count || a.value.localeCompare(b.value))
         .map((x) => ({ value: x.value, label: label(x.value), count: x.count }));
-    const paramSlugs = [...this.paramIndex.keys()];
+    const { paramSlugs } = this;
     const facets: SearchFacets = {
       type: list(
         r.counts.type,
