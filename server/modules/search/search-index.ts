@@ -577,7 +577,8 @@ export class SearchIndex {
   }
 
 
-  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean }) {
+  /** `highlight`: say which terms each hit holds (for snippets; only with every field searched). */
+  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean; highlight?: boolean }) {
     const terms = toTerms(q);
     if (!terms.length) return null;
     const groups = this.synonyms.group(terms);
@@ -682,7 +683,12 @@ export class SearchIndex {
       // Highlight the words typed (or their typo/prefix variants); other names only when none of those occur.
       const typedTerms = new Set<string>();
       const otherTerms = new Set<string>();
-      for (const d of derived) for (const postings of d.data.values()) if (postings.has(doc)) (d.typed ? typedTerms : otherTerms).add(d.term);
+      if (opts.highlight) {
+        // Scoring already noted each exact term's bit (over every field); only typo and prefix variants need a look-up.
+        const m = mask[doc];
+        for (const d of derived)
+          if (d.exact ? (m >>> d.bit) & 1 : [...d.data.values()].some((postings) => postings.has(doc))) (d.typed ? typedTerms : otherTerms).add(d.term);
+      }
       const matched = typedTerms.size ? typedTerms : otherTerms;
       const slot = slots[doc]!;
       return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
@@ -704,7 +710,7 @@ export class SearchIndex {
 
   /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */
   search(q: string, filters: SearchFilters = {}, limit = 10): IndexSearchResult {
-    const r = this.run(q, { filters, limit, facets: true });
+    const r = this.run(q, { filters, limit, facets: true, highlight: true });
     const empty = { type: [], class: [], surface: [], parameter: [] };
     if (!r) return { hits: [], facets: empty, total: 0 };
     const hits: SearchHit[] = r.results.map((x) => ({
@@ -742,7 +748,7 @@ export class SearchIndex {
       parameter: list(
         r.counts.parameter,
         (i) => paramSlugs[i],
-        (v) => this.docs.get(docId('parameter', v))?.title ?? paramWords(v),
+        (v) => this.params.get(v)?.title ?? paramWords(v),
       ),
     };
     const didYouMean = r.anyExact ? undefined : this.didYouMean(q);
