@@ -1,9 +1,16 @@
 // `npm run bench:search`: how fast and how good our in-memory search is on a large corpus, next to
 // PostgreSQL full-text search on the same corpus and queries. Prints figures; it is not a timed test.
+//
+// BENCH_BASELINE=<git revision> npm run bench:search also runs that revision's search code on the same
+// corpus in this process, query by query in turn with ours, and prints both with their ratio: on a
+// shared machine the load average moves absolute figures far more than it moves a ratio.
 import 'reflect-metadata';
+import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { isDeepStrictEqual } from 'node:util';
 import v8 from 'node:v8';
 import vm from 'node:vm';
 import pg from 'pg';
@@ -16,6 +23,7 @@ v8.setFlagsFromString('--expose-gc');
 const gc = vm.runInNewContext('gc') as () => void;
 
 const GUIDES = Number(process.env.BENCH_GUIDES ?? 10_000);
+const BASELINE = process.env.BENCH_BASELINE;
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 20);
 const TARGETS = { p95Ms: 2, updateMs: 10, buildMs: 10_000, heapMb: 300 };
 
@@ -73,6 +81,44 @@ async function hitRateAsync(search: (q: string) => Promise<string[]>) {
   const ranked = new Map<string, string[]>();
   for (const { q } of QUALITY_QUERIES) ranked.set(q, await search(q));
   return hitRate((q) => ranked.get(q)!);
+}
+
+type Index = Pick<SearchIndex, 'load' | 'search'>;
+
+/** The search index class of another revision (its search module and shared/), unpacked under .test-artifacts/. */
+async function baselineIndex(rev: string): Promise<new () => Index> {
+  const commit = execFileSync('git', ['rev-parse', '--verify', `${rev}^{commit}`], { encoding: 'utf8' }).trim();
+  const dir = path.resolve('.test-artifacts', 'bench-baseline', commit);
+  if (!fs.existsSync(dir)) {
+    fs.mkdirSync(dir, { recursive: true });
+    const tar = execFileSync('git', ['archive', '--format=tar', commit, 'server/modules/search', 'shared'], { maxBuffer: 256 * 1024 * 1024 });
+    execFileSync('tar', ['-x', '-C', dir], { input: tar });
+  }
+  const mod = (await import(pathToFileURL(path.join(dir, 'server/modules/search/search-index.ts')).href)) as { SearchIndex: new () => Index };
+  return mod.SearchIndex;
+}
+
+/** Both indexes over the same query mix, in turn (which goes first alternates by round), plus each query's fastest run. */
+function compare(ours: Index, theirs: Index) {
+  const lat = { ours: [] as number[], theirs: [] as number[] };
+  const fastest = { ours: new Map<string, number>(), theirs: new Map<string, number>() };
+  for (const q of MIX) {
+    ours.search(q, {}, 10);
+    theirs.search(q, {}, 10);
+  }
+  for (let round = 0; round < ROUNDS; round++) {
+    for (const q of shuffled(MIX, round + 2000)) {
+      const order = round % 2 ? (['ours', 'theirs'] as const) : (['theirs', 'ours'] as const);
+      for (const who of order) {
+        const s = performance.now();
+        (who === 'ours' ? ours : theirs).search(q, {}, 10);
+        const ms = performance.now() - s;
+        lat[who].push(ms);
+        fastest[who].set(q, Math.min(fastest[who].get(q) ?? Infinity, ms));
+      }
+    }
+  }
+  return { lat, fastest: { ours: [...fastest.ours.values()], theirs: [...fastest.theirs.values()] } };
 }
 
 async function startPostgres(): Promise<{ url: string; stop: () => void }> {
@@ -335,6 +381,57 @@ async function main() {
   console.log(
     `PostgreSQL: load ${fmt(p.loadMs / 1000)} s, GIN build ${fmt(p.indexMs / 1000)} s, table + index ${fmt(p.sizeMb, 0)} MB, single-row update p50 ${fmt(pct(p.upd, 50))} ms`,
   );
+
+  if (BASELINE) {
+    // Both built afresh from the same corpus (the index above has been through the update runs).
+    const Baseline = await baselineIndex(BASELINE);
+    let tb = performance.now();
+    const base = new Baseline();
+    base.load(corpus);
+    const baseBuildMs = performance.now() - tb;
+    tb = performance.now();
+    const ours = new SearchIndex();
+    ours.load(corpus);
+    const oursBuildMs = performance.now() - tb;
+    // Same answers (hits, scores, snippets, facets, totals) for the whole mix, or the speed-up is not like for like.
+    const same = MIX.filter((q) => isDeepStrictEqual(ours.search(q, {}, 10), base.search(q, {}, 10))).length;
+    const loadBefore = os.loadavg()[0];
+    const c = compare(ours, base);
+    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
+    console.log(`\nBaseline ${BASELINE} vs this tree, same corpus and process, queries in turn (load average ${fmt(loadBefore, 1)} → ${fmt(os.loadavg()[0], 1)})`);
+    const W3 = [34, 12, 12, 12, 22];
+    console.log(line(['', 'p50', 'p95', 'p99', 'fastest run: mean / p95'], W3));
+    for (const [name, who] of [
+      [`baseline ${BASELINE}`, 'theirs'],
+      ['this tree', 'ours'],
+    ] as const)
+      console.log(
+        line(
+          [
+            name,
+            `${fmt(pct(c.lat[who], 50))} ms`,
+            `${fmt(pct(c.lat[who], 95))} ms`,
+            `${fmt(pct(c.lat[who], 99))} ms`,
+            `${fmt(mean(c.fastest[who]))} / ${fmt(pct(c.fastest[who], 95))} ms`,
+          ],
+          W3,
+        ),
+      );
+    const ratio = (f: (xs: number[]) => number, a: number[], b: number[]) => fmt(f(a) / f(b));
+    console.log(
+      line(
+        [
+          'ratio this tree / baseline',
+          ratio((x) => pct(x, 50), c.lat.ours, c.lat.theirs),
+          ratio((x) => pct(x, 95), c.lat.ours, c.lat.theirs),
+          ratio((x) => pct(x, 99), c.lat.ours, c.lat.theirs),
+          `${ratio(mean, c.fastest.ours, c.fastest.theirs)} / ${ratio((x) => pct(x, 95), c.fastest.ours, c.fastest.theirs)}`,
+        ],
+        W3,
+      ),
+    );
+    console.log(`index build: baseline ${fmt(baseBuildMs / 1000)} s, this tree ${fmt(oursBuildMs / 1000)} s; identical answers for ${same} of ${MIX.length} queries`);
+  }
   console.log(
     `load average at the end: ${os
       .loadavg()
