@@ -590,25 +590,57 @@ export class SearchIndex {
         if (short !== undefined) named.add(short);
       }
     const touchedCount = this.scoreAll(derived, opts.fields ?? [...FIELDS], opts.fields ? 'headline' : 'all');
-    const { score, mask, hmask, alive, slots, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
+    const { score, mask, slots } = this;
     const namedBoost = groups.length === 1 ? NAMED_PARAMETER_BOOST.whole : NAMED_PARAMETER_BOOST.part;
     for (const doc of named) if (score[doc] > 0) score[doc] *= namedBoost;
     const f = opts.filters ?? {};
-    const fType = f.type ? (TYPE_INDEX.get(f.type) ?? -2) : -1;
-    const fClass = f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1;
-    const fSurface = f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1;
-    const fParam = f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1;
+    // -1: no filter; -2: a value nothing has (matches no item).
+    const filter = {
+      type: f.type ? (TYPE_INDEX.get(f.type) ?? -2) : -1,
+      class: f.class ? (CLASS_INDEX.get(f.class) ?? -2) : -1,
+      surface: f.surface ? (SURFACE_INDEX.get(f.surface) ?? -2) : -1,
+      parameter: f.parameter ? (this.paramIndex.get(f.parameter) ?? -2) : -1,
+    };
     const counts: FacetCounts = {
       type: new Int32Array(SEARCH_TYPES.length),
       class: new Int32Array(CLASSES.length),
       surface: new Int32Array(SURFACES.length),
       parameter: new Int32Array(this.paramIndex.size),
     };
-    const { type: cType, class: cClass, surface: cSurface, parameter: cParam } = counts;
-    const withFacets = opts.facets;
+    const { candidates, anyExact } = this.collect(touchedCount, this.coverage(forms, formGroup), filter, opts.facets ? counts : null);
+    const results = this.selectPage(candidates, opts.limit).map(({ doc, tier }) => {
+      const slot = slots[doc]!;
+      const matched = opts.highlight ? this.termsIn(derived, doc, mask[doc]) : new Set<string>();
+      return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
+    });
+    this.clearScores(touchedCount);
+    return { results, total: candidates, counts, anyExact };
+  }
+
+  /**
+   * One pass over the touched items: drops removed items and those only another name reached
+   * partly, applies the filters, counts the facets (when `counts` is given) and writes the
+   * candidates with their tier to candidateIds/candidateTiers. Kept apart from run() so its loop is
+   * optimised on its own (a rarely taken branch elsewhere in a long function kept the whole of it
+   * falling back to the interpreter).
+   */
+  private collect(touchedCount: number, coverage: (m: number) => number, filter: { type: number; class: number; surface: number; parameter: number }, counts: FacetCounts | null) {
+    const { mask, hmask, alive, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
+    const { type: fType, class: fClass, surface: fSurface, parameter: fParam } = filter;
+    // Filters are tested with `|` on both sides, so every comparison runs whatever the filter.
+    const anyType = fType === -1 ? 1 : 0;
+    const anyClass = fClass === -1 ? 1 : 0;
+    const anySurface = fSurface === -1 ? 1 : 0;
+    const anyParam = fParam === -1 ? 1 : 0;
+    const paramWord = fParam >= 0 ? fParam >>> 5 : 0;
+    const paramBit = fParam >= 0 ? fParam & 31 : 0;
+    const paramKnown = fParam >= 0 ? 1 : 0;
+    const withFacets = counts !== null;
+    const cType = counts?.type ?? new Int32Array(0);
+    const cClass = counts?.class ?? new Int32Array(0);
+    const cSurface = counts?.surface ?? new Int32Array(0);
     // The parameter facet is counted in bit-sliced form: plane j holds bit j of every parameter's count.
     const planes = new Int32Array(paramWords * COUNT_PLANES);
-    const coverage = this.coverage(forms, formGroup);
     let anyExact = false;
     let candidates = 0;
     for (let i = 0; i < touchedCount; i++) {
@@ -619,20 +651,19 @@ export class SearchIndex {
       // Another name alone counts only when all its words are there ("coast" alone is not "coast brake").
       if (!exactGroups && (m & TYPED_BIT) === 0) continue;
       if (exactGroups) anyExact = true;
-      // -1: no filter; -2: a value nothing has (matches no item).
-      const okType = fType === -1 || itemType[doc] === fType;
-      const okClass = fClass === -1 || itemClass[doc] === fClass;
-      const okSurface = fSurface === -1 || itemSurface[doc] === fSurface;
       const base = doc * paramWords;
-      const okParam = fParam === -1 || (fParam >= 0 && ((itemParamBits[base + (fParam >>> 5)] >>> (fParam & 31)) & 1) === 1);
+      const okType = anyType | (itemType[doc] === fType ? 1 : 0);
+      const okClass = anyClass | (itemClass[doc] === fClass ? 1 : 0);
+      const okSurface = anySurface | (itemSurface[doc] === fSurface ? 1 : 0);
+      const okParam = anyParam | (paramKnown & (itemParamBits[base + paramWord] >>> paramBit));
       if (withFacets) {
         // Each facet is counted with the other facets' filters applied but not its own, so a reader can switch value.
-        if (okClass && okSurface && okParam) cType[itemType[doc]]++;
+        if (okClass & okSurface & okParam) cType[itemType[doc]]++;
         const cls = itemClass[doc];
-        if (cls >= 0 && okType && okSurface && okParam) cClass[cls]++;
+        if (cls >= 0 && okType & okSurface & okParam) cClass[cls]++;
         const surface = itemSurface[doc];
-        if (surface >= 0 && okType && okClass && okParam) cSurface[surface]++;
-        if (okType && okClass && okSurface)
+        if (surface >= 0 && okType & okClass & okParam) cSurface[surface]++;
+        if (okType & okClass & okSurface)
           for (let w = 0; w < paramWords; w++) {
             // Add the item's parameter word to the counters: a ripple carry, two steps on average.
             let carry = itemParamBits[base + w];
@@ -643,22 +674,26 @@ export class SearchIndex {
             }
           }
       }
-      if (okType && okClass && okSurface && okParam) {
+      if (okType & okClass & okSurface & okParam) {
         candidateTiers[candidates] = exactGroups * 64 + coverage(hmask[doc]);
         candidateIds[candidates++] = doc;
       }
     }
-    if (withFacets)
-      for (let p = 0; p < cParam.length; p++) {
+    if (counts)
+      for (let p = 0; p < counts.parameter.length; p++) {
         const from = (p >>> 5) * COUNT_PLANES;
         const bit = p & 31;
         let n = 0;
         for (let j = 0; j < COUNT_PLANES; j++) n += ((planes[from + j] >>> bit) & 1) << j;
-        cParam[p] = n;
+        counts.parameter[p] = n;
       }
-    // Only the page is ordered: keep the best `limit` by (tier, score) in a small sorted buffer.
+    return { candidates, anyExact };
+  }
+
+  /** The best `limit` candidates by (tier, score), kept in a small sorted buffer: only the page is ordered. */
+  private selectPage(candidates: number, limit: number) {
+    const { score, candidateIds, candidateTiers } = this;
     const page: Array<{ doc: number; tier: number }> = [];
-    const limit = opts.limit;
     // The page's worst entry, kept in locals so most candidates are turned away with two comparisons.
     let worstTier = -1;
     let worstScore = -1;
@@ -679,33 +714,40 @@ export class SearchIndex {
       worstTier = last.tier;
       worstScore = score[last.doc];
     }
-    const results = page.map(({ doc, tier }) => {
-      // Highlight the words typed (or their typo/prefix variants); other names only when none of those occur.
-      const typedTerms = new Set<string>();
-      const otherTerms = new Set<string>();
-      if (opts.highlight) {
-        // Scoring already noted each exact term's bit (over every field); only typo and prefix variants need a look-up.
-        const m = mask[doc];
-        for (const d of derived)
-          if (d.exact ? (m >>> d.bit) & 1 : [...d.data.values()].some((postings) => postings.has(doc))) (d.typed ? typedTerms : otherTerms).add(d.term);
-      }
-      const matched = typedTerms.size ? typedTerms : otherTerms;
-      const slot = slots[doc]!;
-      return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
-    });
+    return page;
+  }
+
+  /**
+   * The terms a hit holds, for its snippet: the words typed (or their typo/prefix variants), else
+   * the other names. Scoring already noted each exact term's bit in `m` (over every field); only
+   * typo and prefix variants need a look-up.
+   */
+  private termsIn(derived: Derived[], doc: number, m: number) {
+    const typedTerms = new Set<string>();
+    const otherTerms = new Set<string>();
+    for (const d of derived) {
+      const holds = d.exact ? ((m >>> d.bit) & 1) === 1 : [...d.data.values()].some((postings) => postings.has(doc));
+      if (holds) (d.typed ? typedTerms : otherTerms).add(d.term);
+    }
+    return typedTerms.size ? typedTerms : otherTerms;
+  }
+
+  /** Back to all zeros for the next query. */
+  private clearScores(touchedCount: number) {
+    const { score, mask, hmask, touchedIds } = this;
     if (touchedCount * 4 > this.idLimit) {
       // Most items were touched: clearing whole ranges is cheaper than one store per item and array.
       score.fill(0, 0, this.idLimit);
       mask.fill(0, 0, this.idLimit);
       hmask.fill(0, 0, this.idLimit);
-    } else
-      for (let i = 0; i < touchedCount; i++) {
-        const doc = touchedIds[i];
-        score[doc] = 0;
-        mask[doc] = 0;
-        hmask[doc] = 0;
-      }
-    return { results, total: candidates, counts, anyExact };
+      return;
+    }
+    for (let i = 0; i < touchedCount; i++) {
+      const doc = touchedIds[i];
+      score[doc] = 0;
+      mask[doc] = 0;
+      hmask[doc] = 0;
+    }
   }
 
   /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */

@@ -62,19 +62,17 @@ function charClass(code: number): number {
   return c;
 }
 
-/** The code point at `i` (a surrogate pair read whole, as the `u` flag does) and its length in UTF-16 units. */
-function codePointAt(s: string, i: number): [number, number] {
-  const code = s.codePointAt(i) ?? 0;
-  return [code, code > 0xffff ? 2 : 1];
-}
+/** Length in UTF-16 units of a code point (a surrogate pair is read whole, as the `u` flag does). */
+const unitsOf = (code: number) => (code > 0xffff ? 2 : 1);
 
 /** Length of the run of letters (`withNumbers`: or numbers) starting at `i`. */
 function wordRun(s: string, i: number, withNumbers: boolean): number {
   let j = i;
   while (j < s.length) {
-    const [code, len] = codePointAt(s, j);
+    // No tuple per character: this runs over every character indexed.
+    const code = s.codePointAt(j)!;
     const c = charClass(code);
-    if (c === 1 || (withNumbers && c === 2)) j += len;
+    if (c === 1 || (withNumbers && c === 2)) j += unitsOf(code);
     else break;
   }
   return j - i;
@@ -137,7 +135,7 @@ export function scanTokens(lower: string, emit: (start: number, end: number, apo
       p = q;
       continue;
     }
-    p += codePointAt(lower, p)[1];
+    p += unitsOf(lower.codePointAt(p)!);
   }
 }
 
