@@ -607,7 +607,7 @@ export class SearchIndex {
       surface: new Int32Array(SURFACES.length),
       parameter: new Int32Array(this.paramIndex.size),
     };
-    const { candidates, anyExact } = this.collect(touchedCount, this.coverage(forms, formGroup), filter, opts.facets ? counts : null);
+    const { candidates, anyExact } = this.collect(touchedCount, forms, formGroup, filter, opts.facets ? counts : null);
     const results = this.selectPage(candidates, opts.limit).map(({ doc, tier }) => {
       const slot = slots[doc]!;
       const matched = opts.highlight ? this.termsIn(derived, doc, mask[doc]) : new Set<string>();
@@ -624,7 +624,15 @@ export class SearchIndex {
    * optimised on its own (a rarely taken branch elsewhere in a long function kept the whole of it
    * falling back to the interpreter).
    */
-  private collect(touchedCount: number, coverage: (m: number) => number, filter: { type: number; class: number; surface: number; parameter: number }, counts: FacetCounts | null) {
+  private collect(
+    touchedCount: number,
+    forms: Int32Array,
+    formGroup: Int32Array,
+    filter: { type: number; class: number; surface: number; parameter: number },
+    counts: FacetCounts | null,
+  ) {
+    // Made here rather than passed in, so the compiler can inline it into the loop.
+    const coverage = this.coverage(forms, formGroup);
     const { mask, hmask, alive, itemType, itemClass, itemSurface, itemParamBits, paramWords, touchedIds, candidateIds, candidateTiers } = this;
     const { type: fType, class: fClass, surface: fSurface, parameter: fParam } = filter;
     // Filters are tested with `|` on both sides, so every comparison runs whatever the filter.
