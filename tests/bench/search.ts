@@ -398,7 +398,9 @@ async function main() {
     const loadBefore = os.loadavg()[0];
     const c = compare(ours, base);
     const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
-    console.log(`\nBaseline ${BASELINE} vs this tree, same corpus and process, queries in turn (load average ${fmt(loadBefore, 1)} → ${fmt(os.loadavg()[0], 1)})`);
+    console.log(
+      `\nBaseline ${BASELINE} vs this tree, same corpus and process, queries in turn (load average ${fmt(loadBefore, 1)} → ${fmt(os.loadavg()[0], 1)})`,
+    );
     const W3 = [34, 12, 12, 12, 22];
     console.log(line(['', 'p50', 'p95', 'p99', 'fastest run: mean / p95'], W3));
     for (const [name, who] of [
@@ -430,7 +432,9 @@ async function main() {
         W3,
       ),
     );
-    console.log(`index build: baseline ${fmt(baseBuildMs / 1000)} s, this tree ${fmt(oursBuildMs / 1000)} s; identical answers for ${same} of ${MIX.length} queries`);
+    console.log(
+      `index build: baseline ${fmt(baseBuildMs / 1000)} s, this tree ${fmt(oursBuildMs / 1000)} s; identical answers for ${same} of ${MIX.length} queries`,
+    );
   }
   console.log(
     `load average at the end: ${os

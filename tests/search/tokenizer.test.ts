@@ -92,9 +92,14 @@ describe('scanTokens', () => {
     for (const text of [
       '17.5t buggy on 2s at 3.2v, 1/10 scale; 12,000 rpm; 1/ 5 /8 3.2.1 4,5,6t 7.v',
       '18 °c or 64°f at 30%; °x % 5%%',
-      'maker’s advice, don\'t; rock\'n\'roll ’quote’ it\'s1',
+      "maker’s advice, don't; rock'n'roll ’quote’ it's1",
       'ærø straße ½ ² ٣ µs 中文 żółw ж日本 𝐀𝐁 😀x \ud800 a\udc00b',
-      '', ' ', '...', "'s", '1', 'a',
+      '',
+      ' ',
+      '...',
+      "'s",
+      '1',
+      'a',
     ])
       expect(byScanner(text), text).toEqual(bySpec(text));
     // And on many random strings from an alphabet of the awkward cases.

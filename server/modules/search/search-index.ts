@@ -537,7 +537,7 @@ export class SearchIndex {
       const h = (Math.imul(m, 0x9e3779b1) >>> 24) & slotMask;
       if (keys[h] === m) return values[h];
       let n = 0;
-      for (let k = 0; k < forms.length; ) {
+      for (let k = 0; k < forms.length;) {
         const g = formGroup[k];
         if ((m & forms[k]) === forms[k]) {
           n++;
@@ -575,7 +575,6 @@ export class SearchIndex {
     }
     return n;
   }
-
 
   /** `highlight`: say which terms each hit holds (for snippets; only with every field searched). */
   private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean; highlight?: boolean }) {
