@@ -44,7 +44,14 @@ describe('PostgreSQL restarts in the middle of load', () => {
     ds = createDataSource(cluster.urlFor('faults'), { poolMax: 2 });
     await ds.initialize();
     await ds.runMigrations();
-    app = await startAppProcess({ NODE_ENV: 'test', LOG_LEVEL: 'error', DATABASE_URL: cluster.urlFor('faults'), SMTP_URL: 'smtp://127.0.0.1:1', OUTBOX_INTERVAL_MS: '60000', RATE_LIMIT_AUTH_PER_15MIN: '100000' });
+    app = await startAppProcess({
+      NODE_ENV: 'test',
+      LOG_LEVEL: 'error',
+      DATABASE_URL: cluster.urlFor('faults'),
+      SMTP_URL: 'smtp://127.0.0.1:1',
+      OUTBOX_INTERVAL_MS: '60000',
+      RATE_LIMIT_AUTH_PER_15MIN: '100000',
+    });
   }, 60_000);
 
   afterAll(async () => {
@@ -58,7 +65,7 @@ describe('PostgreSQL restarts in the middle of load', () => {
     type Seen = { at: number; what: string; status: number; ms: number; code?: string };
     // `at` is when the answer arrived; `at - ms` is when the request was sent.
     const seen: Seen[] = [];
-    const socketErrors: Array<{ at: number; message: string }> = [];
+    const socketErrors: Array<{ at: number; sent: number; message: string }> = [];
     const attempted: Array<{ email: string; status: number }> = [];
     let stop = false;
 
@@ -66,20 +73,37 @@ describe('PostgreSQL restarts in the middle of load', () => {
       for (let i = 0; i < 400 && !stop; i++) {
         const client = httpClient(app.baseUrl);
         let step = 'health';
+        let sent = Date.now();
         const email = `outage-${w}-${i}-${crypto.randomBytes(3).toString('hex')}@tidewater.test`;
         try {
           const health = await client.get('/api/health', { timeoutMs: 10_000 });
           seen.push({ at: Date.now(), what: 'health', status: health.status, ms: health.ms, code: (health.body as { data?: { db?: string } })?.data?.db });
           step = 'csrf';
+          sent = Date.now();
           const csrf = await client.get('/api/csrf', { timeoutMs: 10_000 });
           seen.push({ at: Date.now(), what: 'csrf', status: csrf.status, ms: csrf.ms, code: (csrf.body as { error?: { code: string } })?.error?.code });
           if (csrf.status !== 200) continue;
           step = 'sign-up';
-          const signUp = await client.post('/api/auth/sign-up', { email, displayName: `Outage ${w}`, password: STRONG_PASSWORD }, { csrf: (csrf.body as { data: { token: string } }).data.token, timeoutMs: 10_000 });
-          seen.push({ at: Date.now(), what: 'sign-up', status: signUp.status, ms: signUp.ms, code: (signUp.body as { error?: { code: string } })?.error?.code });
+          sent = Date.now();
+          const signUp = await client.post(
+            '/api/auth/sign-up',
+            { email, displayName: `Outage ${w}`, password: STRONG_PASSWORD },
+            { csrf: (csrf.body as { data: { token: string } }).data.token, timeoutMs: 10_000 },
+          );
+          seen.push({
+            at: Date.now(),
+            what: 'sign-up',
+            status: signUp.status,
+            ms: signUp.ms,
+            code: (signUp.body as { error?: { code: string } })?.error?.code,
+          });
           attempted.push({ email, status: signUp.status });
         } catch (err) {
-          socketErrors.push({ at: Date.now(), message: `${w}/${i} ${step}: ${(err as Error).message} ${String((err as { cause?: unknown }).cause ?? '')}` });
+          socketErrors.push({
+            at: Date.now(),
+            sent,
+            message: `${w}/${i} ${step}: ${(err as Error).message} ${String((err as { cause?: unknown }).cause ?? '')}`,
+          });
         }
         await new Promise((r) => setTimeout(r, 20));
       }
@@ -107,23 +131,32 @@ describe('PostgreSQL restarts in the middle of load', () => {
     // would count as answered during the outage.)
     const during = seen.filter((s) => s.at - s.ms > stoppedAt + 50 && s.at < restartedAt);
     const slowest = Math.max(...seen.map((s) => s.ms));
-    const statuses = (list: Seen[]) => JSON.stringify(list.reduce<Record<string, number>>((acc, s) => ({ ...acc, [`${s.what} ${s.status}`]: (acc[`${s.what} ${s.status}`] ?? 0) + 1 }), {}));
+    const statuses = (list: Seen[]) =>
+      JSON.stringify(list.reduce<Record<string, number>>((acc, s) => ({ ...acc, [`${s.what} ${s.status}`]: (acc[`${s.what} ${s.status}`] ?? 0) + 1 }), {}));
     console.log(
       `faults: ${seen.length} responses; during the outage ${statuses(during)}; slowest ${slowest} ms; ` +
         `back ${recoveredAt ? recoveredAt - restartedAt : 'never'} ms after the restart; ${attempted.length} sign-ups tried`,
     );
 
     // Open item: a connection or two can be reset at the very instant PostgreSQL goes away (cause not found
-    // yet; the app stays up). Resets are tolerated only within a second of the stop (the time they are
-    // noticed lags on a busy machine), nowhere else.
-    const resetsAtStop = socketErrors.filter((e) => Math.abs(e.at - stoppedAt) < 1000);
-    if (socketErrors.length) console.log(`faults: ${socketErrors.length} socket errors (${resetsAtStop.length} at the stop): ${socketErrors.map((e) => e.message).join('; ')}`);
+    // yet; the app stays up). Resets are tolerated only for requests that were in flight within half a
+    // second of the stop (when the reset is noticed can lag on a busy machine), nowhere else.
+    const resetsAtStop = socketErrors.filter((e) => e.sent <= stoppedAt + 500 && e.at >= stoppedAt - 500);
+    if (socketErrors.length)
+      console.log(`faults: ${socketErrors.length} socket errors (${resetsAtStop.length} at the stop): ${socketErrors.map((e) => e.message).join('; ')}`);
     expect(app.child.exitCode).toBeNull();
     expect(socketErrors.filter((e) => !resetsAtStop.includes(e)).map((e) => e.message)).toEqual([]);
     expect(resetsAtStop.length).toBeLessThanOrEqual(3);
     expect(slowest).toBeLessThan(5000);
     const fivehundreds = seen.filter((s) => s.status >= 500 && s.status !== 503);
-    if (fivehundreds.length) console.log(`faults: unexpected answers ${JSON.stringify(fivehundreds)}\n${app.output().split('\n').filter((l) => !l.includes('ECONNREFUSED')).join('\n')}`);
+    if (fivehundreds.length)
+      console.log(
+        `faults: unexpected answers ${JSON.stringify(fivehundreds)}\n${app
+          .output()
+          .split('\n')
+          .filter((l) => !l.includes('ECONNREFUSED'))
+          .join('\n')}`,
+      );
     expect(fivehundreds).toEqual([]);
     expect(during.length).toBeGreaterThan(5);
     for (const s of during) {
