@@ -1,4 +1,4 @@
-import { StrictMode } from 'react';
+import { StrictMode, useEffect } from 'react';
 import { createRoot } from 'react-dom/client';
 // Before the router: its loaders must find a pre-rendered page's data already in the cache.
 import { initialData } from './seed-from-page';
@@ -6,11 +6,20 @@ import { AppProvider } from './provider';
 import { AppRouter, router } from './router';
 import './nav-extras-setup';
 
+/** Marks the document once the app has drawn itself (a server-drawn page has been replaced by then). */
+function Started() {
+  useEffect(() => {
+    document.documentElement.dataset.app = 'running';
+  }, []);
+  return null;
+}
+
 function render() {
   createRoot(document.getElementById('root')!).render(
     <StrictMode>
       <AppProvider>
         <AppRouter />
+        <Started />
       </AppProvider>
     </StrictMode>,
   );

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, screenshotPath, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { launchBrowser, screenshot, screenshotPath, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
 import { documentOf, revisionsOf, seriousViolations, signedInPage } from './guide-helpers';
 
 let server: E2EServer;
@@ -88,6 +88,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     const owen = await signedInPage(browser, server.baseUrl, 'owen');
     const errors = watchPageErrors(owen);
     await owen.goto(`${server.baseUrl}/guides/${slug}`);
+    await waitForApp(owen); // buttons on the server-drawn page answer once the app has started
     const history = owen.getByRole('region', { name: 'History' });
     await history.getByRole('table').waitFor();
     await history.getByRole('button', { name: 'Restore version 1' }).click();
@@ -145,6 +146,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     const owen = await signedInPage(browser, server.baseUrl, 'owen');
     const errors = watchPageErrors(owen);
     await owen.goto(`${server.baseUrl}/guides/${slug}`);
+    await waitForApp(owen);
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByRole('button', { name: 'Hide guide' }).click();
     const dialog = owen.getByRole('dialog', { name: 'Hide this guide?' });

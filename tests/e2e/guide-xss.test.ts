@@ -3,7 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { start, type E2EServer } from '../setup/e2e-server';
 import { createClient } from '../setup/test-app';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
-import { launchBrowser, screenshot } from '../setup/browser';
+import { launchBrowser, screenshot, waitForApp } from '../setup/browser';
 import { signedInPage } from './guide-helpers';
 import { XSS_CORPUS, collectDialogs, readXssFlag, strictDomScan } from '../setup/xss';
 
@@ -45,6 +45,8 @@ afterAll(async () => {
 async function probe(page: Page, path: string, ready: string, prepare?: () => Promise<void>) {
   const dialogs = collectDialogs(page);
   await page.goto(`${server.baseUrl}${path}`);
+  // Probe the page the app draws (the server-drawn one it replaces has had its chance by then too).
+  await waitForApp(page);
   await page.getByText(ready).first().waitFor();
   if (prepare) await prepare();
   const body = page.locator('.prose-notebook').first();
@@ -94,6 +96,8 @@ describe('XSS corpus through guide bodies, rendered in Chromium', () => {
     const page = await context.newPage();
     await page.goto(`${server.baseUrl}/guides/${slug}`);
     await page.locator('.prose-notebook').getByText('Ordinary text after the corpus.').waitFor();
+    // Plant into the app's own page, not the server-drawn one the app replaces when it starts.
+    await waitForApp(page);
     await page.evaluate(() => {
       const img = document.createElement('img');
       img.setAttribute('src', 'x');

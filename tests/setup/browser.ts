@@ -53,6 +53,11 @@ export function watchPageErrors(page: Page) {
   return errors;
 }
 
+/** Waits until the app has started in the page (a server-drawn page has been taken over by then). */
+export async function waitForApp(page: Page, timeout = 30_000) {
+  await page.waitForFunction(() => document.documentElement.dataset.app === 'running', undefined, { timeout });
+}
+
 /**
  * Worked-example cards load only as they near the viewport: scrolls each placeholder into view until
  * every card on the page is live (or fails after `timeout`).
