@@ -1,27 +1,17 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, revealWorkedExamples, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
-import { start, type E2EServer } from '../setup/e2e-server';
+import { describe, expect, it } from 'vitest';
+import { revealWorkedExamples, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
 const SLUG = 'stock-2wd-buggy-harbour-flats-clay';
 const TITLE = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
 
-let server: E2EServer;
-let browser: Browser;
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 describe('guide page drawn on the server', () => {
   it('reads without script: title, chips, body and tables are in the page itself', async () => {
-    const context = await browser.newContext({ javaScriptEnabled: false, viewport: VIEWPORTS.phone });
+    const context = await suite.browser.newContext({ javaScriptEnabled: false, viewport: VIEWPORTS.phone });
     const page = await context.newPage();
-    const res = await page.goto(`${server.baseUrl}/guides/${SLUG}`);
+    const res = await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
     expect(res?.status()).toBe(200);
     await expect(page.getByRole('heading', { level: 1, name: TITLE }).isVisible()).resolves.toBe(true);
     await expect(page.getByRole('heading', { level: 2, name: 'Baseline' }).isVisible()).resolves.toBe(true);
@@ -33,14 +23,14 @@ describe('guide page drawn on the server', () => {
   });
 
   it('takes over without asking for the guide again, without errors, and its cards come alive', async () => {
-    const page = await browser.newPage({ viewport: VIEWPORTS.phone });
+    const page = await suite.browser.newPage({ viewport: VIEWPORTS.phone });
     const errors = watchPageErrors(page);
     const api: string[] = [];
     page.on('request', (r) => {
       const u = new URL(r.url());
       if (u.pathname.startsWith('/api/')) api.push(u.pathname);
     });
-    await page.goto(`${server.baseUrl}/guides/${SLUG}`);
+    await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
     await revealWorkedExamples(page);
     const card = page.locator('[data-worked-example]').first();
     await card.locator('[data-result]').first().waitFor();
@@ -58,9 +48,9 @@ describe('guide page drawn on the server', () => {
   });
 
   it('follows links inside the app after the take-over (the page is a normal app page)', async () => {
-    const page = await browser.newPage({ viewport: VIEWPORTS.desktop });
+    const page = await suite.browser.newPage({ viewport: VIEWPORTS.desktop });
     const errors = watchPageErrors(page);
-    await page.goto(`${server.baseUrl}/guides/${SLUG}`);
+    await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
     await page.waitForFunction(() => !document.querySelector('[data-example-slot] > pre'));
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Parameters' }).click();
     await page.waitForURL('**/parameters');

@@ -21,8 +21,16 @@ export async function signedInPage(browser: Browser, baseUrl: string, key: strin
 }
 
 /** Waits until the editor reports the draft saved on the server. */
-export async function waitSaved(page: Page) {
-  await page.locator('[data-testid="autosave-status"][data-state="saved"]').waitFor({ timeout: 15_000 });
+export async function waitSaved(page: Page, timeout = 20_000) {
+  try {
+    await page.locator('[data-testid="autosave-status"][data-state="saved"]').waitFor({ timeout });
+  } catch (err) {
+    // Say where it stood instead (pending, saving, error with its message…), so a failure can be read.
+    const status = page.getByTestId('autosave-status');
+    const state = await status.getAttribute('data-state', { timeout: 1000 }).catch(() => 'absent');
+    const text = await status.textContent({ timeout: 1000 }).catch(() => '');
+    throw new Error(`the draft was not reported saved within ${timeout} ms; status ${state}: ${text} (${page.url()})`, { cause: err });
+  }
 }
 
 /** One revision row as the database holds it, with its author's e-mail and its base's number. */

@@ -1,20 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, revealWorkedExamples, screenshot, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import { revealWorkedExamples, screenshot, waitForApp, watchPageErrors } from '../setup/browser';
 import { signedInPage, waitSaved } from './guide-helpers';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-}, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 const TITLE = 'Stadium truck on Harbour Flats clay, summer layout';
 const BODY_V1 = [
@@ -38,9 +27,9 @@ const BODY_V1 = [
 describe('guide journey in Chromium: write, review, publish, read, edit, compare', () => {
   it('an expert writes and submits a guide, the moderator publishes it from the diff, a visitor reads it; an edit becomes version 2 and the visitor compares it with version 1', async () => {
     // The expert writes a new guide.
-    const rosa = await signedInPage(browser, server.baseUrl, 'rosa');
+    const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
     const rosaErrors = watchPageErrors(rosa);
-    await rosa.goto(`${server.baseUrl}/guides/new`);
+    await rosa.goto(`${suite.server.baseUrl}/guides/new`);
     await rosa.getByLabel('Title', { exact: true }).fill(TITLE);
     await rosa.getByLabel('Summary').fill('A baseline for the open summer layout: taller gearing, a light drag brake and the heat checks between rounds.');
     await rosa.getByLabel('Class').selectOption('stadium-truck');
@@ -68,23 +57,23 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await screenshot(rosa, 'guides-workbench');
 
     // The moderator sees it in the queue (with the count in the navigation) and publishes it.
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const owenErrors = watchPageErrors(owen);
     await owen.getByTestId('review-count').waitFor();
-    await owen.goto(`${server.baseUrl}/review`);
+    await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('link', { name: TITLE }).click();
     await owen.getByRole('heading', { name: TITLE, level: 1 }).waitFor();
     await owen.getByRole('heading', { name: 'Changed text' }).waitFor();
     expect(await owen.locator('ins').count()).toBeGreaterThan(0); // a new guide: all of it is added
     await screenshot(owen, 'guides-review-new');
     await owen.getByRole('button', { name: 'Publish' }).click();
-    await owen.waitForURL(`${server.baseUrl}/review`);
+    await owen.waitForURL(`${suite.server.baseUrl}/review`);
 
     // A visitor finds and reads it.
-    const visitorContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const visitorContext = await suite.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const visitor = await visitorContext.newPage();
     const visitorErrors = watchPageErrors(visitor);
-    await visitor.goto(`${server.baseUrl}/guides?class=stadium-truck`);
+    await visitor.goto(`${suite.server.baseUrl}/guides?class=stadium-truck`);
     await visitor.getByRole('link', { name: TITLE }).click();
     await visitor.getByRole('heading', { name: TITLE, level: 1 }).waitFor();
     await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 1, published on .+ by Rosa Kittering/);
@@ -94,7 +83,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     const slug = new URL(visitor.url()).pathname.split('/')[2];
 
     // The expert edits it after a re-layout: version 2.
-    await rosa.goto(`${server.baseUrl}/guides/${slug}`);
+    await rosa.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await rosa.getByRole('link', { name: 'Propose an edit' }).click();
     await rosa.waitForURL(`**/guides/${slug}/edit`);
     await expect.poll(() => rosa.getByLabel('Body').inputValue()).toContain('light drag brake');
@@ -106,7 +95,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await rosa.getByRole('dialog').getByRole('button', { name: 'Submit' }).click();
     await rosa.waitForURL('**/me/revisions');
 
-    await owen.goto(`${server.baseUrl}/review`);
+    await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('link', { name: TITLE }).click();
     await owen.getByText('Re-layout: firmer drag brake').waitFor();
     await expect.poll(() => owen.locator('ins').allTextContents()).toEqual(expect.arrayContaining([expect.stringContaining('firmer')]));
@@ -114,10 +103,11 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await owen.getByRole('button', { name: 'Side by side' }).click();
     await screenshot(owen, 'guides-review-edit');
     await owen.getByRole('button', { name: 'Publish' }).click();
-    await owen.waitForURL(`${server.baseUrl}/review`);
+    await owen.waitForURL(`${suite.server.baseUrl}/review`);
 
     // The visitor reads version 2 and compares it with version 1.
-    await visitor.goto(`${server.baseUrl}/guides/${slug}`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
+    await waitForApp(visitor); // the Compare button answers once the app has taken the page over
     await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 2, published on/);
     await visitor.getByText('After the re-layout, start with a firmer drag brake').waitFor();
     await screenshot(visitor, 'guides-guide-v2');
@@ -129,16 +119,16 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await visitor.getByRole('button', { name: 'Side by side' }).click();
     await screenshot(visitor, 'guides-compare-side-by-side');
     // The permalink of version 1 still shows the old text.
-    await visitor.goto(`${server.baseUrl}/guides/${slug}/v/1`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}/v/1`);
     await visitor.getByText('Start with a light drag brake').waitFor();
     await visitor.getByText(/not the live guide/).waitFor();
 
     // Phone width.
     await visitor.setViewportSize({ width: 375, height: 800 });
-    await visitor.goto(`${server.baseUrl}/guides/${slug}`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await visitor.getByRole('heading', { name: TITLE, level: 1 }).waitFor();
     await screenshot(visitor, 'guides-guide-phone');
-    await visitor.goto(`${server.baseUrl}/guides/${slug}/compare?from=1&to=2`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}/compare?from=1&to=2`);
     await visitor.getByRole('heading', { name: 'Changed text' }).waitFor();
     await screenshot(visitor, 'guides-compare-phone');
 

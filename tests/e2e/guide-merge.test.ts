@@ -1,22 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
 import { documentOf, editBody, openProposal, publishFromQueue, revisionsOf, seriousViolations, signedInPage, submitWithNote, waitSaved } from './guide-helpers';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-}, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
-const db = () => server.t.db.dataSource;
+const db = () => suite.server.t.db.dataSource;
 
 /** The one revision of `slug` written by `email` that is not published (the proposal under test). */
 async function proposalBy(slug: string, email: string) {
@@ -38,14 +28,14 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     const title = '1/12 oval pan car on carpet, 13.5T on 1S';
     const liveBefore = await documentOf(db(), slug);
 
-    const jonah = await signedInPage(browser, server.baseUrl, 'jonah');
-    const calum = await signedInPage(browser, server.baseUrl, 'calum');
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const jonah = await signedInPage(suite.browser, suite.server.baseUrl, 'jonah');
+    const calum = await signedInPage(suite.browser, suite.server.baseUrl, 'calum');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = [jonah, calum, owen].map(watchPageErrors);
 
     // Both open the same live version 1 and edit different paragraphs.
-    await openProposal(jonah, server.baseUrl, slug, 'Bring the ramp start down by 1,000 rpm');
-    await openProposal(calum, server.baseUrl, slug, 'Under 70 °C after an eight-minute run');
+    await openProposal(jonah, suite.server.baseUrl, slug, 'Bring the ramp start down by 1,000 rpm');
+    await openProposal(calum, suite.server.baseUrl, slug, 'Under 70 °C after an eight-minute run');
     const jonahLine = 'Bring the ramp start down 500 rpm at a time, and only then add endbell timing.';
     const calumLine = 'Under 65 °C after an eight-minute run is fine in the cold hall';
     await editBody(jonah, 'Bring the ramp start down by 1,000 rpm before adding endbell timing.', jonahLine);
@@ -59,7 +49,7 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     // Jonah submits first and the moderator publishes him.
     await submitWithNote(jonah, 'Smaller ramp steps when the car is slow off the turns.');
     await jonah.waitForURL('**/me/revisions');
-    await publishFromQueue(owen, server.baseUrl, title);
+    await publishFromQueue(owen, suite.server.baseUrl, title);
     const liveAfter = await documentOf(db(), slug);
     expect(liveAfter.publishedRevisionId).not.toBe(liveBefore.publishedRevisionId);
     const jonahNumber = (await revisionsOf(db(), slug)).find((r) => r.id === liveAfter.publishedRevisionId)!.number;
@@ -115,16 +105,16 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     const slug = 'short-course-saltings-meadow-loose-dirt';
     const title = 'Short-course truck on Saltings Meadow loose dirt';
     const liveBefore = await documentOf(db(), slug);
-    const jonah = await signedInPage(browser, server.baseUrl, 'jonah');
-    const calum = await signedInPage(browser, server.baseUrl, 'calum', VIEWPORTS.phone);
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const jonah = await signedInPage(suite.browser, suite.server.baseUrl, 'jonah');
+    const calum = await signedInPage(suite.browser, suite.server.baseUrl, 'calum', VIEWPORTS.phone);
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = [jonah, calum, owen].map(watchPageErrors);
 
     const L1 = 'Raise punch a step and straighten the curve a little.';
     const L2 = 'Take drag brake to zero.';
     const L3 = 'Under 75 °C after a race is fine for this setup';
-    await openProposal(jonah, server.baseUrl, slug, L1);
-    await openProposal(calum, server.baseUrl, slug, L1);
+    await openProposal(jonah, suite.server.baseUrl, slug, L1);
+    await openProposal(calum, suite.server.baseUrl, slug, L1);
     for (const [from, to] of [
       [L1, 'Raise punch two steps and straighten the curve a little.'],
       [L2, 'Take drag brake to zero and soften the initial brake.'],
@@ -147,7 +137,7 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
 
     await submitWithNote(jonah, 'More punch in the morning, softer initial brake, cooler motor limit.');
     await jonah.waitForURL('**/me/revisions');
-    await publishFromQueue(owen, server.baseUrl, title);
+    await publishFromQueue(owen, suite.server.baseUrl, title);
     const liveAfter = await documentOf(db(), slug);
 
     await submitWithNote(calum, 'Morning punch and brake strength from this weekend’s runs.');

@@ -1,41 +1,31 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, screenshotPath, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshot, screenshotPath, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
 import { documentOf, revisionsOf, seriousViolations, signedInPage } from './guide-helpers';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-}, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
-const db = () => server.t.db.dataSource;
+const db = () => suite.server.t.db.dataSource;
 const focusedText = (page: Page) => page.evaluate(() => document.activeElement?.textContent?.trim() ?? null);
 
 async function visitorPage(viewport: { width: number; height: number } = VIEWPORTS.desktop) {
-  const context = await browser.newContext({ viewport });
+  const context = await suite.browser.newContext({ viewport });
   return context.newPage();
 }
 
 describe('withdraw, restore and hide in Chromium', () => {
   it('an author withdraws a proposal from the workbench and another from the editor: both are drafts again, out of the queue', async () => {
-    const rosa = await signedInPage(browser, server.baseUrl, 'rosa');
-    const jonah = await signedInPage(browser, server.baseUrl, 'jonah');
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
+    const jonah = await signedInPage(suite.browser, suite.server.baseUrl, 'jonah');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = [rosa, jonah, owen].map(watchPageErrors);
 
     // From the workbench: Rosa's new astroturf guide is waiting for review.
     const astroSlug = 'mod-2wd-buggy-brackwater-astroturf';
     const astroTitle = 'Modified 2WD buggy on astroturf, Brackwater Barn away round';
     expect((await revisionsOf(db(), astroSlug)).map((r) => r.state)).toEqual(['in_review']);
-    await rosa.goto(`${server.baseUrl}/me/revisions`);
+    await rosa.goto(`${suite.server.baseUrl}/me/revisions`);
     const waiting = rosa.getByRole('region', { name: /Waiting for review/ });
     await waiting.getByRole('button', { name: `Withdraw: ${astroTitle}` }).click();
     await rosa.getByText('Withdrawn: it is a draft again').waitFor();
@@ -52,7 +42,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     const eighthSlug = 'eighth-e-buggy-saltings-meadow';
     const proposal = (await revisionsOf(db(), eighthSlug)).find((r) => r.state === 'in_review')!;
     expect(proposal.authorEmail).toBe('jonah@tidewater.test');
-    await jonah.goto(`${server.baseUrl}/guides/${eighthSlug}`);
+    await jonah.goto(`${suite.server.baseUrl}/guides/${eighthSlug}`);
     await jonah.getByRole('link', { name: 'Propose an edit' }).click();
     const already = jonah.getByRole('note').filter({ hasText: 'You already have a revision of this in progress' });
     await already.getByRole('link', { name: 'Continue that one' }).click();
@@ -69,7 +59,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     expect((await revisionsOf(db(), eighthSlug)).find((r) => r.id === proposal.id)).toMatchObject({ state: 'draft' });
 
     // Neither is in the moderator's queue any more.
-    await owen.goto(`${server.baseUrl}/review`);
+    await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('table').waitFor();
     expect(await owen.getByRole('link', { name: astroTitle }).count()).toBe(0);
     expect(await owen.getByRole('link', { name: '1/8 electric buggy on Saltings Meadow' }).count()).toBe(0);
@@ -85,9 +75,9 @@ describe('withdraw, restore and hide in Chromium', () => {
       [2, 'archived'],
       [3, 'published'],
     ]);
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = watchPageErrors(owen);
-    await owen.goto(`${server.baseUrl}/guides/${slug}`);
+    await owen.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await waitForApp(owen); // buttons on the server-drawn page answer once the app has started
     const history = owen.getByRole('region', { name: 'History' });
     await history.getByRole('table').waitFor();
@@ -113,7 +103,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     // A visitor reads version 4 with version 1's text, and sees in the line and the history what it is.
     const visitor = await visitorPage();
     const visitorErrors = watchPageErrors(visitor);
-    await visitor.goto(`${server.baseUrl}/guides/${slug}`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 4, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
     await visitor.getByText(v1Line).first().waitFor();
     const row4 = visitor.getByRole('region', { name: 'History' }).getByRole('row').filter({ has: visitor.getByRole('rowheader', { name: 'Version 4' }) });
@@ -135,7 +125,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     const visitor = await visitorPage();
     const visitorErrors = watchPageErrors(visitor);
     const searchFinds = async () => {
-      await visitor.goto(`${server.baseUrl}/search?q=${encodeURIComponent('crawler rock garden')}`);
+      await visitor.goto(`${suite.server.baseUrl}/search?q=${encodeURIComponent('crawler rock garden')}`);
       const results = visitor.getByRole('region', { name: /results for/i });
       await results.waitFor(); // "N results for …" or "No results for …"
       return results.getByRole('link', { name: title, exact: true }).count();
@@ -143,9 +133,9 @@ describe('withdraw, restore and hide in Chromium', () => {
     // Before: the visitor finds it.
     expect(await searchFinds()).toBeGreaterThan(0);
 
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = watchPageErrors(owen);
-    await owen.goto(`${server.baseUrl}/guides/${slug}`);
+    await owen.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await waitForApp(owen);
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByRole('button', { name: 'Hide guide' }).click();
@@ -170,7 +160,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     expect(auditRow).toEqual({ reason, to_value: 'hidden' });
 
     // The visitor: a clear page instead of the guide, no reason shown, and nothing in the list or search.
-    await visitor.goto(`${server.baseUrl}/guides/${slug}`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await visitor.getByRole('heading', { name: 'This guide is not available', level: 1 }).waitFor();
     await visitor.getByText(/taken it out of public view/).waitFor();
     expect(await visitor.getByText(reason).count()).toBe(0);
@@ -192,7 +182,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     await expect.poll(() => focusedText(owen)).toBe('Hide guide');
     expect(await owen.getByRole('alert').filter({ hasText: 'Hidden from readers' }).count()).toBe(0);
     expect((await documentOf(db(), slug)).hiddenAt).toBeNull();
-    await visitor.goto(`${server.baseUrl}/guides/${slug}`);
+    await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await visitor.getByRole('heading', { name: title, level: 1 }).waitFor();
     await expect.poll(searchFinds, { timeout: 20_000 }).toBeGreaterThan(0);
     expect([...errors, ...visitorErrors]).toEqual([]);

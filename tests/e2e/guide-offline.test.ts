@@ -1,20 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
 import { editBody, openProposal, revisionsOf, seriousViolations, signedInPage, waitSaved } from './guide-helpers';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-}, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 const status = (page: Page) => page.getByTestId('autosave-status');
 
@@ -29,18 +19,18 @@ async function typeAtEnd(page: Page, text: string) {
 describe('nothing lost offline, in Chromium', () => {
   it('autosave fails while the author keeps typing; the editor says so, offers the text back after a reload, and stores it once the connection returns', async () => {
     const slug = 'drag-car-park-asphalt';
-    const rosa = await signedInPage(browser, server.baseUrl, 'rosa');
+    const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
     const errors = watchPageErrors(rosa);
     const body = rosa.getByLabel('Body');
 
     // A draft on the server to start from.
-    await openProposal(rosa, server.baseUrl, slug, '## ');
+    await openProposal(rosa, suite.server.baseUrl, slug, '## ');
     const firstLine = (await body.inputValue()).split('\n').find((l) => l.trim().length > 40)!;
     await editBody(rosa, firstLine, `${firstLine} Checked again on the new surface.`);
     await waitSaved(rosa);
     await rosa.waitForURL(/\?draft=/);
     const draftId = new URL(rosa.url()).searchParams.get('draft')!;
-    const draftRow = async () => (await revisionsOf(server.t.db.dataSource, slug)).find((r) => r.id === draftId)!;
+    const draftRow = async () => (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === draftId)!;
     expect((await draftRow()).content.body).toContain('Checked again on the new surface.');
 
     // The connection to the server drops for saves (reads still work, as on a flaky hall network).

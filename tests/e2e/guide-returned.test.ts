@@ -1,20 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import { screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
 import { editBody, revisionsOf, seriousViolations, signedInPage, waitSaved } from './guide-helpers';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-}, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 /** The path and query of the first link in a mail's text, to open on the test server. */
 function linkIn(text: string) {
@@ -29,16 +18,16 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     // Seeded: Rosa's version 3 of the stock buggy guide is waiting for review.
     const slug = 'stock-2wd-buggy-harbour-flats-clay';
     const title = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
-    const proposal = (await revisionsOf(server.t.db.dataSource, slug)).find((r) => r.state === 'in_review')!;
+    const proposal = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.state === 'in_review')!;
     expect(proposal).toMatchObject({ authorEmail: 'rosa@tidewater.test', number: 3 });
     const reason = 'The brake-curve example uses 15 % initial brake, but the checklist still says 10 %. Make them agree, and say which tyres the afternoon numbers were run on.';
 
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
-    const rosa = await signedInPage(browser, server.baseUrl, 'rosa');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
+    const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
     const errors = [owen, rosa].map(watchPageErrors);
 
     // The moderator opens it from the queue and sends it back; a reason is required.
-    await owen.goto(`${server.baseUrl}/review`);
+    await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('link', { name: title }).click();
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByRole('button', { name: 'Send back with a reason' }).click();
@@ -49,20 +38,20 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await dialog.getByLabel('Reason for the author').fill(reason);
     await screenshot(owen, 'guides-return-dialog');
     await dialog.getByRole('button', { name: 'Send back' }).click();
-    await owen.waitForURL(`${server.baseUrl}/review`);
+    await owen.waitForURL(`${suite.server.baseUrl}/review`);
     await owen.getByText('Sent back to the author').waitFor();
     expect(await owen.getByRole('link', { name: title }).count()).toBe(0);
-    const returned = (await revisionsOf(server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
+    const returned = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
     expect(returned).toMatchObject({ state: 'returned', reason, content: proposal.content });
 
     // The author is told by mail, with the reason and a link that opens the revision in the editor.
-    const mail = await server.t.waitForMail('rosa@tidewater.test', /^Sent back for changes: Stock 2WD buggy/, 20_000);
+    const mail = await suite.server.t.waitForMail('rosa@tidewater.test', /^Sent back for changes: Stock 2WD buggy/, 20_000);
     expect(mail.text).toContain(reason);
     const editorLink = linkIn(mail.text.slice(mail.text.indexOf('Open your revision')));
     expect(editorLink).toBe(`/guides/${slug}/edit?draft=${proposal.id}`);
 
     // On the workbench: the state and the reason.
-    await rosa.goto(`${server.baseUrl}/me/revisions`);
+    await rosa.goto(`${suite.server.baseUrl}/me/revisions`);
     const sentBack = rosa.getByRole('region', { name: /Sent back to you/ });
     await sentBack.getByText(title).waitFor();
     await sentBack.getByText(reason).waitFor();
@@ -75,7 +64,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await rosa.setViewportSize(VIEWPORTS.desktop);
 
     // The mail's link opens the editor with the reason on top.
-    await rosa.goto(`${server.baseUrl}${editorLink}`);
+    await rosa.goto(`${suite.server.baseUrl}${editorLink}`);
     const why = rosa.getByRole('note').filter({ hasText: 'Sent back by Owen Saltmarsh' });
     await why.getByText(reason).waitFor();
     await expect.poll(() => rosa.getByLabel('Body').inputValue()).toContain('Initial brake');
@@ -89,7 +78,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     const fixedLine = `${checklistLine} (15 % initial brake, as in the brake-curve example; afternoon numbers on worn pin tyres)`;
     await editBody(rosa, checklistLine!, fixedLine);
     await waitSaved(rosa);
-    const edited = (await revisionsOf(server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
+    const edited = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
     expect(edited.state).toBe('returned');
     expect(edited.content.body).toContain(fixedLine);
 
@@ -102,18 +91,18 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await rosa.waitForURL('**/me/revisions');
     await rosa.getByRole('region', { name: /Waiting for review/ }).getByText(title).waitFor();
     expect(await rosa.getByRole('region', { name: /Sent back to you/ }).count()).toBe(0);
-    const resubmitted = (await revisionsOf(server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
+    const resubmitted = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
     expect(resubmitted).toMatchObject({ state: 'in_review', reason: null });
     expect(resubmitted.note).toMatch(/Checklist now matches/);
 
     // The moderator is told again; the link opens the review page, which shows the new text.
-    const request = await server.t.waitForMail('owen@tidewater.test', /^Waiting for review: Stock 2WD buggy/, 20_000);
+    const request = await suite.server.t.waitForMail('owen@tidewater.test', /^Waiting for review: Stock 2WD buggy/, 20_000);
     const reviewLink = linkIn(request.text.slice(request.text.indexOf('Open it in the review queue')));
     expect(reviewLink).toBe(`/review/${proposal.id}`);
-    await owen.goto(`${server.baseUrl}/review`);
+    await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('link', { name: title }).waitFor();
     await screenshot(owen, 'guides-queue-resubmitted');
-    await owen.goto(`${server.baseUrl}${reviewLink}`);
+    await owen.goto(`${suite.server.baseUrl}${reviewLink}`);
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByText(/Checklist now matches the brake-curve example/).waitFor();
     await expect.poll(async () => (await owen.locator('ins').allTextContents()).join(' ')).toMatch(/worn pin tyres/);

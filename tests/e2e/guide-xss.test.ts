@@ -1,25 +1,24 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { createClient } from '../setup/test-app';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
-import { launchBrowser, screenshot, waitForApp } from '../setup/browser';
+import { screenshot, waitForApp } from '../setup/browser';
 import { signedInPage } from './guide-helpers';
 import { XSS_CORPUS, collectDialogs, readXssFlag, strictDomScan } from '../setup/xss';
+import { browserSuite } from '../setup/browser-suite';
 
 // The page runs with CSP bypassed, so the sanitizer is the only thing standing between the body and the page.
 const CORPUS = XSS_CORPUS;
 
 const BODY = `## Harmless heading\n\nOrdinary text before the corpus.\n\n${CORPUS.join('\n\n')}\n\nOrdinary text after the corpus.`;
 
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 let slug: string;
 let revisionId: string;
 
 async function apiAs(key: string) {
   const a = DEMO_ACCOUNTS.find((d) => d.key === key)!;
-  const client = createClient(server.t.app);
+  const client = createClient(suite.server.t.app);
   const res = await client.post('/api/auth/sign-in', { email: a.email, password: a.password });
   if (res.status !== 200) throw new Error(`sign-in ${key}: ${res.status}`);
   client.resetCsrf();
@@ -27,8 +26,6 @@ async function apiAs(key: string) {
 }
 
 beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
   const rosa = await apiAs('rosa');
   const created = await rosa.post('/api/guides', { title: 'Corpus check on Harbour Flats carpet', summary: 'A guide body made of hostile markup, to check that none of it runs.', class: 'touring-mod', surface: 'carpet', tags: ['test'], parameters: [], body: BODY });
   expect(created.status).toBe(201);
@@ -36,15 +33,11 @@ beforeAll(async () => {
   revisionId = created.body.data.revision.id;
   expect((await rosa.post(`/api/revisions/${revisionId}/submit`, { note: 'Corpus for the sanitizer check.' })).status).toBe(200);
 }, 60_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
 
 /** Loads a page with CSP bypassed, trips every event the corpus listens for, and reports what ran. */
 async function probe(page: Page, path: string, ready: string, prepare?: () => Promise<void>) {
   const dialogs = collectDialogs(page);
-  await page.goto(`${server.baseUrl}${path}`);
+  await page.goto(`${suite.server.baseUrl}${path}`);
   // Probe the page the app draws (the server-drawn one it replaces has had its chance by then too).
   await waitForApp(page);
   await page.getByText(ready).first().waitFor();
@@ -69,32 +62,32 @@ async function probe(page: Page, path: string, ready: string, prepare?: () => Pr
 
 describe('XSS corpus through guide bodies, rendered in Chromium', () => {
   it('runs no script on the review page, where a moderator meets the proposal first', async () => {
-    const owen = await signedInPage(browser, server.baseUrl, 'owen');
+    const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const ctx = owen.context();
     const page = await ctx.browser()!.newContext({ bypassCSP: true, storageState: await ctx.storageState() }).then((c) => c.newPage());
     const result = await probe(page, `/review/${revisionId}`, 'Corpus check on Harbour Flats carpet', () => page.getByText('Read the proposal as readers would see it').click());
     await screenshot(page, 'guides-xss-review');
-    expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${server.baseUrl}/review/${revisionId}` });
+    expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${suite.server.baseUrl}/review/${revisionId}` });
     // Publish it so readers can reach it.
-    await owen.goto(`${server.baseUrl}/review/${revisionId}`);
+    await owen.goto(`${suite.server.baseUrl}/review/${revisionId}`);
     await owen.getByRole('button', { name: 'Publish' }).click();
-    await owen.waitForURL(`${server.baseUrl}/review`);
+    await owen.waitForURL(`${suite.server.baseUrl}/review`);
   }, 90_000);
 
   it('runs no script on the public guide page, and the text around the corpus still reads', async () => {
-    const context = await browser.newContext({ bypassCSP: true });
+    const context = await suite.browser.newContext({ bypassCSP: true });
     const page = await context.newPage();
     const result = await probe(page, `/guides/${slug}`, 'Corpus check on Harbour Flats carpet');
     await screenshot(page, 'guides-xss-corpus');
-    expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${server.baseUrl}/guides/${slug}` });
+    expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${suite.server.baseUrl}/guides/${slug}` });
     await page.getByRole('heading', { name: 'Harmless heading' }).waitFor();
     await context.close();
   }, 90_000);
 
   it('the probe itself notices a script that does run (so a pass above means something)', async () => {
-    const context = await browser.newContext({ bypassCSP: true });
+    const context = await suite.browser.newContext({ bypassCSP: true });
     const page = await context.newPage();
-    await page.goto(`${server.baseUrl}/guides/${slug}`);
+    await page.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await page.locator('.prose-notebook').getByText('Ordinary text after the corpus.').waitFor();
     // Plant into the app's own page, not the server-drawn one the app replaces when it starts.
     await waitForApp(page);

@@ -1,18 +1,8 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
-import { start, type E2EServer } from '../setup/e2e-server';
+import { describe, expect, it } from 'vitest';
+import { revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 // 200 % browser zoom on a 1280 px window lays the page out at 640 CSS px.
 const SIZES = { desktop: VIEWPORTS.desktop, phone: VIEWPORTS.phone, zoom200: { width: 640, height: 450 } } as const;
@@ -36,10 +26,10 @@ describe('library and calculator pages at desktop, phone and 200 % zoom widths',
   for (const p of PAGES) {
     it(`${p.path} fits every width without sideways scrolling and without errors`, async () => {
       for (const [size, viewport] of Object.entries(SIZES)) {
-        const page = await browser.newPage({ viewport });
+        const page = await suite.browser.newPage({ viewport });
         const errors: string[] = [];
         page.on('pageerror', (e) => errors.push(e.message));
-        await page.goto(`${server.baseUrl}${p.path}`);
+        await page.goto(`${suite.server.baseUrl}${p.path}`);
         await revealWorkedExamples(page);
         await page.evaluate(() => window.scrollTo(0, 0));
         await page.locator(p.ready).first().waitFor();

@@ -1,26 +1,17 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
-import { start, type E2EServer } from '../setup/e2e-server';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 async function openPage(path: string, viewport: { width: number; height: number } = VIEWPORTS.desktop) {
-  const page = await browser.newPage({ viewport });
+  const page = await suite.browser.newPage({ viewport });
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
   const requests: string[] = [];
   page.on('request', (r) => requests.push(r.url()));
-  await page.goto(`${server.baseUrl}${path}`);
+  await page.goto(`${suite.server.baseUrl}${path}`);
   await revealWorkedExamples(page);
   return { page, errors, requests };
 }
@@ -81,7 +72,7 @@ describe('parameter page /parameters/ramped-advance', () => {
     expect(await guides.count()).toBeGreaterThan(1);
     await page.getByRole('complementary').getByRole('link', { name: 'Brake strength' }).click();
     await page.getByRole('heading', { level: 1, name: 'Brake strength' }).waitFor();
-    expect(page.url()).toBe(`${server.baseUrl}/parameters/brake-strength`);
+    expect(page.url()).toBe(`${suite.server.baseUrl}/parameters/brake-strength`);
     expect(errors).toEqual([]);
     await page.close();
   });
@@ -97,7 +88,7 @@ describe('parameter page /parameters/ramped-advance', () => {
   it('shows a broken worked-example block as a message in the card naming the field; the rest of the page still works', async () => {
     // A live revision whose block has a typo'd key and a bad value, as a careless edit could publish it.
     const bad = '```worked-example\ncalc: gearing\nspur: 84\npinnion: 40\ninternalRatio: 1.9\ntyreDiameterMm: huge\n```';
-    await server.t.db.dataSource.query(
+    await suite.server.t.db.dataSource.query(
       `UPDATE revisions r SET content = jsonb_set(r.content, '{body}', to_jsonb((r.content->>'body') || E'\n\n' || $1::text))
          FROM documents d WHERE d.published_revision_id = r.id AND d.slug = 'rollout'`,
       [bad],

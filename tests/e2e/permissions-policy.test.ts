@@ -1,28 +1,17 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../setup/browser';
-import { start, type E2EServer } from '../setup/e2e-server';
+import { describe, expect, it } from 'vitest';
+import { browserSuite } from '../setup/browser-suite';
 
 // The Permissions-Policy header as Chromium reads it: every feature it names is one the browser knows
 // (no "unrecognized feature" complaint), the denied ones are off for our own pages, and the one the app
 // uses (clipboard writing, for the calculators' copy button) stays on.
-let server: E2EServer;
-let browser: Browser;
-beforeAll(async () => {
-  server = await start({ seed: false, catcher: false });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite({ seed: false, catcher: false });
 
 describe('Permissions-Policy in Chromium', () => {
   it('GET /calculators: denied features are off, clipboard writing is on, and Chromium understands every entry', async () => {
-    const page = await browser.newPage();
+    const page = await suite.browser.newPage();
     const messages: string[] = [];
     page.on('console', (m) => messages.push(`${m.type()}: ${m.text()}`));
-    const res = await page.goto(`${server.baseUrl}/calculators`);
+    const res = await page.goto(`${suite.server.baseUrl}/calculators`);
     expect(res?.status()).toBe(200);
     await page.locator('main li a').first().waitFor();
     const allowed = await page.evaluate(() => {

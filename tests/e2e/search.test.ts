@@ -1,25 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import { screenshot, watchPageErrors } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite();
 
 describe('search in Chromium', () => {
   it('types into the header box, moves through suggestions with the keyboard and opens one', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     const errors = watchPageErrors(page);
-    await page.goto(`${server.baseUrl}/`);
+    await page.goto(`${suite.server.baseUrl}/`);
     const box = page.getByRole('combobox', { name: /search/i });
     await box.pressSequentially('dragbr', { delay: 40 });
     const list = page.getByRole('listbox', { name: 'Suggestions' });
@@ -38,7 +27,7 @@ describe('search in Chromium', () => {
     await page.waitForURL('**/parameters/drag-brake');
 
     // Mouse works too, and Escape closes the list.
-    await page.goto(`${server.baseUrl}/`);
+    await page.goto(`${suite.server.baseUrl}/`);
     await box.pressSequentially('punch', { delay: 30 });
     await list.getByRole('option', { name: /Throttle punch/ }).waitFor();
     await box.press('Escape');
@@ -48,7 +37,7 @@ describe('search in Chromium', () => {
     await page.waitForURL('**/parameters/throttle-punch');
 
     // Enter with nothing highlighted opens the full results page.
-    await page.goto(`${server.baseUrl}/`);
+    await page.goto(`${suite.server.baseUrl}/`);
     await box.fill('17.5T buggy clay');
     await box.press('Enter');
     await page.waitForURL(/\/search\?q=17\.5T\+buggy\+clay|\/search\?q=17\.5T%20buggy%20clay/);
@@ -57,9 +46,9 @@ describe('search in Chromium', () => {
   });
 
   it('shows results with highlighted snippets and facets whose filters live in the URL', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     const errors = watchPageErrors(page);
-    await page.goto(`${server.baseUrl}/search?q=drag%20brake`);
+    await page.goto(`${suite.server.baseUrl}/search?q=drag%20brake`);
     const results = page.getByRole('region', { name: /results for/i });
     await results.getByRole('link', { name: 'Drag brake' }).first().waitFor();
     const marks = await results.locator('mark').allTextContents();
@@ -81,7 +70,7 @@ describe('search in Chromium', () => {
     expect(titles.length).toBeGreaterThan(1);
     // The filtered search is shareable: opening the URL afresh shows the same thing.
     const shared = page.url();
-    const other = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const other = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await other.goto(shared);
     await other.getByRole('button', { name: /Surface: Clay/ }).waitFor();
     expect(
@@ -94,8 +83,8 @@ describe('search in Chromium', () => {
   });
 
   it('offers "did you mean" and starting points when nothing matches', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-    await page.goto(`${server.baseUrl}/search?q=drgabrkae`);
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await page.goto(`${suite.server.baseUrl}/search?q=drgabrkae`);
     await page.getByText('Did you mean').waitFor();
     await screenshot(page, 'search-empty-desktop');
     await page.getByRole('button', { name: 'Drag brake' }).click();
@@ -108,9 +97,9 @@ describe('search in Chromium', () => {
   });
 
   it('works at phone width', async () => {
-    const page = await browser.newPage({ viewport: { width: 375, height: 800 } });
+    const page = await suite.browser.newPage({ viewport: { width: 375, height: 800 } });
     const errors = watchPageErrors(page);
-    await page.goto(`${server.baseUrl}/`);
+    await page.goto(`${suite.server.baseUrl}/`);
     await page.getByRole('button', { name: 'Menu' }).click();
     const box = page.getByRole('combobox', { name: /search/i });
     await box.pressSequentially('lvc', { delay: 40 });
@@ -118,7 +107,7 @@ describe('search in Chromium', () => {
     await screenshot(page, 'search-suggestions-375');
     const width = await page.evaluate(() => document.documentElement.scrollWidth);
     expect(width).toBeLessThanOrEqual(375);
-    await page.goto(`${server.baseUrl}/search?q=blinky%20touring`);
+    await page.goto(`${suite.server.baseUrl}/search?q=blinky%20touring`);
     await page
       .getByRole('region', { name: /results for/i })
       .getByRole('link')

@@ -1,26 +1,19 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
-import { start, type E2EServer } from '../setup/e2e-server';
+import type { Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { screenshot, watchPageErrors } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
 // The comparison page shows what its address names: after two comparisons, back shows the first pair
 // again (pickers, legend, rpm, tables), forward the second, exactly as a fresh load of that address would.
 const A = 'guide:stock-2wd-buggy-harbour-flats-clay';
 const B = 'guide:mod-4wd-buggy-harbour-flats-clay';
 const C = 'guide:stadium-truck-harbour-flats-clay';
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 let titles: Record<string, string>;
 
 beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
-  const library = (await (await fetch(`${server.baseUrl}/api/setups`)).json()) as { data: { baselines: Array<{ guideSlug: string; guideTitle: string; revisionNumber: number }> } };
+  const library = (await (await fetch(`${suite.server.baseUrl}/api/setups`)).json()) as { data: { baselines: Array<{ guideSlug: string; guideTitle: string; revisionNumber: number }> } };
   titles = Object.fromEntries(library.data.baselines.map((b) => [`guide:${b.guideSlug}`, `${b.guideTitle} (v${b.revisionNumber})`]));
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
 });
 
 /** What the page shows once it has caught up with its address: the picks, the legend, the rpm field, the filter and both tables' text. */
@@ -46,7 +39,7 @@ async function shown(page: Page) {
 
 /** The same address loaded in a fresh page: what back or forward must reproduce. */
 async function freshLoad(url: string) {
-  const page = await browser.newPage();
+  const page = await suite.browser.newPage();
   try {
     await page.goto(url);
     return await shown(page);
@@ -62,10 +55,10 @@ async function waitForPair(page: Page, b: string) {
 
 describe('GET /setups/compare in Chromium: back and forward between two comparisons', () => {
   it('picking two pairs in the page, then back and forward, shows each pair as its address names it', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     const errors = watchPageErrors(page);
     // As from a guide's "Compare" link: A chosen, B still open.
-    await page.goto(`${server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}`);
+    await page.goto(`${suite.server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}`);
     await page.getByText('Choose two setups to compare').waitFor();
 
     // First comparison, read at 30,000 rpm with only the differences shown.
@@ -118,10 +111,10 @@ describe('GET /setups/compare in Chromium: back and forward between two comparis
   });
 
   it('two comparisons opened by address, then back: the first pair, not the second', async () => {
-    const page = await browser.newPage();
+    const page = await suite.browser.newPage();
     const errors = watchPageErrors(page);
-    const one = `${server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}&b=${encodeURIComponent(B)}&rpm=25000`;
-    const two = `${server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}&b=${encodeURIComponent(C)}`;
+    const one = `${suite.server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}&b=${encodeURIComponent(B)}&rpm=25000`;
+    const two = `${suite.server.baseUrl}/setups/compare?a=${encodeURIComponent(A)}&b=${encodeURIComponent(C)}`;
     await page.goto(one);
     const first = await shown(page);
     await page.goto(two);

@@ -2,30 +2,25 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import type { SetupRecord } from '../../shared/schemas/setup-record';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
+import { screenshot, watchPageErrors } from '../setup/browser';
 import { createUser } from '../factories/user';
+import { browserSuite } from '../setup/browser-suite';
 
 const GUIDE = 'stock-2wd-buggy-harbour-flats-clay';
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 let work: string;
 
 beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
   work = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-setup-journey-'));
 });
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
   if (work) fs.rmSync(work, { recursive: true, force: true });
 });
 
 async function signIn(page: Page, email: string, password: string) {
-  await page.goto(`${server.baseUrl}/sign-in?next=%2Fsetups`);
+  await page.goto(`${suite.server.baseUrl}/sign-in?next=%2Fsetups`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -34,8 +29,8 @@ async function signIn(page: Page, email: string, password: string) {
 
 describe('setup journey in Chromium', () => {
   it('a racer downloads a baseline, uploads an edited copy and sees the comparison with its cautions', async () => {
-    const { user, password } = await createUser(server.t, { displayName: 'Harbour Racer' });
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const { user, password } = await createUser(suite.server.t, { displayName: 'Harbour Racer' });
+    const context = await suite.browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
     const page = await context.newPage();
     const errors = watchPageErrors(page);
     await signIn(page, user.email, password);
@@ -89,7 +84,7 @@ describe('setup journey in Chromium', () => {
 
     // The print sheet: no navigation, everything on one A4 page.
     await page.setViewportSize({ width: 1280, height: 900 });
-    await page.goto(`${server.baseUrl}/guides/${GUIDE}/setup/print`);
+    await page.goto(`${suite.server.baseUrl}/guides/${GUIDE}/setup/print`);
     await page.getByRole('heading', { name: /Stock 2WD buggy on Harbour Flats clay/ }).waitFor();
     expect(await page.getByRole('navigation', { name: 'Main' }).count()).toBe(0);
     await screenshot(page, 'setup-print-sheet');
@@ -106,7 +101,7 @@ describe('setup journey in Chromium', () => {
     // The library at phone width.
     await page.emulateMedia({ media: 'screen' });
     await page.setViewportSize({ width: 375, height: 800 });
-    await page.goto(`${server.baseUrl}/setups`);
+    await page.goto(`${suite.server.baseUrl}/setups`);
     await page.getByTestId('baselines-table').waitFor();
     await screenshot(page, 'setups-library-375');
     await page.getByTestId('baselines-table').scrollIntoViewIfNeeded();
@@ -117,9 +112,9 @@ describe('setup journey in Chromium', () => {
   });
 
   it('builds a setup on /setups/new from the parameter library and checks it live', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     const errors = watchPageErrors(page);
-    await page.goto(`${server.baseUrl}/setups/new`);
+    await page.goto(`${suite.server.baseUrl}/setups/new`);
     await page.getByLabel('Spur (teeth)').fill('84');
     await page.getByLabel('Pinion (teeth)').fill('32');
     await page.getByLabel('Internal ratio (:1)').fill('2.6');

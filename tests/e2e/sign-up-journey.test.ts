@@ -1,28 +1,17 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
-import { launchBrowser, screenshot, watchPageErrors } from '../setup/browser';
+import { describe, expect, it } from 'vitest';
+import { screenshot, watchPageErrors } from '../setup/browser';
+import { browserSuite } from '../setup/browser-suite';
 
-let server: E2EServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await start({ seed: false });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const suite = browserSuite({ seed: false });
 
 describe('sign-up journey in Chromium', () => {
   it('signs up, opens the verification mail, verifies, signs in, sees the account page and signs out', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
     const errors = watchPageErrors(page);
     const email = 'harbour-newcomer@tidewater.test';
     const password = 'lantern-quay-pinion-snail-8';
 
-    await page.goto(`${server.baseUrl}/`);
+    await page.goto(`${suite.server.baseUrl}/`);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('tuning notebook');
     await screenshot(page, 'skeleton-home');
 
@@ -38,8 +27,8 @@ describe('sign-up journey in Chromium', () => {
     await page.getByText('Check your mail').waitFor();
 
     // The mail catcher captured the verification mail; the dev mailbox page shows it.
-    await server.t.waitForMail(email, /confirm/i);
-    await page.goto(`${server.baseUrl}/dev/mail`);
+    await suite.server.t.waitForMail(email, /confirm/i);
+    await page.goto(`${suite.server.baseUrl}/dev/mail`);
     await page.getByText('Confirm your e-mail for Tunewright').first().waitFor();
     await screenshot(page, 'skeleton-dev-mail');
     const link = page.locator('a[href*="/verify?token="]').first();
@@ -56,22 +45,22 @@ describe('sign-up journey in Chromium', () => {
 
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
-    await page.waitForURL(`${server.baseUrl}/`);
+    await page.waitForURL(`${suite.server.baseUrl}/`);
     const me = await page.evaluate(() => fetch('/api/auth/me').then((r) => r.json()));
     expect(me.data.user).toBeNull();
     expect(errors).toEqual([]);
 
     await page.setViewportSize({ width: 375, height: 800 });
-    await page.goto(`${server.baseUrl}/sign-in`);
+    await page.goto(`${suite.server.baseUrl}/sign-in`);
     await screenshot(page, 'skeleton-sign-in-phone');
     await page.close();
   }, 60_000);
 
   it('shows the guarded pages to the wrong people as "sign in" and "not allowed"', async () => {
-    const page = await browser.newPage();
-    await page.goto(`${server.baseUrl}/admin/users`);
+    const page = await suite.browser.newPage();
+    await page.goto(`${suite.server.baseUrl}/admin/users`);
     await page.getByRole('heading', { name: 'Sign in to continue' }).waitFor();
-    await page.goto(`${server.baseUrl}/no/such/page`);
+    await page.goto(`${suite.server.baseUrl}/no/such/page`);
     await page.getByRole('heading', { name: 'No page here' }).waitFor();
     await page.close();
   });

@@ -1,13 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { start, type E2EServer } from '../setup/e2e-server';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
 import { createClient, type TestClient } from '../setup/test-app';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
-import { launchBrowser, screenshot } from '../setup/browser';
+import { screenshot } from '../setup/browser';
 import { createUser } from '../factories/user';
 import { proposeEdit } from '../factories/guide';
 import { buildSetupRecord } from '../factories/setup-record';
 import { XSS_TEXT_CORPUS, collectDialogs, packCorpus, pageDomScan, readXssFlag } from '../setup/xss';
+import { browserSuite } from '../setup/browser-suite';
 
 // Every plain-text field a user writes, filled with the corpus (packed to each field's length limit),
 // then every page that shows it loaded in Chromium twice: once under the product's CSP, once with CSP
@@ -20,8 +20,7 @@ type Account = { email: string; password: string };
  */
 type Visit = { place: string; who: Account | null; path: string; expectText: string[]; pieces: number; nextPage?: string; fullLoad?: boolean };
 
-let server: E2EServer;
-let browser: Browser;
+const suite = browserSuite();
 const visits: Visit[] = [];
 /** place → how many corpus pieces reached it (for the coverage count below). */
 const coverage = new Map<string, number>();
@@ -35,7 +34,7 @@ const chunk = <T,>(xs: T[], n: number) => Array.from({ length: Math.ceil(xs.leng
 const pad = (i: number) => String(i).padStart(2, '0');
 
 async function apiClient(account: Account) {
-  const client = createClient(server.t.app);
+  const client = createClient(suite.server.t.app);
   const res = await client.post('/api/auth/sign-in', account);
   if (res.status !== 200) throw new Error(`sign-in ${account.email}: ${res.status}`);
   client.resetCsrf();
@@ -64,8 +63,6 @@ async function uploadSetup(client: TestClient, name: string, record: unknown) {
 }
 
 beforeAll(async () => {
-  server = await start();
-  browser = await launchBrowser();
   const rosa = await apiClient(demo('rosa'));
   const owen = await apiClient(demo('owen'));
   const T = XSS_TEXT_CORPUS;
@@ -114,7 +111,7 @@ beforeAll(async () => {
   await ok(owen.post(`/api/reviews/${history.data.revision!.id}/publish`));
   const people: Account[] = [];
   for (const [k, displayName] of names.entries()) {
-    const { user, password } = await createUser(server.t, { displayName });
+    const { user, password } = await createUser(suite.server.t, { displayName });
     const account = { email: user.email, password };
     people.push(account);
     const client = await apiClient(account);
@@ -182,17 +179,12 @@ beforeAll(async () => {
   }
 }, 120_000);
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
 /** One browser context per account, signed in through the API (the context shares its cookies). */
 async function contextFor(who: Account | null, bypassCSP: boolean): Promise<BrowserContext> {
-  const context = await browser.newContext({ bypassCSP, viewport: { width: 1280, height: 900 } });
+  const context = await suite.browser.newContext({ bypassCSP, viewport: { width: 1280, height: 900 } });
   if (who) {
-    const token = ((await (await context.request.get(`${server.baseUrl}/api/csrf`)).json()) as { data: { token: string } }).data.token;
-    const res = await context.request.post(`${server.baseUrl}/api/auth/sign-in`, { data: who, headers: { 'x-csrf-token': token } });
+    const token = ((await (await context.request.get(`${suite.server.baseUrl}/api/csrf`)).json()) as { data: { token: string } }).data.token;
+    const res = await context.request.post(`${suite.server.baseUrl}/api/auth/sign-in`, { data: who, headers: { 'x-csrf-token': token } });
     if (res.status() !== 200) throw new Error(`browser sign-in ${who.email}: ${res.status()}`);
   }
   return context;
@@ -244,7 +236,7 @@ async function runPass(bypassCSP: boolean): Promise<Finding[]> {
     const dialogs = collectDialogs(page);
     for (const [i, v] of group.entries()) {
       let previousText = '';
-      if (i === 0 || v.fullLoad) await page.goto(`${server.baseUrl}${v.path}`);
+      if (i === 0 || v.fullLoad) await page.goto(`${suite.server.baseUrl}${v.path}`);
       else {
         previousText = await page.evaluate((path) => {
           document.querySelector('#main > *')?.setAttribute('data-xss-previous', '');
@@ -279,9 +271,9 @@ describe('XSS corpus through every plain-text field, rendered in Chromium', () =
   }, 300_000);
 
   it('the page scan notices an injected handler and a script URL (so a pass above means something)', async () => {
-    const context = await browser.newContext({ bypassCSP: true });
+    const context = await suite.browser.newContext({ bypassCSP: true });
     const page = await context.newPage();
-    await page.goto(`${server.baseUrl}/guides`);
+    await page.goto(`${suite.server.baseUrl}/guides`);
     await page.getByRole('heading', { level: 1 }).first().waitFor();
     expect(await page.locator('body').evaluate(pageDomScan)).toEqual([]);
     await page.evaluate(() => {
