@@ -45,7 +45,7 @@ function HeaderSearch() {
     if (q.trim()) navigate(`/search?q=${encodeURIComponent(q.trim())}`);
   };
   return (
-    <form role="search" onSubmit={handleSubmit} className="w-full sm:w-56 lg:w-48 xl:w-60">
+    <form role="search" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-52 xl:w-56">
       <label className="sr-only" htmlFor="header-search">
         Search settings and guides
       </label>
@@ -54,11 +54,16 @@ function HeaderSearch() {
         type="search"
         value={q}
         onChange={(e) => setQ(e.target.value)}
-        placeholder="Search: drag brake, 17.5T, LVC…"
+        placeholder="Search: drag brake, 17.5T…"
         className="w-full rounded-md border border-ink/20 bg-white/80 px-3 py-1.5 text-sm placeholder:text-ink-faint"
       />
     </form>
   );
+}
+
+/** The name to greet someone by in tight places: the first word of their display name. */
+export function firstName(displayName: string) {
+  return displayName.trim().split(/\s+/)[0] || displayName;
 }
 
 function AccountMenu({ user }: { user: User | null | undefined }) {
@@ -85,8 +90,14 @@ function AccountMenu({ user }: { user: User | null | undefined }) {
   };
   return (
     <div className="flex items-center gap-2 text-sm">
-      <Link to="/account" className="rounded-md px-2 py-1 font-medium text-ink no-underline hover:bg-paper-deep">
-        {user.displayName}
+      {/* The first name keeps the header on one row; the whole name is the link's name and its tooltip. */}
+      <Link
+        to="/account"
+        aria-label={`${user.displayName}, your account`}
+        title={`${user.displayName} — your account`}
+        className="max-w-[10rem] truncate rounded-md px-2 py-1 font-medium text-ink no-underline hover:bg-paper-deep"
+      >
+        {firstName(user.displayName)}
       </Link>
       <button type="button" onClick={handleSignOut} className="rounded-md border border-ink/20 px-2.5 py-1 hover:bg-paper-deep">
         Sign out
@@ -103,22 +114,37 @@ export function AppLayout() {
   const Badge = navExtras.ReviewBadge;
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-ink focus:px-3 focus:py-2 focus:text-paper">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-ink focus:px-3 focus:py-2 focus:text-paper"
+      >
         Skip to content
       </a>
       <header className="no-print border-b border-paper-line bg-paper/95 backdrop-blur">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-3 px-4 py-3">
           <Brand />
-          <button type="button" className="ml-auto rounded-md border border-ink/20 px-3 py-1.5 text-sm md:hidden" aria-expanded={menuOpen} aria-controls="main-nav" onClick={() => setMenuOpen((o) => !o)}>
+          <button
+            type="button"
+            className="ml-auto rounded-md border border-ink/20 px-3 py-1.5 text-sm md:hidden"
+            aria-expanded={menuOpen}
+            aria-controls="main-nav"
+            onClick={() => setMenuOpen((o) => !o)}
+          >
             Menu
           </button>
-          <nav id="main-nav" aria-label="Main" className={`${menuOpen ? 'flex' : 'hidden'} w-full flex-col gap-1 md:flex md:w-auto md:flex-row md:items-center`}>
+          <nav
+            id="main-nav"
+            aria-label="Main"
+            className={`${menuOpen ? 'flex' : 'hidden'} w-full flex-col gap-1 md:flex md:w-auto md:flex-row md:items-center`}
+          >
             {items.map((n) => (
               <NavLink
                 key={n.to}
                 to={n.to}
                 onClick={() => setMenuOpen(false)}
-                className={({ isActive }) => `rounded-md px-2 py-1.5 text-sm font-medium no-underline ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`}
+                className={({ isActive }) =>
+                  `rounded-md px-2 py-1.5 text-sm font-medium no-underline md:px-1.5 ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`
+                }
               >
                 {n.label}
                 {n.to === '/review' && Badge && <Badge />}

@@ -69,7 +69,7 @@ export function SearchBox() {
   };
 
   return (
-    <div role="search" className="relative w-full sm:w-72">
+    <div role="search" className="relative w-full sm:w-72 lg:w-52 xl:w-56">
       <label className="sr-only" htmlFor={`${listId}-input`}>
         Search settings, guides and setups
       </label>
@@ -93,7 +93,7 @@ export function SearchBox() {
         onFocus={() => value && setOpen(true)}
         onBlur={() => setOpen(false)}
         onKeyDown={handleKeyDown}
-        placeholder="Search: drag brake, 17.5T, LVC…"
+        placeholder="Search: drag brake, 17.5T…"
         className="w-full rounded-md border border-ink/20 bg-white/80 px-3 py-1.5 text-sm placeholder:text-ink-faint focus:border-copper focus:outline-none"
       />
       <ul
