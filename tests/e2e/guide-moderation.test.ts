@@ -112,8 +112,18 @@ describe('withdraw, restore and hide in Chromium', () => {
     expect(await visitor.getByRole('button', { name: /Restore version/ }).count()).toBe(0); // readers cannot restore
     await screenshot(visitor, 'guides-restored-v4');
     await visitor.setViewportSize(VIEWPORTS.phone);
-    // The wide history table scrolls inside its box; nothing widens the page past the phone's width.
+    // On a phone the history is a list of versions, newest first, that fits the width.
     await expect.poll(() => visitor.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
+    const phoneHistory = visitor.getByRole('region', { name: 'History' });
+    expect(await phoneHistory.getByRole('table').count()).toBe(0);
+    const items = phoneHistory.getByRole('list', { name: 'Versions of this guide, newest first' }).getByRole('listitem');
+    expect(await items.count()).toBe(4);
+    await items.first().getByRole('link', { name: 'Version 4' }).waitFor();
+    await items.first().getByText('Restores version 1').waitFor();
+    await items.nth(3).getByRole('link', { name: 'Compare with live (version 1)' }).waitFor();
+    const tallest = await items.evaluateAll((els) => Math.max(...els.map((e) => e.getBoundingClientRect().height)));
+    await phoneHistory.screenshot({ path: screenshotPath('guides-history-phone') });
+    expect(tallest).toBeLessThan(320); // no column squeezed into a tower (a long edit note wraps at full width)
     await screenshot(visitor, 'guides-restored-v4-phone');
     expect([...errors, ...visitorErrors]).toEqual([]);
   }, 120_000);

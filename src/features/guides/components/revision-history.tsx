@@ -19,7 +19,11 @@ function stateTone(state: HistoryItem['state']) {
 
 /** A revision state in our words, as a small badge. */
 export function StateBadge({ state }: { state: HistoryItem['state'] }) {
-  return <span className={`inline-flex rounded-full border px-2 py-0.5 text-xs font-medium whitespace-nowrap ${stateTone(state)}`}>{REVISION_STATE_LABELS[state]}</span>;
+  return (
+    <span className={`inline-flex rounded-full border px-2 py-0.5 text-xs font-medium whitespace-nowrap ${stateTone(state)}`}>
+      {REVISION_STATE_LABELS[state]}
+    </span>
+  );
 }
 
 function ComparePicker({ slug, numbers, defaultFrom, defaultTo }: { slug: string; numbers: number[]; defaultFrom: number; defaultTo: number }) {
@@ -41,13 +45,66 @@ function ComparePicker({ slug, numbers, defaultFrom, defaultTo }: { slug: string
   );
 }
 
+/** What can be done with one version from the history: compare it with the live one, restore it (moderators). */
+function RowActions({
+  slug,
+  row,
+  live,
+  canModerate,
+  onRestore,
+}: {
+  slug: string;
+  row: HistoryItem;
+  live: HistoryItem | undefined;
+  canModerate: boolean;
+  onRestore: (r: HistoryItem) => void;
+}) {
+  if (!live || row.number === live.number) return null;
+  return (
+    <div className="flex flex-wrap gap-x-3 gap-y-1 whitespace-nowrap sm:justify-end sm:gap-2">
+      <Link
+        to={`/guides/${slug}/compare?from=${Math.min(row.number, live.number)}&to=${Math.max(row.number, live.number)}`}
+        aria-label={`Compare with live (version ${row.number})`}
+      >
+        Compare with live
+      </Link>
+      {canModerate && row.state === 'archived' && (
+        <button
+          type="button"
+          className="text-copper-dark underline decoration-copper/40 underline-offset-2 hover:decoration-copper"
+          onClick={() => onRestore(row)}
+          aria-label={`Restore version ${row.number}`}
+        >
+          Restore
+        </button>
+      )}
+    </div>
+  );
+}
+
+function RowNote({ row }: { row: HistoryItem }) {
+  return (
+    <>
+      {row.note || '—'}
+      {row.restoredFromNumber != null && <span className="block text-xs text-ink-muted">Restores version {row.restoredFromNumber}</span>}
+    </>
+  );
+}
+
+const rowDate = (r: HistoryItem) => formatDate(r.publishedAt ?? r.submittedAt ?? r.createdAt);
+
 /** Every public revision of a guide, with links to each permalink, comparisons and (moderators) restore. */
 export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: string; canModerate: boolean; currentNumber?: number }) {
   const revisions = useQuery(guideQueries.revisions(slug));
   const restore = useRestoreRevision(slug);
   const [restoring, setRestoring] = useState<HistoryItem | null>(null);
   if (revisions.isPending) return <Spinner label="Loading history…" />;
-  if (revisions.isError) return <Notice tone="danger" title="The history could not be loaded">{revisions.error.message}</Notice>;
+  if (revisions.isError)
+    return (
+      <Notice tone="danger" title="The history could not be loaded">
+        {revisions.error.message}
+      </Notice>
+    );
   const rows = [...revisions.data].sort((a, b) => b.number - a.number);
   const live = rows.find((r) => r.state === 'published');
   const numbers = rows.map((r) => r.number).sort((a, b) => a - b);
@@ -63,16 +120,46 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
   };
   return (
     <div className="flex flex-col gap-4">
-      <div className="table-scroll">
+      {/* On a phone the versions stack as a list; from the small breakpoint up they line up in a table. */}
+      <ol className="flex flex-col divide-y divide-paper-line border-y border-paper-line sm:hidden" aria-label="Versions of this guide, newest first">
+        {rows.map((r) => (
+          <li key={r.id} className={`flex flex-col gap-1 px-1 py-3 text-sm ${r.number === currentNumber ? 'bg-copper-wash/50' : ''}`}>
+            <div className="flex items-center justify-between gap-2">
+              <Link to={`/guides/${slug}/v/${r.number}`} className="font-semibold">
+                Version {r.number}
+              </Link>
+              <StateBadge state={r.state} />
+            </div>
+            <p className="text-xs text-ink-muted">
+              {r.author.displayName} · {rowDate(r)}
+            </p>
+            <p className="text-ink-soft">
+              <RowNote row={r} />
+            </p>
+            <RowActions slug={slug} row={r} live={live} canModerate={canModerate} onRestore={setRestoring} />
+          </li>
+        ))}
+      </ol>
+      <div className="table-scroll hidden sm:block">
         <table className="w-full border-collapse text-sm">
           <caption className="sr-only">Versions of this guide, newest first</caption>
           <thead>
             <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-              <th scope="col" className="px-3 py-2 font-semibold">Version</th>
-              <th scope="col" className="px-3 py-2 font-semibold">State</th>
-              <th scope="col" className="px-3 py-2 font-semibold">Author</th>
-              <th scope="col" className="px-3 py-2 font-semibold">Date</th>
-              <th scope="col" className="px-3 py-2 font-semibold">Edit note</th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                Version
+              </th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                State
+              </th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                Author
+              </th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                Date
+              </th>
+              <th scope="col" className="px-3 py-2 font-semibold">
+                Edit note
+              </th>
               <th scope="col" className="px-3 py-2 font-semibold">
                 <span className="sr-only">Actions</span>
               </th>
@@ -92,24 +179,12 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
                   <StateBadge state={r.state} />
                 </td>
                 <td className="px-3 py-2 whitespace-nowrap">{r.author.displayName}</td>
-                <td className="px-3 py-2 whitespace-nowrap">{formatDate(r.publishedAt ?? r.submittedAt ?? r.createdAt)}</td>
+                <td className="px-3 py-2 whitespace-nowrap">{rowDate(r)}</td>
                 <td className="max-w-md px-3 py-2 text-ink-soft">
-                  {r.note || '—'}
-                  {r.restoredFromNumber != null && <span className="block text-xs text-ink-muted">Restores version {r.restoredFromNumber}</span>}
+                  <RowNote row={r} />
                 </td>
                 <td className="px-3 py-2">
-                  <div className="flex flex-wrap justify-end gap-2 whitespace-nowrap">
-                    {live && r.number !== live.number && (
-                      <Link to={`/guides/${slug}/compare?from=${Math.min(r.number, live.number)}&to=${Math.max(r.number, live.number)}`} aria-label={`Compare with live (version ${r.number})`}>
-                        Compare with live
-                      </Link>
-                    )}
-                    {canModerate && live && r.state === 'archived' && (
-                      <button type="button" className="text-copper-dark underline decoration-copper/40 underline-offset-2 hover:decoration-copper" onClick={() => setRestoring(r)} aria-label={`Restore version ${r.number}`}>
-                        Restore
-                      </button>
-                    )}
-                  </div>
+                  <RowActions slug={slug} row={r} live={live} canModerate={canModerate} onRestore={setRestoring} />
                 </td>
               </tr>
             ))}
@@ -133,7 +208,8 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
         }
       >
         <p className="text-sm text-ink-soft">
-          This publishes a new version with the text and details of version {restoring?.number}. The current live version {live?.number} becomes superseded; nothing is deleted, and the history notes which version was restored.
+          This publishes a new version with the text and details of version {restoring?.number}. The current live version {live?.number} becomes superseded;
+          nothing is deleted, and the history notes which version was restored.
         </p>
       </Dialog>
     </div>
