@@ -16,6 +16,12 @@ export type DocumentListener = {
   close(): Promise<void>;
   /** True while LISTEN is active. */
   readonly listening: boolean;
+  /**
+   * Asks PostgreSQL for `SELECT 1` over this dedicated connection: true when it answers within
+   * `timeoutMs`. It never waits behind the request pool, so it tells whether the database is there even
+   * when every pooled connection is busy.
+   */
+  ping(timeoutMs: number): Promise<boolean>;
 };
 
 const ACTIONS = new Set(['published', 'restored', 'hidden', 'unhidden']);
@@ -150,6 +156,24 @@ export function createDocumentListener(opts: { connectionString: string; logger:
     },
     get listening() {
       return listening;
+    },
+    async ping(timeoutMs) {
+      const c = client;
+      if (!c || !listening) return false;
+      let timer: ReturnType<typeof setTimeout> | undefined;
+      try {
+        return await Promise.race([
+          c.query('SELECT 1').then(() => true),
+          new Promise<boolean>((resolve) => {
+            timer = setTimeout(() => resolve(false), timeoutMs);
+            timer.unref();
+          }),
+        ]);
+      } catch {
+        return false;
+      } finally {
+        clearTimeout(timer);
+      }
     },
   };
 }

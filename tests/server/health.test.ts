@@ -53,7 +53,7 @@ describe('GET /api/health', () => {
   it('reports ok, then 503 with db down while PostgreSQL is stopped, and recovers by itself', async () => {
     const ok = await request(app).get('/api/health');
     expect(ok.status).toBe(200);
-    expect(ok.body.data).toMatchObject({ status: 'ok', db: 'ok' });
+    expect(ok.body.data).toMatchObject({ status: 'ok', db: 'ok', changes: 'ok' });
     expect(ok.body.data.version).toMatch(/^\d+\.\d+\.\d+/);
 
     cluster.stop();
@@ -61,7 +61,7 @@ describe('GET /api/health', () => {
     const down = await request(app).get('/api/health');
     expect(Date.now() - started).toBeLessThan(5000);
     expect(down.status).toBe(503);
-    expect(down.body.data).toMatchObject({ status: 'degraded', db: 'down' });
+    expect(down.body.data).toMatchObject({ status: 'degraded', db: 'down', changes: 'down' });
     // Routes that need the database fail fast in the error shape, not with a 500 or a hang.
     const me = await request(app).get('/api/auth/me').set('Cookie', 'tw.sid=s%3Aabc.def');
     expect([200, 503]).toContain(me.status);
@@ -77,7 +77,28 @@ describe('GET /api/health', () => {
     }
     expect(back.status).toBe(200);
     expect(back.body.data.db).toBe('ok');
+    // The change listener reconnects on its own too (with back-off), and health says so.
+    for (let i = 0; i < 40 && back.body.data.changes !== 'ok'; i++) {
+      await new Promise((r) => setTimeout(r, 250));
+      back = await request(app).get('/api/health');
+    }
+    expect(back.body.data).toMatchObject({ status: 'ok', db: 'ok', changes: 'ok' });
   }, 60_000);
+
+  it('stays ok and quick while every pooled connection is busy (it does not queue behind them)', async () => {
+    // Occupy the whole request pool (10 connections) for three seconds.
+    let firstFreed = Infinity;
+    const busy = Array.from({ length: 10 }, () => ds.query('SELECT pg_sleep(3)').then(() => (firstFreed = Math.min(firstFreed, Date.now()))));
+    const pool = (ds.driver as unknown as { master: { totalCount: number; idleCount: number } }).master;
+    await expect.poll(() => pool.totalCount - pool.idleCount).toBe(10); // all of them taken
+    const res = await request(app).get('/api/health');
+    const answeredAt = Date.now();
+    expect(res.status).toBe(200);
+    expect(res.body.data).toMatchObject({ status: 'ok', db: 'ok', changes: 'ok' });
+    // Answered while the pool was still fully busy: it did not wait for a pooled connection.
+    expect(answeredAt).toBeLessThan(firstFreed);
+    await Promise.all(busy);
+  }, 30_000);
 });
 
 describe('security headers', () => {
