@@ -101,6 +101,33 @@ describe('GET /api/health', () => {
   }, 30_000);
 });
 
+describe('GET /api/health under a burst', () => {
+  it('answers many probes at once with one check of the database, not one each', async () => {
+    const listener = ctx.documentListener;
+    const original = listener.ping.bind(listener);
+    let pings = 0;
+    // A slow answer (as from a busy machine): probes arriving meanwhile must wait for this one, not start their own.
+    listener.ping = async (ms) => {
+      pings++;
+      await new Promise((r) => setTimeout(r, 150));
+      return original(ms);
+    };
+    try {
+      const server = (await import('node:http')).createServer(app);
+      await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+      const port = (server.address() as { port: number }).port;
+      // Twenty probes sent together over separate connections.
+      const answers = await Promise.all(Array.from({ length: 20 }, () => fetch(`http://127.0.0.1:${port}/api/health`, { headers: { connection: 'close' } }).then(async (r) => ({ status: r.status, body: await r.json() }))));
+      await new Promise<void>((r) => server.close(() => r()));
+      expect(answers.every((a) => a.status === 200 && a.body.data.db === 'ok' && a.body.data.changes === 'ok')).toBe(true);
+      expect(pings).toBeGreaterThanOrEqual(1);
+      expect(pings).toBeLessThan(20);
+    } finally {
+      listener.ping = original;
+    }
+  });
+});
+
 describe('security headers', () => {
   it('sets a CSP without inline script, nosniff, frame-ancestors and a referrer policy', async () => {
     const res = await request(app).get('/api/health');
