@@ -46,6 +46,11 @@ async function main() {
     if (since) lines.push(`Ready in ${((Date.now() - since) / 1000).toFixed(1)} s`);
     console.log(lines.join('\n'));
   });
+  // Keep idle connections open longer than the clients and balancers in front of us do (they commonly
+  // idle out at 60 s): with Node's 5 s default, a client reusing a connection just as the server closes
+  // it gets a connection reset instead of an answer.
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
 
   let closing = false;
   const shutdown = async () => {

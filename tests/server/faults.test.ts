@@ -138,15 +138,11 @@ describe('PostgreSQL restarts in the middle of load', () => {
         `back ${recoveredAt ? recoveredAt - restartedAt : 'never'} ms after the restart; ${attempted.length} sign-ups tried`,
     );
 
-    // Open item: a connection or two can be reset at the very instant PostgreSQL goes away (cause not found
-    // yet; the app stays up). Resets are tolerated only for requests that were in flight within half a
-    // second of the stop (when the reset is noticed can lag on a busy machine), nowhere else.
-    const resetsAtStop = socketErrors.filter((e) => e.sent <= stoppedAt + 500 && e.at >= stoppedAt - 500);
-    if (socketErrors.length)
-      console.log(`faults: ${socketErrors.length} socket errors (${resetsAtStop.length} at the stop): ${socketErrors.map((e) => e.message).join('; ')}`);
+    // No connection is reset, not even at the instant PostgreSQL goes away. (One or two used to be: a session
+    // save failing after the answer went to Express's final handler, which destroyed the kept-alive socket.)
+    if (socketErrors.length) console.log(`faults: ${socketErrors.length} socket errors: ${socketErrors.map((e) => e.message).join('; ')}`);
     expect(app.child.exitCode).toBeNull();
-    expect(socketErrors.filter((e) => !resetsAtStop.includes(e)).map((e) => e.message)).toEqual([]);
-    expect(resetsAtStop.length).toBeLessThanOrEqual(3);
+    expect(socketErrors.map((e) => e.message)).toEqual([]);
     expect(slowest).toBeLessThan(5000);
     const fivehundreds = seen.filter((s) => s.status >= 500 && s.status !== 503);
     if (fivehundreds.length)
