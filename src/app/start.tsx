@@ -5,21 +5,24 @@ import { initialData } from './seed-from-page';
 import { AppProvider } from './provider';
 import { AppRouter, router } from './router';
 import './nav-extras-setup';
+import { keepHeaderSearch } from './carry-over';
 
 /** Marks the document once the app has drawn itself (a server-drawn page has been replaced by then). */
-function Started() {
+function Started({ onStarted }: { onStarted: () => void }) {
   useEffect(() => {
+    onStarted();
     document.documentElement.dataset.app = 'running';
-  }, []);
+  }, [onStarted]);
   return null;
 }
 
 function render() {
+  const restoreSearch = keepHeaderSearch();
   createRoot(document.getElementById('root')!).render(
     <StrictMode>
       <AppProvider>
         <AppRouter />
-        <Started />
+        <Started onStarted={restoreSearch} />
       </AppProvider>
     </StrictMode>,
   );

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { revealWorkedExamples, screenshot, VIEWPORTS, watchPageErrors } from '../setup/browser';
+import { revealWorkedExamples, screenshot, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 
 const SLUG = 'stock-2wd-buggy-harbour-flats-clay';
@@ -59,5 +59,47 @@ describe('guide page drawn on the server', () => {
     await page.getByRole('heading', { level: 1, name: TITLE }).waitFor();
     expect(errors).toEqual([]);
     await page.close();
+  });
+
+  it('keeps what a reader typed into the header search before the app started, and Enter before then opens the results', async () => {
+    const context = await suite.browser.newContext({ viewport: VIEWPORTS.desktop });
+    const page = await context.newPage();
+    const errors = watchPageErrors(page);
+    // Hold the app's code back, as a slow phone would, so the typing lands on the server-drawn page.
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    await page.route('**/assets/start-*.js', async (route) => {
+      await held;
+      await route.continue();
+    });
+    await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
+    await page.getByRole('heading', { level: 1, name: TITLE }).waitFor();
+    const box = page.getByRole('banner').getByRole('combobox');
+    await box.click();
+    await box.pressSequentially('drag br');
+    expect(await page.evaluate(() => document.documentElement.dataset.app ?? null)).toBeNull(); // still the server's page
+    release();
+    await waitForApp(page);
+    expect(await box.inputValue()).toBe('drag br');
+    expect(await box.evaluate((el) => el === document.activeElement)).toBe(true);
+    // The app knows the text (not just the DOM): typing on shows suggestions for the whole query.
+    await box.pressSequentially('ake');
+    await page
+      .getByRole('listbox', { name: 'Suggestions' })
+      .getByRole('option', { name: /Drag brake/ })
+      .first()
+      .waitFor();
+    expect(errors).toEqual([]);
+
+    // Enter before the app is there: the box is a real form, so the results page opens.
+    const second = await context.newPage();
+    await second.route('**/assets/start-*.js', () => new Promise(() => {})); // never arrives
+    await second.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
+    await second.getByRole('heading', { level: 1, name: TITLE }).waitFor();
+    const box2 = second.getByRole('banner').getByRole('combobox');
+    await box2.fill('lvc');
+    await box2.press('Enter');
+    await second.waitForURL(/\/search\?q=lvc$/);
+    await context.close();
   });
 });

@@ -8,6 +8,7 @@ import { proposeEdit } from '../factories/guide';
 import { buildSetupRecord } from '../factories/setup-record';
 import { XSS_TEXT_CORPUS, collectDialogs, packCorpus, pageDomScan, readXssFlag } from '../setup/xss';
 import { browserSuite } from '../setup/browser-suite';
+import { firstName } from '../../src/lib/names';
 
 // Every plain-text field a user writes, filled with the corpus (packed to each field's length limit),
 // then every page that shows it loaded in Chromium twice: once under the product's CSP, once with CSP
@@ -18,7 +19,7 @@ type Account = { email: string; password: string };
  * A page to check; `nextPage` clicks that button once (a paged table) and checks the page after it too;
  * `fullLoad` loads it afresh (the compare page keeps its own picks when only the URL changes).
  */
-type Visit = { place: string; who: Account | null; path: string; expectText: string[]; pieces: number; nextPage?: string; fullLoad?: boolean };
+type Visit = { place: string; who: Account | null; path: string; expectText: string[]; pieces: number; nextPage?: string; fullLoad?: boolean; /** The header's account link must carry this whole name as its accessible name. */ expectLabel?: string };
 
 const suite = browserSuite();
 const visits: Visit[] = [];
@@ -168,9 +169,10 @@ beforeAll(async () => {
   for (const p of proposals) addVisit({ place: 'parameter name/aliases/summary: review page', who: demo('owen'), path: `/review/${p.id}`, expectText: [p.name, p.summary, ...p.aliases], pieces: piecesIn([...paramNames, ...aliasSets.flat(), ...paramSummaries]) });
   addVisit({ place: 'display name: admin users table', who: demo('nell'), path: '/admin/users', expectText: names, pieces: piecesIn(names), nextPage: 'Next' });
   addVisit({ place: 'display name: guide byline/history', who: anon, path: `/guides/${historySlug}`, expectText: names, pieces: piecesIn(names) });
-  // The header shows only the signed-in account's own name, so each costs a full page load: a spread of six.
+  // The header shows only the signed-in account's own name (its first word; the whole name is the link's
+  // accessible name and tooltip), so each costs a full page load: a spread of six.
   const sample = [0, 1, 2, 3, 4, 5].map((i) => Math.round((i * (people.length - 1)) / 5));
-  for (const k of sample) addVisit({ place: 'display name: header', who: people[k], path: '/calculators', expectText: [names[k]], pieces: piecesIn(sample.map((i) => names[i])) });
+  for (const k of sample) addVisit({ place: 'display name: header', who: people[k], path: '/calculators', expectText: [firstName(names[k])], expectLabel: names[k], pieces: piecesIn(sample.map((i) => names[i])) });
   addVisit({ place: 'setup file name: setup library', who: demo('rosa'), path: '/setups', expectText: uploads.map((u) => u.label), pieces: fileNames.length });
   for (let u = 0; u < uploads.length; u += 2) {
     const a = uploads[u];
@@ -204,6 +206,10 @@ async function inspect(page: Page, v: Visit, dialogs: string[], text: string): P
   for (const bad of await page.locator('body').evaluate(pageDomScan)) add(`injected ${bad}`);
   if (new URL(page.url()).pathname !== v.path.split('?')[0]) add(`navigated to ${page.url()}`);
   for (const x of v.expectText.filter((e) => !text.includes(e))) add(`not shown as text: ${x.slice(0, 60)}`);
+  if (v.expectLabel) {
+    const label = await page.getByRole('banner').locator('a[href="/account"]').getAttribute('aria-label', { timeout: 2000 }).catch(() => null);
+    if (label !== `${v.expectLabel}, your account`) add(`account link not named by the whole name: ${String(label).slice(0, 60)}`);
+  }
   return findings;
 }
 

@@ -4,6 +4,7 @@ import { toast } from 'sonner';
 import { ROLE_RANK, type Role } from '@shared/constants';
 import type { User } from '@shared/schemas/user';
 import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';
+import { firstName } from '@/lib/names';
 import { navExtras } from './nav-extras';
 
 type NavItem = { to: string; label: string; min?: Role };
@@ -45,12 +46,13 @@ function HeaderSearch() {
     if (q.trim()) navigate(`/search?q=${encodeURIComponent(q.trim())}`);
   };
   return (
-    <form role="search" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-52 xl:w-56">
+    <form role="search" action="/search" method="get" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-52 xl:w-56">
       <label className="sr-only" htmlFor="header-search">
         Search settings and guides
       </label>
       <input
         id="header-search"
+        name="q"
         type="search"
         value={q}
         onChange={(e) => setQ(e.target.value)}
@@ -59,11 +61,6 @@ function HeaderSearch() {
       />
     </form>
   );
-}
-
-/** The name to greet someone by in tight places: the first word of their display name. */
-export function firstName(displayName: string) {
-  return displayName.trim().split(/\s+/)[0] || displayName;
 }
 
 function AccountMenu({ user }: { user: User | null | undefined }) {

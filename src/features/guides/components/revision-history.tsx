@@ -35,9 +35,10 @@ function ComparePicker({ slug, numbers, defaultFrom, defaultTo }: { slug: string
     navigate(`/guides/${slug}/compare?from=${from}&to=${to}`);
   };
   return (
-    <form onSubmit={handleSubmit} className="flex flex-wrap items-end gap-2 text-sm">
-      <VersionSelect label="Compare version" numbers={numbers} value={from} onChange={setFrom} />
-      <VersionSelect label="with version" numbers={numbers} value={to} onChange={setTo} />
+    // A real GET form, so it also works on a server-drawn page before the app has started.
+    <form action={`/guides/${slug}/compare`} method="get" onSubmit={handleSubmit} className="flex flex-wrap items-end gap-2 text-sm">
+      <VersionSelect label="Compare version" name="from" numbers={numbers} value={from} onChange={setFrom} />
+      <VersionSelect label="with version" name="to" numbers={numbers} value={to} onChange={setTo} />
       <Button type="submit" variant="secondary" size="sm" disabled={from === to}>
         Compare
       </Button>
@@ -216,11 +217,28 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
   );
 }
 
-function VersionSelect({ label, numbers, value, onChange }: { label: string; numbers: number[]; value: number; onChange: (n: number) => void }) {
+function VersionSelect({
+  label,
+  name,
+  numbers,
+  value,
+  onChange,
+}: {
+  label: string;
+  name: string;
+  numbers: number[];
+  value: number;
+  onChange: (n: number) => void;
+}) {
   return (
     <label className="flex flex-col gap-1">
       <span className="font-medium">{label}</span>
-      <select className="rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 text-sm" value={value} onChange={(e) => onChange(Number(e.target.value))}>
+      <select
+        name={name}
+        className="rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 text-sm"
+        value={value}
+        onChange={(e) => onChange(Number(e.target.value))}
+      >
         {numbers.map((n) => (
           <option key={n} value={n}>
             {n}

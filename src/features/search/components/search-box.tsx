@@ -69,13 +69,25 @@ export function SearchBox() {
   };
 
   return (
-    <div role="search" className="relative w-full sm:w-72 lg:w-52 xl:w-56">
+    // A real GET form: before the app has started on a server-drawn page (or without script), Enter
+    // still opens the results page.
+    <form
+      role="search"
+      action="/search"
+      method="get"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (value.trim()) go(`/search?q=${encodeURIComponent(value.trim())}`);
+      }}
+      className="relative w-full sm:w-72 lg:w-52 xl:w-56"
+    >
       <label className="sr-only" htmlFor={`${listId}-input`}>
         Search settings, guides and setups
       </label>
       <input
         ref={inputRef}
         id={`${listId}-input`}
+        name="q"
         type="text"
         role="combobox"
         aria-expanded={expanded}
@@ -133,6 +145,6 @@ export function SearchBox() {
       <p className="sr-only" aria-live="polite">
         {expanded && debounced ? `${items.length} suggestion${items.length === 1 ? '' : 's'}` : ''}
       </p>
-    </div>
+    </form>
   );
 }
