@@ -146,21 +146,11 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
           <caption className="sr-only">Versions of this guide, newest first</caption>
           <thead>
             <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-              <th scope="col" className="px-3 py-2 font-semibold">
-                Version
-              </th>
-              <th scope="col" className="px-3 py-2 font-semibold">
-                State
-              </th>
-              <th scope="col" className="px-3 py-2 font-semibold">
-                Author
-              </th>
-              <th scope="col" className="px-3 py-2 font-semibold">
-                Date
-              </th>
-              <th scope="col" className="px-3 py-2 font-semibold">
-                Edit note
-              </th>
+              {['Version', 'State', 'Author', 'Date', 'Edit note'].map((h) => (
+                <th key={h} scope="col" className="px-3 py-2 font-semibold">
+                  {h}
+                </th>
+              ))}
               <th scope="col" className="px-3 py-2 font-semibold">
                 <span className="sr-only">Actions</span>
               </th>
