@@ -14,7 +14,7 @@ import { routeTable } from './routes';
 import { buildOpenApi } from './lib/openapi';
 import { renderApiDocs } from './lib/api-docs';
 import { loadShell } from './lib/html-shell';
-import { guidePageHandler } from './modules/pages/handler';
+import { guidePageHandler, parameterPageHandler } from './modules/pages/handler';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -120,6 +120,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
       app.use(express.static(distDir, { index: false, maxAge: '1h' }));
       const shell = loadShell(distDir);
       app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
+      app.get('/parameters/:slug', parameterPageHandler(ctx, shell));
       app.get('/{*splat}', (_req, res) => {
         res.setHeader('Cache-Control', 'no-cache');
         res.type('html').send(shell.plain);

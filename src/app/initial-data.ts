@@ -3,27 +3,32 @@ import type { ParameterSummary } from '@shared/schemas/parameter';
 import type { User } from '@shared/schemas/user';
 import { authQueries } from '@/features/auth/api/auth';
 import { guideQueries, type GuideDetail, type ReadableGuideRevision } from '@/features/guides/api/guides';
+import { parameterQueries, type ParameterPageData } from '@/features/parameters/api/parameters';
 
 /** The id of the JSON block the server puts in a pre-rendered page (main.tsx looks for it by name too). */
 export const INITIAL_DATA_ID = 'tw-initial-data';
 
 /**
- * What the server sends with a pre-rendered guide page: the reads the page's first render needs, so
- * the browser draws the same page without asking for them again.
+ * What the server sends with a pre-rendered page (a guide or a parameter entry): the reads the page's
+ * first render needs, so the browser draws the same page without asking for them again.
  */
 export type InitialData = {
   me: User | null;
-  guide: { slug: string; detail: GuideDetail; version?: { number: number; revision: ReadableGuideRevision }; parameters: ParameterSummary[] };
+  guide?: { slug: string; detail: GuideDetail; version?: { number: number; revision: ReadableGuideRevision }; parameters: ParameterSummary[] };
+  parameter?: { slug: string; detail: ParameterPageData };
 };
 
 /** Puts the server's reads into the query cache under the keys the pages use (server and browser alike). */
 export function seedInitialData(qc: QueryClient, data: InitialData) {
   qc.setQueryData(authQueries.me().queryKey, data.me);
   const g = data.guide;
-  qc.setQueryData(guideQueries.detail(g.slug).queryKey, g.detail);
-  qc.setQueryData(guideQueries.parameterOptions().queryKey, g.parameters);
-  // The permalink query selects the revision out of the `{ revision }` envelope it fetches.
-  if (g.version) qc.setQueryData(guideQueries.revision(g.slug, g.version.number).queryKey, { revision: g.version.revision });
+  if (g) {
+    qc.setQueryData(guideQueries.detail(g.slug).queryKey, g.detail);
+    qc.setQueryData(guideQueries.parameterOptions().queryKey, g.parameters);
+    // The permalink query selects the revision out of the `{ revision }` envelope it fetches.
+    if (g.version) qc.setQueryData(guideQueries.revision(g.slug, g.version.number).queryKey, { revision: g.version.revision });
+  }
+  if (data.parameter) qc.setQueryData(parameterQueries.detail(data.parameter.slug).queryKey, data.parameter.detail);
 }
 
 /** The JSON block of a pre-rendered page, if this page is one. */

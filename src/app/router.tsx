@@ -1,6 +1,7 @@
 import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { AppLayout } from '@/components/layout/app-layout';
 import { guideQueries } from '@/features/guides/api/guides';
+import { parameterQueries } from '@/features/parameters/api/parameters';
 import { queryClient } from '@/lib/query-client';
 import { RouteError } from './routes/route-error';
 
@@ -8,6 +9,11 @@ import { RouteError } from './routes/route-error';
 // (and not at all when the server sent the guide with the page).
 const guideLoader = ({ params }: { params: { slug?: string } }) => {
   if (params.slug) void queryClient.prefetchQuery(guideQueries.detail(params.slug));
+  return null;
+};
+
+const parameterLoader = ({ params }: { params: { slug?: string } }) => {
+  if (params.slug) void queryClient.prefetchQuery(parameterQueries.detail(params.slug));
   return null;
 };
 
@@ -36,7 +42,7 @@ export const router = createBrowserRouter([
       { path: 'account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountPage })) },
       { path: 'admin/users', lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
       { path: 'parameters', lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParametersPage })) },
-      { path: 'parameters/:slug', lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParameterPage })) },
+      { path: 'parameters/:slug', loader: parameterLoader, lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParameterPage })) },
       { path: 'calculators', lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorsPage })) },
       { path: 'calculators/:name', lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorPage })) },
       { path: 'setups', lazy: () => import('./routes/setups').then((m) => ({ Component: m.SetupsPage })) },

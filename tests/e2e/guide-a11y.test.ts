@@ -38,6 +38,7 @@ describe('accessibility (axe): no serious or critical violations', () => {
   it.runIf(hasParameterPage)('a parameter page', async () => {
     const page = await (await suite.browser.newContext()).newPage();
     await page.goto(`${suite.server.baseUrl}/parameters/drag-brake`);
+    await waitForApp(page);
     await page.getByRole('heading', { level: 1, name: /drag brake/i }).waitFor();
     expect(await seriousViolations(page)).toBe('');
     await page.close();

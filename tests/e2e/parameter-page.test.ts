@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { revealWorkedExamples, screenshotPath, VIEWPORTS } from '../setup/browser';
+import { revealWorkedExamples, screenshot, screenshotPath, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 
 const suite = browserSuite();
@@ -111,6 +111,51 @@ describe('parameter page /parameters/ramped-advance', () => {
     await page.getByLabel(/^Cells/).fill('2');
     await expect.poll(() => page.locator('[data-result="fullV"] dd').first().innerText()).toBe('8.40 V'); // 2 × 4.20 V (REFERENCES.md)
     expect(new URL(page.url()).searchParams.get('cells')).toBe('2');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+describe('parameter page drawn on the server', () => {
+  it('reads without script: name, summary, body and cautions are in the page itself', async () => {
+    const context = await suite.browser.newContext({ javaScriptEnabled: false, viewport: VIEWPORTS.phone });
+    const page = await context.newPage();
+    const res = await page.goto(`${suite.server.baseUrl}/parameters/low-voltage-cutoff`);
+    expect(res?.status()).toBe(200);
+    await expect(page.getByRole('heading', { level: 1, name: 'Low-voltage cutoff' }).isVisible()).resolves.toBe(true);
+    const cautions = await page.getByRole('note').filter({ hasText: 'Cautions' }).last().innerText();
+    expect(cautions).toMatch(/Cautions\s+\S/);
+    expect(cautions.length).toBeGreaterThan(80); // the section's text, not just its heading
+    expect(await page.title()).toBe('Low-voltage cutoff · Tunewright');
+    await screenshot(page, 'parameter-no-script-phone');
+    await context.close();
+  });
+
+  it('takes over without asking for the entry again, keeps the reader where they scrolled, and its example comes alive', async () => {
+    const page = await suite.browser.newPage({ viewport: VIEWPORTS.phone });
+    const errors = watchPageErrors(page);
+    const api: string[] = [];
+    page.on('request', (r) => {
+      const u = new URL(r.url());
+      if (u.pathname.startsWith('/api/')) api.push(u.pathname);
+    });
+    // Hold the app back so the reader can scroll the server's page first.
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    await page.route('**/assets/start-*.js', async (route) => {
+      await held;
+      await route.continue();
+    });
+    await page.goto(`${suite.server.baseUrl}/parameters/ramped-advance`);
+    await page.getByRole('heading', { level: 1, name: 'Ramped advance' }).waitFor();
+    await page.evaluate(() => window.scrollTo(0, 600));
+    release();
+    await waitForApp(page);
+    expect(await page.evaluate(() => Math.round(window.scrollY))).toBe(600);
+    await revealWorkedExamples(page);
+    await page.locator('[data-worked-example] [data-result="totalDegAt"]').first().waitFor();
+    expect(api).not.toContain('/api/parameters/ramped-advance');
+    expect(api).not.toContain('/api/auth/me');
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -1,13 +1,8 @@
-import { QueryClientProvider } from '@tanstack/react-query';
-import { renderToString } from 'react-dom/server';
-import { Route, Routes, StaticRouter } from 'react-router-dom';
+import { Route } from 'react-router-dom';
 import type { User } from '../../../shared/schemas/user';
 import type { GuideDetail, ReadableGuideRevision } from '../../../src/features/guides/api/guides';
-import { INITIAL_DATA_ID, seedInitialData, type InitialData } from '../../../src/app/initial-data';
-import '../../../src/app/nav-extras-setup';
+import { INITIAL_DATA_ID, type InitialData } from '../../../src/app/initial-data';
 import { GuidePage } from '../../../src/app/routes/guide';
-import { AppLayout } from '../../../src/components/layout/app-layout';
-import { createQueryClient } from '../../../src/lib/query-client';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';
@@ -15,27 +10,17 @@ import { liveParameterSummaries } from '../parameters/routes';
 import { isModerator } from '../revisions/policy';
 import { presentGuideRecord, presentReadableRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
+import { anonymousPages, drawApp } from './draw';
 
-const CACHE_MAX = 500;
 // Visitors all get the same page for a live guide, so it is kept until the guide (or the library) changes.
-const anonymous = new Map<string, { detail: object; parameters: object; html: string }>();
+const anonymous = anonymousPages();
 
-function draw(url: string, data: InitialData): string {
-  const qc = createQueryClient();
-  seedInitialData(qc, data);
-  return renderToString(
-    <QueryClientProvider client={qc}>
-      <StaticRouter location={url}>
-        <Routes>
-          <Route element={<AppLayout />}>
-            <Route path="/guides/:slug" element={<GuidePage />} />
-            <Route path="/guides/:slug/v/:n" element={<GuidePage />} />
-          </Route>
-        </Routes>
-      </StaticRouter>
-    </QueryClientProvider>,
-  );
-}
+const GUIDE_PAGES = (
+  <>
+    <Route path="/guides/:slug" element={<GuidePage />} />
+    <Route path="/guides/:slug/v/:n" element={<GuidePage />} />
+  </>
+);
 
 /**
  * The guide page (/guides/:slug or its permalink /guides/:slug/v/:n) as the browser's first render
@@ -65,25 +50,22 @@ export async function guidePageHtml(
     if (err instanceof AppError && err.status === 404) return null;
     throw err;
   }
-  const data: InitialData = { me: user, guide: { slug, detail, version, parameters: await liveParameterSummaries(ctx) } };
+  const parameters = await liveParameterSummaries(ctx);
+  const data: InitialData = { me: user, guide: { slug, detail, version, parameters } };
   const shown = version?.revision ?? detail.revision;
 
-  const parameters = data.guide.parameters;
   const cacheable = user === null && number == null && !url.includes('?');
-  const cached = cacheable ? anonymous.get(url) : undefined;
-  // Both reads are the read cache's own objects while nothing changed, so identity says "still current".
-  if (cached && cached.detail === detail && cached.parameters === parameters) return cached.html;
+  // Both reads are the read cache's own objects while nothing changed.
+  const cached = cacheable ? anonymous.get(url, [detail, parameters]) : undefined;
+  if (cached) return cached;
   const html = shell.render({
-    appHtml: draw(url, data),
+    appHtml: drawApp(url, data, GUIDE_PAGES),
     data,
     dataId: INITIAL_DATA_ID,
     title: shown.content.title,
     description: shown.content.summary,
     preload: ['src/app/routes/guide.tsx'],
   });
-  if (cacheable) {
-    if (anonymous.size >= CACHE_MAX) anonymous.delete(anonymous.keys().next().value as string);
-    anonymous.set(url, { detail, parameters, html });
-  }
+  if (cacheable) anonymous.set(url, [detail, parameters], html);
   return html;
 }

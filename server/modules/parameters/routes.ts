@@ -12,6 +12,15 @@ export async function liveParameterSummaries(ctx: AppContext) {
   return (await publishedCache(ctx).readAcross('parameter-library', async () => (await parametersService(ctx).listLive()).map(presentParameterSummary))) ?? [];
 }
 
+/** One live entry as GET /api/parameters/:slug answers it (the server-drawn page sends the same object). */
+export function liveParameterDetail(ctx: AppContext, slug: string) {
+  // Related entries and the guides list span other documents, so this view is dropped on any change.
+  return publishedCache(ctx).readAcross(`parameter-detail:${slug}`, async () => {
+    const { parameter, relatedParameters, guides } = await parametersService(ctx).getLive(slug);
+    return { parameter: presentParameterDetail(parameter, relatedParameters, guides), revision: presentLiveRevision(parameter) };
+  });
+}
+
 export const parameterRoutes = [
   defineRoute({
     method: 'get',
@@ -30,12 +39,6 @@ export const parameterRoutes = [
     access: 'public',
     params: slugParam,
     response: z.object({ parameter: parameterDetailSchema, revision: parameterLiveRevisionSchema }),
-    handler: async ({ params, ctx }) => ({
-      // Related entries and the guides list span other documents, so this view is dropped on any change.
-      data: await publishedCache(ctx).readAcross(`parameter-detail:${params.slug}`, async () => {
-        const { parameter, relatedParameters, guides } = await parametersService(ctx).getLive(params.slug);
-        return { parameter: presentParameterDetail(parameter, relatedParameters, guides), revision: presentLiveRevision(parameter) };
-      }),
-    }),
+    handler: async ({ params, ctx }) => ({ data: await liveParameterDetail(ctx, params.slug) }),
   }),
 ];

@@ -46,7 +46,8 @@ export function ParameterPage() {
     if (entry.data) document.title = `${entry.data.parameter.name} · Tunewright`;
   }, [entry.data]);
   useEffect(() => {
-    window.scrollTo(0, 0);
+    // Moving to another entry starts at its top; taking over the server-drawn page keeps where the reader is.
+    if (document.documentElement.dataset.app === 'running') window.scrollTo(0, 0);
   }, [slug]);
   if (entry.isPending) return <Spinner label="Loading the entry…" />;
   if (entry.isError) {

@@ -1,0 +1,42 @@
+import { Route } from 'react-router-dom';
+import type { User } from '../../../shared/schemas/user';
+import { INITIAL_DATA_ID, type InitialData } from '../../../src/app/initial-data';
+import { ParameterPage } from '../../../src/app/routes/parameters';
+import type { ParameterPageData } from '../../../src/features/parameters/api/parameters';
+import type { AppContext } from '../../context';
+import { AppError } from '../../lib/errors';
+import type { Shell } from '../../lib/html-shell';
+import { liveParameterDetail } from '../parameters/routes';
+import { anonymousPages, drawApp } from './draw';
+
+const anonymous = anonymousPages();
+const PARAMETER_PAGES = <Route path="/parameters/:slug" element={<ParameterPage />} />;
+
+/**
+ * A parameter entry's page (/parameters/:slug) as the browser's first render will draw it, with the
+ * entry as data; null when the library has no live entry by that name.
+ */
+export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: User | null, slug: string, url: string): Promise<string | null> {
+  let detail: ParameterPageData | null;
+  try {
+    detail = await liveParameterDetail(ctx, slug);
+  } catch (err) {
+    if (err instanceof AppError && err.status === 404) return null;
+    throw err;
+  }
+  if (!detail) return null;
+  const cacheable = user === null && !url.includes('?');
+  const cached = cacheable ? anonymous.get(url, [detail]) : undefined;
+  if (cached) return cached;
+  const data: InitialData = { me: user, parameter: { slug, detail } };
+  const html = shell.render({
+    appHtml: drawApp(url, data, PARAMETER_PAGES),
+    data,
+    dataId: INITIAL_DATA_ID,
+    title: detail.parameter.name,
+    description: detail.parameter.summary,
+    preload: ['src/app/routes/parameters.tsx'],
+  });
+  if (cacheable) anonymous.set(url, [detail], html);
+  return html;
+}
