@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { revealWorkedExamples, screenshot, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
+import { holdAppCode, revealWorkedExamples, screenshot, VIEWPORTS, waitForApp, watchApiRequests, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 
 const SLUG = 'stock-2wd-buggy-harbour-flats-clay';
@@ -25,11 +25,7 @@ describe('guide page drawn on the server', () => {
   it('takes over without asking for the guide again, without errors, and its cards come alive', async () => {
     const page = await suite.browser.newPage({ viewport: VIEWPORTS.phone });
     const errors = watchPageErrors(page);
-    const api: string[] = [];
-    page.on('request', (r) => {
-      const u = new URL(r.url());
-      if (u.pathname.startsWith('/api/')) api.push(u.pathname);
-    });
+    const api = watchApiRequests(page);
     await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
     await revealWorkedExamples(page);
     const card = page.locator('[data-worked-example]').first();
@@ -65,13 +61,8 @@ describe('guide page drawn on the server', () => {
     const context = await suite.browser.newContext({ viewport: VIEWPORTS.desktop });
     const page = await context.newPage();
     const errors = watchPageErrors(page);
-    // Hold the app's code back, as a slow phone would, so the typing lands on the server-drawn page.
-    let release!: () => void;
-    const held = new Promise<void>((r) => (release = r));
-    await page.route('**/assets/start-*.js', async (route) => {
-      await held;
-      await route.continue();
-    });
+    // The typing must land on the server-drawn page.
+    const release = await holdAppCode(page);
     await page.goto(`${suite.server.baseUrl}/guides/${SLUG}`);
     await page.getByRole('heading', { level: 1, name: TITLE }).waitFor();
     const box = page.getByRole('banner').getByRole('combobox');

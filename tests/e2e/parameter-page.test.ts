@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { revealWorkedExamples, screenshot, screenshotPath, VIEWPORTS, waitForApp, watchPageErrors } from '../setup/browser';
+import { holdAppCode, revealWorkedExamples, screenshot, screenshotPath, VIEWPORTS, waitForApp, watchApiRequests, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 
 const suite = browserSuite();
@@ -134,18 +134,9 @@ describe('parameter page drawn on the server', () => {
   it('takes over without asking for the entry again, keeps the reader where they scrolled, and its example comes alive', async () => {
     const page = await suite.browser.newPage({ viewport: VIEWPORTS.phone });
     const errors = watchPageErrors(page);
-    const api: string[] = [];
-    page.on('request', (r) => {
-      const u = new URL(r.url());
-      if (u.pathname.startsWith('/api/')) api.push(u.pathname);
-    });
-    // Hold the app back so the reader can scroll the server's page first.
-    let release!: () => void;
-    const held = new Promise<void>((r) => (release = r));
-    await page.route('**/assets/start-*.js', async (route) => {
-      await held;
-      await route.continue();
-    });
+    const api = watchApiRequests(page);
+    // The reader scrolls the server's page first.
+    const release = await holdAppCode(page);
     await page.goto(`${suite.server.baseUrl}/parameters/ramped-advance`);
     await page.getByRole('heading', { level: 1, name: 'Ramped advance' }).waitFor();
     await page.evaluate(() => window.scrollTo(0, 600));

@@ -53,6 +53,30 @@ export function watchPageErrors(page: Page) {
   return errors;
 }
 
+/** Records the paths of the page's API requests (to check what a server-drawn page did not ask for again). */
+export function watchApiRequests(page: Page) {
+  const paths: string[] = [];
+  page.on('request', (r) => {
+    const u = new URL(r.url());
+    if (u.pathname.startsWith('/api/')) paths.push(u.pathname);
+  });
+  return paths;
+}
+
+/**
+ * Holds the app's code back, as a slow phone would, so a test can act on the server-drawn page first.
+ * Returns what lets it through.
+ */
+export async function holdAppCode(page: Page) {
+  let release!: () => void;
+  const held = new Promise<void>((r) => (release = r));
+  await page.route('**/assets/start-*.js', async (route) => {
+    await held;
+    await route.continue();
+  });
+  return release;
+}
+
 /** Waits until the app has started in the page (a server-drawn page has been taken over by then). */
 export async function waitForApp(page: Page, timeout = 30_000) {
   await page.waitForFunction(() => document.documentElement.dataset.app === 'running', undefined, { timeout });

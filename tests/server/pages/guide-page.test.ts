@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createClient, createTestApp, type TestApp, type TestClient } from '../../setup/test-app';
 import { signedInClient } from '../../factories/user';
 import { createPublishedGuide, proposeEdit } from '../../factories/guide';
+import { dataBlock, rootOf } from './page-html';
 
 let t: TestApp;
 let author: TestClient;
@@ -20,15 +21,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await t.close();
 });
-
-/** The page's JSON data block, parsed the way the browser's JSON.parse would. */
-function dataBlock(html: string) {
-  const m = /<script type="application\/json" id="tw-initial-data">([\s\S]*?)<\/script>/.exec(html);
-  expect(m, 'data block').not.toBeNull();
-  return JSON.parse(m![1]);
-}
-// React's markers between adjacent text pieces (`Version <!-- -->2`) are dropped to read it as text.
-const rootOf = (html: string) => (/<div id="root">([\s\S]*?)<\/div><script type="application\/json"/.exec(html)?.[1] ?? '').replace(/<!-- -->/g, '');
 
 describe('GET /guides/:slug (the page, drawn on the server)', () => {
   it('draws the live guide into the shell, with its title, description, data and the route chunk preloaded', async () => {

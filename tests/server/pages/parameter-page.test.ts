@@ -5,6 +5,7 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../.
 import { signedInClient } from '../../factories/user';
 import { proposeEdit } from '../../factories/guide';
 import { seedParameters } from '../../../server/db/seed-content';
+import { dataBlock, rootOf } from './page-html';
 
 let t: TestApp;
 let member: TestClient;
@@ -22,13 +23,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await t.close();
 });
-
-function dataBlock(html: string) {
-  const m = /<script type="application\/json" id="tw-initial-data">([\s\S]*?)<\/script>/.exec(html);
-  expect(m, 'data block').not.toBeNull();
-  return JSON.parse(m![1]);
-}
-const rootOf = (html: string) => (/<div id="root">([\s\S]*?)<\/div><script type="application\/json"/.exec(html)?.[1] ?? '').replace(/<!-- -->/g, '');
 
 describe('GET /parameters/:slug (the page, drawn on the server)', () => {
   it('draws the live entry into the shell, with its title, description, the same data as the API and the route chunk preloaded', async () => {
