@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import { slugSchema } from '../../../shared/schemas/common';
 import type { User } from '../../../shared/schemas/user';
 import type { AppContext } from '../../context';
@@ -16,19 +16,17 @@ type Draw = (user: User | null, url: string) => Promise<string | null>;
  * draw (an unknown guide or entry, the database away) gets the plain shell and the browser takes over
  * as on every other page; it never answers with an error page of its own.
  */
-function sendDrawn(ctx: AppContext, shell: Shell, draw: Draw): RequestHandler {
-  return async (req, res) => {
-    res.setHeader('Cache-Control', 'no-cache, private');
-    res.setHeader('Vary', 'Cookie');
-    try {
-      const html = await draw((req.user as User | undefined) ?? null, req.originalUrl);
-      if (html === null) return void res.status(404).type('html').send(shell.plain);
-      res.type('html').send(html);
-    } catch (err) {
-      ctx.logger.warn({ err, path: req.path }, 'page could not be drawn on the server; sending the plain shell');
-      res.type('html').send(shell.plain);
-    }
-  };
+async function sendDrawn(ctx: AppContext, shell: Shell, req: Request, res: Response, draw: Draw) {
+  res.setHeader('Cache-Control', 'no-cache, private');
+  res.setHeader('Vary', 'Cookie');
+  try {
+    const html = await draw((req.user as User | undefined) ?? null, req.originalUrl);
+    if (html === null) return void res.status(404).type('html').send(shell.plain);
+    res.type('html').send(html);
+  } catch (err) {
+    ctx.logger.warn({ err, path: req.path }, 'page could not be drawn on the server; sending the plain shell');
+    res.type('html').send(shell.plain);
+  }
 }
 
 /** /guides/:slug and /guides/:slug/v/:n; other /guides addresses (the editor, odd numbers) pass on. */
@@ -37,7 +35,7 @@ export function guidePageHandler(ctx: AppContext, shell: Shell): RequestHandler 
     const slug = slugSchema.safeParse(req.params.slug);
     const n = req.params.n === undefined ? null : Number(req.params.n);
     if (!slug.success || NOT_GUIDES.has(slug.data) || (n !== null && !(Number.isInteger(n) && n > 0 && n < 1e9))) return next();
-    return sendDrawn(ctx, shell, (user, url) => guidePageHtml(ctx, shell, user, slug.data, n, url))(req, res, next);
+    return sendDrawn(ctx, shell, req, res, (user, url) => guidePageHtml(ctx, shell, user, slug.data, n, url));
   };
 }
 
@@ -46,6 +44,6 @@ export function parameterPageHandler(ctx: AppContext, shell: Shell): RequestHand
   return (req, res, next) => {
     const slug = slugSchema.safeParse(req.params.slug);
     if (!slug.success) return next();
-    return sendDrawn(ctx, shell, (user, url) => parameterPageHtml(ctx, shell, user, slug.data, url))(req, res, next);
+    return sendDrawn(ctx, shell, req, res, (user, url) => parameterPageHtml(ctx, shell, user, slug.data, url));
   };
 }

@@ -52,10 +52,10 @@ export function SearchBox() {
     } else if (e.key === 'ArrowUp') {
       e.preventDefault();
       setActive((a) => (rows.length ? (a <= 0 ? rows.length - 1 : a - 1) : -1));
-    } else if (e.key === 'Enter') {
+    } else if (e.key === 'Enter' && expanded && active >= 0 && rows[active]) {
+      // A highlighted suggestion opens its page; otherwise Enter submits the form (the full results).
       e.preventDefault();
-      if (expanded && active >= 0 && rows[active]) go(rows[active].url);
-      else if (value.trim()) go(`/search?q=${encodeURIComponent(value.trim())}`);
+      go(rows[active].url);
     } else if (e.key === 'Escape') {
       if (expanded) {
         e.preventDefault();
