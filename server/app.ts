@@ -15,6 +15,7 @@ import { buildOpenApi } from './lib/openapi';
 import { renderApiDocs } from './lib/api-docs';
 import { loadShell } from './lib/html-shell';
 import { guidePageHandler, parameterPageHandler } from './modules/pages/handler';
+import { assertServeable } from './config/env';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -57,6 +58,7 @@ export const PERMISSIONS_POLICY = [
 
 /** Builds the Express app (middleware, module routers, 404, error handler). Does not listen. */
 export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveClient?: boolean } = {}): CreatedApp {
+  assertServeable(ctx.config);
   const routes = opts.routes ?? routeTable;
   const app = express();
   app.disable('x-powered-by');
@@ -78,7 +80,8 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
           fontSrc: ["'self'"],
           connectSrc: ["'self'"],
           objectSrc: ["'none'"],
-          baseUri: ["'self'"],
+          // No page of ours sets <base>; an injected one could re-point every relative script and link.
+          baseUri: ["'none'"],
           formAction: ["'self'"],
           frameAncestors: ["'none'"],
           ...(ctx.config.production ? { upgradeInsecureRequests: [] } : {}),
@@ -107,7 +110,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
 
   const api = express.Router();
   mountRoutes(api, routes, ctx, createLimiters(ctx.config));
-  const openapi = buildOpenApi(routes, { production: ctx.config.production });
+  const openapi = buildOpenApi(routes, { devTools: ctx.config.devTools });
   api.get('/api/openapi.json', (_req, res) => void res.json(openapi));
   const docsHtml = renderApiDocs(openapi);
   api.get('/api/docs', (_req, res) => void res.type('html').send(docsHtml));

@@ -9,6 +9,7 @@ import { createSearchService } from './modules/search/service';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
+import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
 
 async function main() {
   const config = loadConfig();
@@ -35,10 +36,11 @@ async function main() {
   const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage, search };
   const { app, close } = createApp(ctx);
   mailer.start();
+  warmBodyDiffWorker();
   const server = app.listen(config.port, config.host, () => {
     const url = `http://${config.host}:${config.port}`;
     const lines = [`Tunewright is serving on ${url}`];
-    if (!config.production) {
+    if (config.devTools) {
       lines.push(`Captured mail: ${url}/dev/mail`, 'Demo accounts (local demo only):');
       for (const a of DEMO_ACCOUNTS.filter((d) => d.printed)) lines.push(`  ${a.role.padEnd(9)} ${a.email.padEnd(24)} ${a.password}`);
     }

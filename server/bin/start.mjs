@@ -59,6 +59,8 @@ async function main() {
     const smtpPort = await freePort();
     env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
     env.MAIL_CATCHER_PORT = String(smtpPort);
+    // The local demo's helpers (mail viewer, built-in session secret); off in every other run.
+    env.DEV_TOOLS = 'true';
     fs.mkdirSync(path.join(root, '.data'), { recursive: true });
     fs.writeFileSync(path.join(root, '.data', 'runtime.json'), JSON.stringify({ DATABASE_URL: env.DATABASE_URL, SMTP_URL: env.SMTP_URL }, null, 2), { mode: 0o600 });
     log(`PostgreSQL running on 127.0.0.1:${cluster.port} (${dir}).`);

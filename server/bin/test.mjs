@@ -36,7 +36,7 @@ async function main() {
     const child = spawn(process.execPath, args, {
       cwd: root,
       stdio: 'inherit',
-      env: { ...process.env, NODE_ENV: 'test', TEST_PG_ADMIN_URL: cluster.adminUrl, TEST_PG_DIR: dir, TEST_PG_BIN: bin, TEST_PG_PORT: String(cluster.port) },
+      env: { ...process.env, NODE_ENV: 'test', DEV_TOOLS: 'true', TEST_PG_ADMIN_URL: cluster.adminUrl, TEST_PG_DIR: dir, TEST_PG_BIN: bin, TEST_PG_PORT: String(cluster.port) },
     });
     child.on('exit', (c) => resolve(c ?? 1));
   });

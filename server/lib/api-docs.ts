@@ -1,6 +1,7 @@
 // The API reference for people at /api/docs: the OpenAPI document rendered on the server as plain
 // HTML tables. No script at all, so it sits inside the app's CSP (script-src 'self', no inline).
 
+import escapeHtml from 'escape-html';
 type Schema = {
   $ref?: string;
   type?: string | string[];
@@ -39,8 +40,7 @@ type OpenApiDoc = { info?: { title?: string; version?: string; description?: str
 
 const METHODS = ['get', 'post', 'put', 'patch', 'delete'] as const;
 
-const esc = (s: unknown) =>
-  String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const esc = (s: unknown) => escapeHtml(String(s));
 
 function resolve(doc: OpenApiDoc, s: Schema | undefined, seen = 0): Schema | undefined {
   if (!s?.$ref || seen > 10) return s;

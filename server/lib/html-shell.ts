@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import escapeHtml from 'escape-html';
 
 /** The built index.html, ready to fill. */
 export type Shell = { plain: string; render(parts: ShellParts): string };
@@ -22,7 +23,14 @@ export type ShellParts = {
 // layout, so text is first painted in its own font and does not grow (or re-flow) when it arrives.
 const FIRST_SCREEN_FONTS = [/merriweather-latin-(400|700)-normal\.woff2$/, /inter-latin-(400|500|600)-normal\.woff2$/];
 
-const escapeHtml = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+/**
+ * Puts `value` in place of the first match of `pattern`, literally. `String.prototype.replace` with a
+ * string as the replacement expands `$&`, `$'`, `$\``, `$1`… inside it, so user text passed that way
+ * could copy parts of the document into itself (close an attribute, duplicate the page): every fill of
+ * the shell goes through this, never through a replacement string.
+ */
+const fill = (html: string, pattern: string | RegExp, value: (match: string, ...groups: string[]) => string) =>
+  html.replace(pattern, value as (match: string, ...rest: unknown[]) => string);
 
 /** JSON that cannot end its <script> element or break a line terminator rule. */
 export const jsonForScript = (value: unknown) =>
@@ -72,23 +80,25 @@ export function loadShell(distDir: string): Shell {
 
   // The app itself is a chunk the tiny entry imports; fetch it with the entry, on every page.
   const headTags = fontTags + preloadFor('src/app/start.tsx');
-  const base = headTags ? template.replace('</head>', `${headTags}</head>`) : template;
+  const base = headTags ? fill(template, '</head>', () => `${headTags}</head>`) : template;
 
   return {
     /** The plain shell: the browser draws everything. */
     plain: base,
     render(parts: ShellParts): string {
       let html = base;
-      if (parts.title) html = html.replace(/<title>[^<]*<\/title>/, `<title>${escapeHtml(parts.title)} · Tunewright</title>`);
-      if (parts.description) html = html.replace(/(<meta name="description" content=")[^"]*(")/, `$1${escapeHtml(parts.description)}$2`);
+      const { title, description } = parts;
+      if (title) html = fill(html, /<title>[^<]*<\/title>/, () => `<title>${escapeHtml(title)} · Tunewright</title>`);
+      if (description) html = fill(html, /(<meta name="description" content=")[^"]*(")/, (_m, open, close) => `${open}${escapeHtml(description)}${close}`);
       const head = (parts.preload ?? []).map(preloadFor).join('');
-      if (head) html = html.replace('</head>', `${head}</head>`);
+      if (head) html = fill(html, '</head>', () => `${head}</head>`);
       if (parts.appHtml !== undefined) {
         const data =
           parts.data === undefined
             ? ''
             : `<script type="application/json" id="${escapeHtml(parts.dataId ?? 'initial-data')}">${jsonForScript(parts.data)}</script>`;
-        html = html.replace('<div id="root"></div>', `<div id="root">${parts.appHtml}</div>${data}`);
+        const appHtml = parts.appHtml;
+        html = fill(html, '<div id="root"></div>', () => `<div id="root">${appHtml}</div>${data}`);
       }
       return html;
     },

@@ -28,10 +28,10 @@ const OWNERSHIP_WORDS: Record<OwnershipRule, (r: OwnedResource) => string> = {
 };
 
 /** The OpenAPI 3.1 document, generated from the route table's zod schemas. */
-export function buildOpenApi(routes: RouteDef[], opts: { production: boolean }) {
+export function buildOpenApi(routes: RouteDef[], opts: { devTools: boolean }) {
   const paths: Record<string, Record<string, unknown>> = {};
   for (const r of routes) {
-    if (r.devOnly && opts.production) continue;
+    if (r.devOnly && !opts.devTools) continue;
     const path = toOpenApiPath(r.path);
     const errorResponses = Object.fromEntries(
       Object.entries(ERROR_STATUSES).map(([code, description]) => [code, { description, content: { 'application/json': { schema: apiErrorSchema } } }]),

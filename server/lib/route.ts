@@ -58,7 +58,7 @@ export type RouteDef<B = unknown, Q = unknown, P = unknown> = {
   status?: number;
   /** Rate-limit bucket applied before the handler. */
   rateLimit?: 'auth' | 'upload';
-  /** Only mounted outside production (the local mail viewer). */
+  /** Only mounted when the development helpers are on (DEV_TOOLS=true: the local demo and the tests). */
   devOnly?: boolean;
   /** Request body is multipart (file upload) rather than JSON. */
   multipart?: boolean;
@@ -107,7 +107,7 @@ export function checkAccess(access: Access, user: User | null) {
 /** Mounts route definitions on an Express router: access → validation → handler → envelope. */
 export function mountRoutes(router: Router, routes: RouteDef[], ctx: AppContext, limiters: Record<'auth' | 'upload', (req: Request, res: Response, next: NextFunction) => void>) {
   for (const route of routes) {
-    if (route.devOnly && ctx.config.production) continue;
+    if (route.devOnly && !ctx.config.devTools) continue;
     const chain: Array<(req: Request, res: Response, next: NextFunction) => void> = [];
     if (route.rateLimit) chain.push(limiters[route.rateLimit]);
     chain.push((req, _res, next) => {

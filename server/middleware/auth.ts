@@ -1,4 +1,4 @@
-import type { Express, Request } from 'express';
+import type { Express, Request, RequestHandler } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import passport from 'passport';
@@ -10,7 +10,26 @@ import { UserEntity } from '../modules/auth/user.entity';
 import { presentUser } from '../modules/auth/presenter';
 import { authService } from '../modules/auth/service';
 
-export const SESSION_COOKIE = 'tw.sid';
+import type { Config } from '../config/env';
+import { ROLE_RANK } from '../../shared/constants';
+
+declare module 'express-session' {
+  interface SessionData {
+    /** When the signed-in account's session began (its absolute lifetime counts from here). */
+    signedInAt?: number;
+    /** The last request seen on the signed-in session, to the minute (its idle timeout counts from here). */
+    lastSeenAt?: number;
+  }
+}
+
+/**
+ * The session cookie's name: `__Host-` where the app is served over HTTPS (production), which the
+ * browser accepts only with Secure, Path=/ and no Domain, so no other host or path can plant or shadow it.
+ */
+export const sessionCookieName = (config: Pick<Config, 'production'>) => (config.production ? '__Host-tw.sid' : 'tw.sid');
+
+// lastSeenAt is written at most this often, so a busy reader does not write their session on every request.
+const SEEN_RESOLUTION_MS = 60_000;
 
 /** Sessions in PostgreSQL (connect-pg-simple) and passport-local; returns the pool so the app can close it. */
 export function installAuth(app: Express, ctx: AppContext) {
@@ -18,7 +37,7 @@ export function installAuth(app: Express, ctx: AppContext) {
   pool.on('error', (err) => ctx.logger.warn({ err: err.message }, 'session pool client error'));
   const PgStore = connectPgSimple(session);
   const sessions = session({
-    name: SESSION_COOKIE,
+    name: sessionCookieName(ctx.config),
     store: new PgStore({
       pool,
       tableName: 'session',
@@ -30,7 +49,7 @@ export function installAuth(app: Express, ctx: AppContext) {
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: ctx.config.production, maxAge: 14 * 24 * 3600_000 },
+    cookie: { httpOnly: true, sameSite: 'lax', secure: ctx.config.production, maxAge: ctx.config.sessions.idleMs },
   });
   // express-session saves or touches the session as the response ends and hands a failure (the database
   // just went away) to `next` — after the answer is already out. Passed on, it reaches Express's final
@@ -69,12 +88,39 @@ export function installAuth(app: Express, ctx: AppContext) {
   });
   app.use(strategy.initialize());
   app.use(strategy.session());
+  app.use(sessionLifetime(ctx.config.sessions));
   return { pool, passport: strategy };
 }
 
+/**
+ * Ends a signed-in session that has been idle too long (moderators and admins sooner than members) or
+ * has outlived its absolute lifetime, however active: the request goes on as a visitor's, on a new id.
+ * The cookie's own lifetime follows the idle timeout (rolling), so the browser drops it too.
+ */
+function sessionLifetime(limits: Config['sessions']): RequestHandler {
+  return (req, _res, next) => {
+    const user = req.user as User | undefined;
+    const s = req.session;
+    if (!user || !s) return next();
+    const now = Date.now();
+    const idleMs = ROLE_RANK[user.role] >= ROLE_RANK.moderator ? limits.privilegedIdleMs : limits.idleMs;
+    const signedInAt = s.signedInAt ?? now;
+    const lastSeenAt = s.lastSeenAt ?? now;
+    if (now - signedInAt > limits.absoluteMs || now - lastSeenAt > idleMs) {
+      return req.logout((err) => next(err));
+    }
+    s.signedInAt = signedInAt;
+    if (now - lastSeenAt >= SEEN_RESOLUTION_MS || s.lastSeenAt === undefined) s.lastSeenAt = now;
+    s.cookie.maxAge = Math.min(idleMs, limits.absoluteMs - (now - signedInAt));
+    next();
+  };
+}
+
 /** Promise form of passport's req.login (which regenerates the session id). */
-export function logIn(req: Request, user: User) {
-  return new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
+export async function logIn(req: Request, user: User) {
+  await new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
+  // A new session (passport regenerated the id): its lifetime starts now.
+  req.session.signedInAt = req.session.lastSeenAt = Date.now();
 }
 
 export function logOut(req: Request) {

@@ -72,6 +72,14 @@ export type RevisionHistoryItem = z.infer<typeof revisionHistoryItemSchema>;
 export const diffPartSchema = z.object({ value: z.string(), added: z.boolean().optional(), removed: z.boolean().optional() });
 export type DiffPart = z.infer<typeof diffPartSchema>;
 
+/**
+ * How finely a body diff could be worked out: `words` throughout; some passages only by `sentences` or
+ * whole `lines` (they differed too much to compare word by word within the server's limits); or
+ * `whole` (one removal and one addition: the bodies had almost nothing in common).
+ */
+export const bodyDiffDetailSchema = z.enum(['words', 'sentences', 'lines', 'whole']);
+export type BodyDiffDetail = z.infer<typeof bodyDiffDetailSchema>;
+
 /** A metadata field (anything but the body) whose value differs between two revisions. */
 export const changedFieldSchema = z.object({ field: z.string(), from: z.unknown(), to: z.unknown() });
 export type ChangedField = z.infer<typeof changedFieldSchema>;
@@ -82,6 +90,7 @@ export const compareResultSchema = z.object({
   to: revisionSchema,
   changedFields: z.array(changedFieldSchema),
   bodyDiff: z.array(diffPartSchema),
+  bodyDiffDetail: bodyDiffDetailSchema,
 });
 export type CompareResult = z.infer<typeof compareResultSchema>;
 
@@ -121,6 +130,7 @@ export const reviewDetailSchema = z.object({
   live: revisionSchema.nullable(),
   changedFields: z.array(changedFieldSchema),
   bodyDiff: z.array(diffPartSchema),
+  bodyDiffDetail: bodyDiffDetailSchema,
   workedExamples: z.array(workedExampleCheckSchema),
   /** Changed fields of the attached baseline setup record (null when neither side has one). */
   setupChanges: z.array(z.object({ path: z.string(), label: z.string(), unit: z.string(), from: z.unknown(), to: z.unknown() })).nullable(),

@@ -71,4 +71,6 @@ export type CompareSide = z.infer<typeof compareSideSchema>;
 export const setupRefSchema = z
   .string()
   .trim()
-  .regex(/^(guide:[a-z0-9]+(?:-[a-z0-9]+)*|[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i, 'Use an upload id or guide:<guide-slug>');
+  .regex(/^(guide:[a-z0-9]+(?:-[a-z0-9]+)*|[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})$/i, 'Use an upload id or guide:<guide-slug>')
+  // Accepted in any case, so looked up in one: prefixes, slugs and ids are all lower case.
+  .transform((ref) => ref.toLowerCase());

@@ -41,6 +41,9 @@ export const passwordSchema = z
 
 export const signUpSchema = z.object({ email: emailSchema, displayName: displayNameSchema, password: passwordSchema });
 export type SignUpInput = z.infer<typeof signUpSchema>;
+/** Sign-up's answer: the same for a new address and one that already has an account (which is mailed instead). */
+export const signUpAcceptedSchema = z.object({ email: z.string(), sent: z.literal(true) });
+export type SignUpAccepted = z.infer<typeof signUpAcceptedSchema>;
 
 export const signInSchema = z.object({
   email: emailSchema,

@@ -25,20 +25,35 @@ describe('GET /api/csrf', () => {
 });
 
 describe('POST /api/auth/sign-up', () => {
-  it('creates an unverified member and sends a verification mail', async () => {
+  it('creates an unverified member and sends a verification mail that carries no text the sign-up chose', async () => {
     const client = createClient(t.app);
-    const res = await client.post('/api/auth/sign-up', { email: 'Newcomer@Tidewater.test', displayName: 'New Comer', password: STRONG_PASSWORD });
-    expect(res.status).toBe(201);
-    expect(res.body.data.user).toMatchObject({ email: 'newcomer@tidewater.test', displayName: 'New Comer', role: 'member', emailVerified: false });
+    const displayName = 'Win a prize at https://prize.example';
+    const res = await client.post('/api/auth/sign-up', { email: 'Newcomer@Tidewater.test', displayName, password: STRONG_PASSWORD });
+    expect(res.status).toBe(202);
+    expect(res.body).toEqual({ data: { email: 'newcomer@tidewater.test', sent: true } });
+    const user = await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ email: 'newcomer@tidewater.test' });
+    expect(user).toMatchObject({ displayName, role: 'member', emailVerifiedAt: null });
     const mail = await t.waitForMail('newcomer@tidewater.test', /confirm/i);
     expect(tokenFrom(mail.text)).toHaveLength(43);
+    // Whoever typed the address also chose the name: it never reaches a mailbox nobody has proven.
+    for (const part of [mail.text, mail.html, mail.subject]) expect(part).not.toContain('prize');
   });
 
-  it('refuses a duplicate e-mail with 409', async () => {
+  it('answers a taken address exactly as a new one, changes nothing, and tells the owner instead', async () => {
     const { user } = await createUser(t);
-    const res = await createClient(t.app).post('/api/auth/sign-up', { email: user.email, displayName: 'Again', password: STRONG_PASSWORD });
-    expect(res.status).toBe(409);
-    expect(res.body.error.code).toBe('email_taken');
+    const before = await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ id: user.id });
+    const res = await createClient(t.app).post('/api/auth/sign-up', { email: user.email.toUpperCase(), displayName: 'Again <a href=x>', password: STRONG_PASSWORD });
+    const fresh = await createClient(t.app).post('/api/auth/sign-up', { email: 'someone-else@tidewater.test', displayName: 'Again', password: STRONG_PASSWORD });
+    expect(res.status).toBe(fresh.status);
+    expect(res.status).toBe(202);
+    expect(res.body).toEqual({ data: { email: user.email, sent: true } });
+    expect(Object.keys(res.body.data)).toEqual(Object.keys(fresh.body.data));
+    expect(await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ id: user.id })).toEqual(before);
+    expect(await t.db.dataSource.getRepository(UserEntity).countBy({ email: user.email })).toBe(1);
+    const mail = await t.waitForMail(user.email, /already have/i);
+    expect(mail.text).toContain('/forgot-password');
+    expect(mail.text).not.toContain('Again');
+    expect(mail.html).not.toContain('href=x');
   });
 
   it('refuses short, long and common passwords with a clear message, storing nothing', async () => {
@@ -65,7 +80,7 @@ describe('POST /api/auth/sign-up', () => {
 describe('POST /api/auth/verify and sign-in', () => {
   it('walks sign-up → verify → sign-in → me → sign-out', async () => {
     const client = createClient(t.app);
-    expect((await client.post('/api/auth/sign-up', { email: 'journey@tidewater.test', displayName: 'Journey', password: STRONG_PASSWORD })).status).toBe(201);
+    expect((await client.post('/api/auth/sign-up', { email: 'journey@tidewater.test', displayName: 'Journey', password: STRONG_PASSWORD })).status).toBe(202);
 
     const early = await client.post('/api/auth/sign-in', { email: 'journey@tidewater.test', password: STRONG_PASSWORD });
     expect(early.status).toBe(403);
@@ -118,6 +133,31 @@ describe('POST /api/auth/forgot-password and reset-password', () => {
     expect((await client.post('/api/auth/reset-password', { token, password: newPassword })).status).toBe(200);
     expect((await client.post('/api/auth/reset-password', { token, password: newPassword })).body.error.code).toBe('token_invalid');
     expect((await client.post('/api/auth/sign-in', { email: user.email, password: newPassword })).status).toBe(200);
+  });
+
+  it('answers before doing any work, so an address with an account takes no longer than one without', async () => {
+    const { user } = await createUser(t);
+    const client = createClient(t.app);
+    // Hold the outbox: preparing a reset for a real account must write to it, an unknown address writes nothing.
+    // Were the work done before answering, the first request would wait here for the lock.
+    const holder = t.db.dataSource.createQueryRunner();
+    await holder.connect();
+    await holder.startTransaction();
+    try {
+      await holder.query('LOCK TABLE outbox IN ACCESS EXCLUSIVE MODE');
+      for (const email of [user.email, 'ghost-timing@tidewater.test']) {
+        const started = Date.now();
+        const res = await client.post('/api/auth/forgot-password', { email });
+        expect(res.status, email).toBe(202);
+        expect(res.body).toEqual({ data: { sent: true } });
+        expect(Date.now() - started, `${email} answered without waiting for the work`).toBeLessThan(1500);
+      }
+    } finally {
+      await holder.rollbackTransaction();
+      await holder.release();
+    }
+    // The work still happens once the outbox is free again.
+    expect(tokenFrom((await t.waitForMail(user.email, /reset/i)).text)).toHaveLength(43);
   });
 
   it('refuses an expired token', async () => {

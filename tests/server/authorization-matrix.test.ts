@@ -557,7 +557,7 @@ describe('authorization matrix: owner vs not owner (every route with an ownershi
   });
 
   it('the API document states each rule', () => {
-    const doc = buildOpenApi(routeTable, { production: false }) as unknown as { paths: Record<string, Record<string, { description: string }>> };
+    const doc = buildOpenApi(routeTable, { devTools: true }) as unknown as { paths: Record<string, Record<string, { description: string }>> };
     expect(doc.paths['/api/revisions/{id}'].patch.description).toContain("ownership: the revision's author only");
     expect(doc.paths['/api/setups/{id}'].get.description).toContain("ownership: the upload's owner only");
     expect(doc.paths['/api/reviews/{revisionId}/publish'].post.description).toContain("anyone allowed except the revision's author");

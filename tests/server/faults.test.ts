@@ -120,7 +120,7 @@ describe('PostgreSQL restarts in the middle of load', () => {
     let recoveredAt = 0;
     while (!recoveredAt && Date.now() - restartedAt < 15_000) {
       await new Promise((r) => setTimeout(r, 100));
-      recoveredAt = seen.find((s) => s.at > restartedAt && s.what === 'sign-up' && s.status === 201)?.at ?? 0;
+      recoveredAt = seen.find((s) => s.at > restartedAt && s.what === 'sign-up' && s.status === 202)?.at ?? 0;
     }
     await new Promise((r) => setTimeout(r, 1000));
     stop = true;
@@ -172,7 +172,7 @@ describe('PostgreSQL restarts in the middle of load', () => {
       const whole = row.users === 1 && row.tokens === 1 && row.mails === 1;
       const none = row.users === 0 && row.tokens === 0 && row.mails === 0;
       expect(whole || none, `${email} (${status}): ${JSON.stringify(row)}`).toBe(true);
-      if (status === 201) expect(whole, `${email} was acknowledged`).toBe(true);
+      if (status === 202) expect(whole, `${email} was acknowledged`).toBe(true);
     }
   }, 90_000);
 });
@@ -193,7 +193,7 @@ describe('the mail catcher is away during sign-up', () => {
     const email = 'harbour-newcomer@tidewater.test';
     const client = createClient(t.app);
     const res = await client.post('/api/auth/sign-up', { email, displayName: 'Harbour Newcomer', password: STRONG_PASSWORD });
-    expect(res.status).toBe(201);
+    expect(res.status).toBe(202);
 
     // The first delivery attempt fails and the mail stays queued with its error.
     let held: { sent_at: Date | null; attempts: number; last_error: string | null } | undefined;

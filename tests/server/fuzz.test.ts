@@ -126,6 +126,7 @@ const ODD_SEGMENTS = [
 const paramValue = fc.oneof(
   { weight: 3, arbitrary: fc.constantFrom(...ODD_SEGMENTS) },
   { weight: 2, arbitrary: fc.uuid() },
+  { weight: 1, arbitrary: fc.uuid().map((u) => u.toUpperCase()) },
   { weight: 2, arbitrary: fc.string({ unit: 'binary', minLength: 1, maxLength: 40 }).map(encodeURIComponent) },
   { weight: 1, arbitrary: fc.string({ unit: 'grapheme', minLength: 1, maxLength: 30 }).map(encodeURIComponent) },
   { weight: 3, arbitrary: fc.constant(null) }, // replaced by a known slug/id/name, so handlers run past "not found"
@@ -148,7 +149,9 @@ function pathArb(route: RouteDef) {
   });
 }
 
-const QUERY_VALUES = ['', '-1', '0', '1', '2', 'NaN', 'Infinity', '1e400', 'true', 'null', '%00', '%ZZ', '%27%20OR%201%3D1--', 'a'.repeat(3000), 'drag-brake', 'clay', 'member'];
+// Prefixed references (`guide:<slug>`) in every case, since validation and lookup must agree on case.
+const PREFIXED = ['guide', 'GUIDE', 'Guide', 'gUiDe'].flatMap((p) => [`${p}:stock-2wd-buggy-harbour-flats-clay`, `${p}:STOCK-2WD-BUGGY-HARBOUR-FLATS-CLAY`, `${p}:`, `${p}:no-such-guide`]).map(encodeURIComponent);
+const QUERY_VALUES = ['', '-1', '0', '1', '2', 'NaN', 'Infinity', '1e400', 'true', 'null', '%00', '%ZZ', '%27%20OR%201%3D1--', 'a'.repeat(3000), 'drag-brake', 'clay', 'member', ...PREFIXED];
 
 function queryArb(route: RouteDef) {
   const keys = [...fieldNames(route.query), 'q', 'page', 'pageSize', 'limit'];
@@ -162,6 +165,7 @@ function queryArb(route: RouteDef) {
     { weight: 2, arbitrary: fc.string({ unit: 'grapheme', maxLength: 40 }).map(encodeURIComponent) },
     { weight: 1, arbitrary: fc.string({ unit: 'binary', maxLength: 20 }).map(encodeURIComponent) },
     { weight: 1, arbitrary: fc.integer().map(String) },
+    { weight: 1, arbitrary: fc.uuid().map((u) => u.toUpperCase()) },
   );
   return fc.array(fc.tuple(key, value), { maxLength: 6 }).map((pairs) => pairs.map(([k, v]) => `${k}=${v}`).join('&'));
 }

@@ -31,7 +31,7 @@ beforeAll(async () => {
   ds = createDataSource(cluster.urlFor('health'));
   await ds.initialize();
   await ds.runMigrations();
-  const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
+  const config = loadConfig({ NODE_ENV: 'test', DEV_TOOLS: 'true', DATABASE_URL: cluster.urlFor('health'), SMTP_URL: 'smtp://127.0.0.1:1' });
   const logger = createLogger('silent');
   const documentListener = createDocumentListener({ connectionString: cluster.urlFor('health'), logger, minRetryMs: 50, maxRetryMs: 500 });
   await documentListener.start();
@@ -147,6 +147,6 @@ describe('GET /api/openapi.json', () => {
     expect(res.status).toBe(200);
     expect(res.body.openapi).toBe('3.1.0');
     expect(res.body.paths['/api/admin/users/{id}'].patch.requestBody).toBeDefined();
-    expect(res.body.paths['/api/auth/sign-up'].post.responses['201']).toBeDefined();
+    expect(res.body.paths['/api/auth/sign-up'].post.responses['202']).toBeDefined();
   });
 });

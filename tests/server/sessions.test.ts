@@ -100,3 +100,72 @@ describe('POST /api/auth/reset-password', () => {
     expect(left[0].n).toBe(0);
   });
 });
+
+describe('session lifetime (idle timeout and absolute lifetime)', () => {
+  /** Moves the stored session's clock marks back, as if that much time had passed. */
+  async function age(cookie: string, marks: { idleH?: number; sinceSignInH?: number }) {
+    const sid = sessionId(cookie);
+    const [{ sess }] = await t.db.dataSource.query(`SELECT sess FROM session WHERE sid = $1`, [sid]);
+    const now = Date.now();
+    if (marks.idleH !== undefined) sess.lastSeenAt = now - marks.idleH * 3600_000;
+    if (marks.sinceSignInH !== undefined) sess.signedInAt = now - marks.sinceSignInH * 3600_000;
+    await t.db.dataSource.query(`UPDATE session SET sess = $2 WHERE sid = $1`, [sid, JSON.stringify(sess)]);
+  }
+  async function signIn(role: 'member' | 'moderator' | 'admin') {
+    const { user, password } = await createUser(t, { role });
+    const client = createClient(t.app);
+    const res = await client.post('/api/auth/sign-in', { email: user.email, password });
+    expect(res.status).toBe(200);
+    return { user, cookie: sidCookie(res)! };
+  }
+
+  it('signs a member out after two idle days, but not after one', async () => {
+    const { user, cookie } = await signIn('member');
+    await age(cookie, { idleH: 47 });
+    expect((await meWith(cookie))?.id).toBe(user.id);
+    await age(cookie, { idleH: 49 });
+    expect(await meWith(cookie)).toBeNull();
+    // Signed out for good: the same cookie does not come back to life.
+    expect(await meWith(cookie)).toBeNull();
+  });
+
+  it('gives moderators and admins a shorter idle timeout than members', async () => {
+    for (const role of ['moderator', 'admin'] as const) {
+      const { user, cookie } = await signIn(role);
+      await age(cookie, { idleH: 11 });
+      expect((await meWith(cookie))?.id, role).toBe(user.id);
+      await age(cookie, { idleH: 13 });
+      expect(await meWith(cookie), role).toBeNull();
+    }
+    const member = await signIn('member');
+    await age(member.cookie, { idleH: 13 });
+    expect((await meWith(member.cookie))?.id).toBe(member.user.id);
+  });
+
+  it('ends a session 14 days after sign-in however active it was', async () => {
+    const { user, cookie } = await signIn('member');
+    await age(cookie, { sinceSignInH: 13 * 24, idleH: 0 });
+    expect((await meWith(cookie))?.id).toBe(user.id);
+    await age(cookie, { sinceSignInH: 14 * 24 + 1, idleH: 0 });
+    expect(await meWith(cookie)).toBeNull();
+  });
+
+  it('records the sign-in time and refreshes the idle mark as the member uses the session', async () => {
+    const { cookie } = await signIn('member');
+    const read = async () => (await t.db.dataSource.query(`SELECT sess FROM session WHERE sid = $1`, [sessionId(cookie)]))[0].sess;
+    const first = await read();
+    expect(Math.abs(first.signedInAt - Date.now())).toBeLessThan(60_000);
+    await age(cookie, { idleH: 5 });
+    expect((await meWith(cookie))).not.toBeNull();
+    expect(Date.now() - (await read()).lastSeenAt).toBeLessThan(60_000);
+  });
+
+  it('takes its limits from the configuration', async () => {
+    const short = await createTestApp({ SESSION_IDLE_HOURS: '1', SESSION_ABSOLUTE_DAYS: '1' }, { catcher: false });
+    try {
+      expect(short.ctx.config.sessions).toEqual({ idleMs: 3600_000, privilegedIdleMs: 3600_000, absoluteMs: 86_400_000 });
+    } finally {
+      await short.close();
+    }
+  });
+});

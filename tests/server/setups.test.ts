@@ -273,6 +273,26 @@ describe('GET /api/setups/compare', () => {
     expect(bad.body.error.details[0].path).toBe('query.b');
     expect((await createClient(t.app).get(`/api/setups/compare?a=guide:${GUIDE}&b=guide:mod-4wd-buggy-harbour-flats-clay`)).status).toBe(200);
   });
+
+  it('reads refs in any case the same way (prefix, slug and upload id), never a server error', async () => {
+    const { client } = await signedInClient(t);
+    const id: string = (await upload(client, { name: 'mine.json', body: JSON.stringify(buildSetupRecord()) })).body.data.id;
+    const plain = await client.get(`/api/setups/compare?a=guide:${GUIDE}&b=${id}`);
+    expect(plain.status).toBe(200);
+    for (const [a, b] of [
+      [`GUIDE:${GUIDE}`, id],
+      [`Guide:${GUIDE.toUpperCase()}`, id.toUpperCase()],
+    ]) {
+      const res = await client.get(`/api/setups/compare?a=${encodeURIComponent(a)}&b=${encodeURIComponent(b)}`);
+      expect(res.status, `${a} / ${b}: ${res.text.slice(0, 200)}`).toBe(200);
+      expect(res.body.data.differences).toEqual(plain.body.data.differences);
+      expect(res.body.data.a.ref).toBe(`guide:${GUIDE}`);
+    }
+    // An unknown guide in capitals is as unknown as in lower case.
+    const unknown = await client.get('/api/setups/compare?a=GUIDE:no-such-guide&b=guide:no-such-guide');
+    expect(unknown.status).toBe(404);
+    expect(unknown.body.error.code).toBeDefined();
+  });
 });
 
 describe('PUT and DELETE /api/revisions/:id/setup', () => {

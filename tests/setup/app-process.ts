@@ -34,7 +34,7 @@ export async function startAppProcess(env: Record<string, string>, opts: { port?
 async function startOnce(env: Record<string, string>, port: number, readyTimeoutMs?: number): Promise<AppProcess> {
   const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server', 'index.ts')], {
     cwd: root,
-    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), ...env },
+    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), ...(env.NODE_ENV === 'production' ? { DEV_TOOLS: 'false' } : {}), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   const lines: string[] = [];

@@ -44,6 +44,8 @@ export async function createTestApp(overrides: Record<string, string> = {}, opts
     OUTBOX_INTERVAL_MS: '200',
     // Each test app gets its own upload directory, removed on close.
     UPLOAD_DIR: uploadDir,
+    // The tests turn the development helpers on explicitly (never with a production configuration).
+    ...(overrides.NODE_ENV === 'production' ? {} : { DEV_TOOLS: 'true' }),
     ...overrides,
   });
   const logger = createLogger(config.logLevel);

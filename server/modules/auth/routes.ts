@@ -4,6 +4,7 @@ import {
   forgotPasswordSchema,
   resetPasswordSchema,
   signInSchema,
+  signUpAcceptedSchema,
   signUpSchema,
   updateProfileSchema,
   userSchema,
@@ -11,7 +12,7 @@ import {
 } from '../../../shared/schemas/user';
 import { defineRoute } from '../../lib/route';
 import { AppError } from '../../lib/errors';
-import { logIn, logOut } from '../../middleware/auth';
+import { logIn, logOut, sessionCookieName } from '../../middleware/auth';
 import { csrf } from '../../middleware/csrf';
 import { presentUser } from './presenter';
 import { authService } from './service';
@@ -30,8 +31,12 @@ function mailByAddressRoute(path: string, summary: string, send: (ctx: AppContex
     rateLimit: 'auth',
     body: forgotPasswordSchema,
     status: 202,
-    handler: async ({ body, ctx }) => {
-      await send(ctx, body.email);
+    handler: async ({ body, ctx, res }) => {
+      // The work (a token and a mail for an address with an account, nothing for one without) is done
+      // after the answer has gone, so neither the answer nor its timing tells the two apart.
+      res.once('finish', () => {
+        send(ctx, body.email).catch((err: unknown) => ctx.logger.warn({ err }, `${path}: the mail could not be prepared`));
+      });
       return { status: 202, data: { sent: true } };
     },
   });
@@ -55,14 +60,17 @@ export const authRoutes = [
   defineRoute({
     method: 'post',
     path: '/api/auth/sign-up',
-    summary: 'Create an account and send the verification mail',
+    summary: 'Create an account and send the verification mail (answers 202 the same way for an address that already has an account, whose owner is mailed instead)',
     tags: ['auth'],
     access: 'public',
     rateLimit: 'auth',
     body: signUpSchema,
-    response: userData,
-    status: 201,
-    handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).signUp(body)) } }),
+    response: signUpAcceptedSchema,
+    status: 202,
+    handler: async ({ body, ctx }) => {
+      const { email } = await authService(ctx).signUp(body);
+      return { status: 202, data: { email, sent: true as const } };
+    },
   }),
   defineRoute({
     method: 'post',
@@ -106,9 +114,9 @@ export const authRoutes = [
     access: 'public',
     owner: { resource: 'account', rule: 'self' },
     status: 204,
-    handler: async ({ req, res }) => {
+    handler: async ({ req, res, ctx }) => {
       if (req.session) await logOut(req);
-      res.clearCookie('tw.sid', { path: '/', httpOnly: true, sameSite: 'lax' });
+      res.clearCookie(sessionCookieName(ctx.config), { path: '/', httpOnly: true, sameSite: 'lax', secure: ctx.config.production });
       return { status: 204 };
     },
   }),

@@ -1,13 +1,13 @@
 import { IsNull, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { LIMITS } from '../../../shared/constants';
 import type { SignUpInput } from '../../../shared/schemas/user';
-import { AppError, conflict, validationFailed } from '../../lib/errors';
+import { AppError, validationFailed } from '../../lib/errors';
 import { hashPassword, passwordWeakness, verifyPassword } from '../../lib/passwords';
 import { hashToken, newToken } from '../../lib/tokens';
 import type { AppContext } from '../../context';
 import { UserEntity } from './user.entity';
 import { UserTokenEntity, type TokenPurpose } from './user-token.entity';
-import { passwordChangedMail, resetMail, verificationMail } from './mail';
+import { alreadyRegisteredMail, passwordChangedMail, resetMail, verificationMail } from './mail';
 import { signInThrottle } from './sign-in-throttle';
 
 // Compared against when the e-mail is unknown, so both failures take the same time.
@@ -57,12 +57,17 @@ export function authService(ctx: AppContext) {
       const passwordHash = await hashPassword(input.password, ctx.config.bcryptCost);
       return ds.transaction(async (m) => {
         const existing = await m.getRepository(UserEntity).findOne({ where: { email: input.email } });
-        if (existing) throw conflict('email_taken', 'An account with that e-mail already exists. Sign in or reset your password.');
+        if (existing) {
+          // The same answer as a new sign-up, so the form never tells whether an address has an account;
+          // the address's owner learns of the attempt instead.
+          await ctx.mailer.send(alreadyRegisteredMail(existing.email, ctx.config.appUrl), m);
+          return { email: input.email };
+        }
         const user = m.getRepository(UserEntity).create({ email: input.email, displayName: input.displayName, passwordHash, role: 'member' });
         await m.getRepository(UserEntity).save(user);
         const token = await issueToken(m, user.id, 'verify_email', LIMITS.verifyTokenHours * 3600_000);
-        await ctx.mailer.send(verificationMail(user.email, user.displayName, `${ctx.config.appUrl}/verify?token=${token}`), m);
-        return user;
+        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}/verify?token=${token}`), m);
+        return { email: user.email };
       });
     },
 
@@ -95,7 +100,7 @@ export function authService(ctx: AppContext) {
         const user = await m.getRepository(UserEntity).findOne({ where: { email } });
         if (!user || user.emailVerifiedAt || user.disabledAt) return;
         const token = await issueToken(m, user.id, 'verify_email', LIMITS.verifyTokenHours * 3600_000);
-        await ctx.mailer.send(verificationMail(user.email, user.displayName, `${ctx.config.appUrl}/verify?token=${token}`), m);
+        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}/verify?token=${token}`), m);
       });
     },
 
@@ -105,7 +110,7 @@ export function authService(ctx: AppContext) {
         const user = await m.getRepository(UserEntity).findOne({ where: { email } });
         if (!user || user.disabledAt) return;
         const token = await issueToken(m, user.id, 'reset_password', LIMITS.resetTokenMinutes * 60_000);
-        await ctx.mailer.send(resetMail(user.email, user.displayName, `${ctx.config.appUrl}/reset-password?token=${token}`), m);
+        await ctx.mailer.send(resetMail(user.email, `${ctx.config.appUrl}/reset-password?token=${token}`), m);
       });
     },
 
@@ -124,7 +129,7 @@ export function authService(ctx: AppContext) {
         await endSessions(m, user.id);
         // The mailbox is proven: a member locked out by someone guessing at their address gets straight back in.
         await throttle(m).clear(user.email);
-        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName, { at: new Date(), via: 'reset', appUrl: ctx.config.appUrl }), m);
+        await ctx.mailer.send(passwordChangedMail(user.email, { at: new Date(), via: 'reset', appUrl: ctx.config.appUrl }), m);
         return user;
       });
     },
@@ -139,7 +144,7 @@ export function authService(ctx: AppContext) {
       await ds.transaction(async (m) => {
         await m.getRepository(UserEntity).save(user);
         await endSessions(m, user.id);
-        await ctx.mailer.send(passwordChangedMail(user.email, user.displayName, { at: new Date(), via: 'account', appUrl: ctx.config.appUrl }), m);
+        await ctx.mailer.send(passwordChangedMail(user.email, { at: new Date(), via: 'account', appUrl: ctx.config.appUrl }), m);
       });
       return user;
     },

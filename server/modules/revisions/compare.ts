@@ -1,4 +1,4 @@
-import { diffWordsWithSpace } from 'diff';
+import { boundedBodyDiffSync } from './body-diff';
 import { diff3Merge } from 'node-diff3';
 import { parseWorkedExample } from '../../../shared/calc/worked-example';
 import { runCalculator } from '../../../shared/calc/registry';
@@ -7,7 +7,8 @@ import type { BodyRegion, ChangedField, DiffPart, MergeConflict, WorkedExampleCh
 type Content = Record<string, unknown>;
 
 const same = (a: unknown, b: unknown) => JSON.stringify(a ?? null) === JSON.stringify(b ?? null);
-const bodyOf = (c: Content) => (typeof c.body === 'string' ? c.body : '');
+/** A content's Markdown body ('' when it has none). */
+export const bodyOf = (c: Content) => (typeof c.body === 'string' ? c.body : '');
 
 /** Every field except the body whose value differs, in the order of the newer content's keys. */
 export function changedFields(from: Content, to: Content): ChangedField[] {
@@ -15,9 +16,9 @@ export function changedFields(from: Content, to: Content): ChangedField[] {
   return keys.filter((k) => !same(from[k], to[k])).map((field) => ({ field, from: from[field] ?? null, to: to[field] ?? null }));
 }
 
-/** Word-level diff of the two bodies, whitespace kept, so the prose can be shown inline or side by side. */
+/** Diff of the two bodies (words where the limits allow, whitespace kept), worked out in one go: for the merge screen's hunks. */
 export function bodyDiff(from: Content, to: Content): DiffPart[] {
-  return diffWordsWithSpace(bodyOf(from), bodyOf(to)).map((c) => ({ value: c.value, ...(c.added ? { added: true } : {}), ...(c.removed ? { removed: true } : {}) }));
+  return boundedBodyDiffSync(bodyOf(from), bodyOf(to)).parts;
 }
 
 /** The text of each ```worked-example (or ~~~worked-example) fenced block, in order. */

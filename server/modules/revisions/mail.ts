@@ -1,17 +1,9 @@
 import type { DocumentKind } from '../../../shared/constants';
 import type { MailMessage } from '../../lib/mailer';
+import { composeMail } from '../../lib/mail-layout';
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-
-function compose(to: string, subject: string, heading: string, paragraphs: string[], link: { label: string; url: string }): MailMessage {
-  const text = `${paragraphs.join('\n\n')}\n\n${link.label}: ${link.url}\n\n-- \nTunewright, the tuning notebook of the Tidewater RC Club\n`;
-  const html =
-    `<div style="font-family:Inter,Arial,sans-serif;color:#1d2a44;max-width:560px">` +
-    `<h1 style="font-size:20px">${esc(heading)}</h1>` +
-    paragraphs.map((p) => `<p style="white-space:pre-wrap">${esc(p)}</p>`).join('') +
-    `<p><a href="${esc(link.url)}" style="color:#b5652b">${esc(link.label)}</a></p>` +
-    `<p style="font-size:12px;color:#555">Tunewright, the tuning notebook of the Tidewater RC Club</p></div>`;
-  return { to, subject, text, html };
+function compose(to: string, subject: string, heading: string, paragraphs: string[], action: { label: string; url: string }): MailMessage {
+  return composeMail({ to, subject, heading, paragraphs, action });
 }
 
 const noun = (kind: DocumentKind) => (kind === 'guide' ? 'guide' : 'parameter entry');

@@ -6,7 +6,7 @@ import { ROLE_RANK, type RevisionState, type Role } from '../../../shared/consta
  */
 export type Actor = { id: string; role: Role } | null;
 export type RevisionFacts = { authorId: string; state: RevisionState };
-export type DocumentFacts = { hiddenAt: Date | null; publishedRevisionId: string | null };
+export type DocumentFacts = { hiddenAt: Date | null; publishedRevisionId: string | null; createdBy: string | null };
 
 export type Decision = { ok: true } | { ok: false; status: 403 | 404 | 409; code: string; message: string };
 
@@ -27,9 +27,14 @@ export function canSeeRevision(actor: Actor, rev: RevisionFacts): boolean {
   return PUBLIC_STATES.includes(rev.state) || isAuthor(actor, rev) || isModerator(actor);
 }
 
-/** A hidden document is gone for everyone but moderators. */
+/**
+ * A hidden document is gone for everyone but moderators; one that has never been live exists only for
+ * its author and the moderators (anyone else is told exactly what an unused slug would tell them).
+ */
 export function canSeeDocument(actor: Actor, doc: DocumentFacts): boolean {
-  return doc.hiddenAt === null || isModerator(actor);
+  if (isModerator(actor)) return true;
+  if (doc.hiddenAt !== null) return false;
+  return doc.publishedRevisionId !== null || (actor !== null && actor.id === doc.createdBy);
 }
 
 /**

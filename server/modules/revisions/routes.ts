@@ -77,7 +77,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       response: compareResultSchema,
       handler: async ({ params, query, user, ctx }) => {
         const r = await revisionService(ctx).compare(user, kind, params.slug, query.from, query.to);
-        return { data: { from: presentRevision(r.from), to: presentRevision(r.to), changedFields: r.changedFields, bodyDiff: r.bodyDiff } };
+        return { data: { from: presentRevision(r.from), to: presentRevision(r.to), changedFields: r.changedFields, bodyDiff: r.bodyDiff, bodyDiffDetail: r.bodyDiffDetail } };
       },
     }),
     defineRoute({
@@ -245,6 +245,7 @@ export const revisionRoutes: RouteDef[] = [
           live: r.live ? presentRevision(r.live) : null,
           changedFields: r.changedFields,
           bodyDiff: r.bodyDiff,
+          bodyDiffDetail: r.bodyDiffDetail,
           workedExamples: r.workedExamples,
           setupChanges: r.setupChanges,
           setupWarnings: r.setupWarnings,

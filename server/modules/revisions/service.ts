@@ -8,7 +8,8 @@ import { AppError, notFound, validationFailed } from '../../lib/errors';
 import { toFieldIssues } from '../../lib/route';
 import { AuditLogEntity } from '../audit/audit-log.entity';
 import { UserEntity } from '../auth/user.entity';
-import { bodyDiff, changedFields, checkWorkedExamples, threeWayMerge } from './compare';
+import { bodyOf, changedFields, checkWorkedExamples, threeWayMerge } from './compare';
+import { bodyDiffOffThread } from './body-diff-pool';
 import { diffSetupFields } from '../../../shared/setup/compare';
 import { computeSetup } from '../../../shared/setup/computed';
 import type { SetupRecord } from '../../../shared/schemas/setup-record';
@@ -226,7 +227,8 @@ export function revisionService(ctx: AppContext) {
       const { note, baseRevisionId, fields } = splitInput(parsed);
       return ctx.dataSource.transaction(async (m) => {
         const doc = await lockDocument(m, { kind, slug });
-        if (!doc) throw notFound(kind === 'guide' ? 'That guide' : 'That parameter');
+        // The same answer as visibleDocument's for a slug nobody used, whatever this one's state.
+        if (!doc || !canSeeDocument(actor, doc)) throw notFound(kind === 'guide' ? 'That guide' : 'That parameter');
         check(mayProposeEdit(actor, doc));
         if (baseRevisionId !== doc.publishedRevisionId) throw await staleBase(m, doc);
         const base = await m.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId! });
@@ -465,7 +467,8 @@ export function revisionService(ctx: AppContext) {
     /** Two revisions side by side: changed metadata and a word-level diff of the body. */
     async compare(actor: Actor, kind: DocumentKind, slug: string, from: number, to: number) {
       const [a, b] = [await this.byNumber(actor, kind, slug, from), await this.byNumber(actor, kind, slug, to)];
-      return { from: a, to: b, changedFields: changedFields(a.rev.content, b.rev.content), bodyDiff: bodyDiff(a.rev.content, b.rev.content) };
+      const diff = await bodyDiffOffThread(bodyOf(a.rev.content), bodyOf(b.rev.content));
+      return { from: a, to: b, changedFields: changedFields(a.rev.content, b.rev.content), bodyDiff: diff.parts, bodyDiffDetail: diff.detail };
     },
 
     /** A revision by id, for its author and moderators only (404 for anyone else). */
@@ -517,6 +520,7 @@ export function revisionService(ctx: AppContext) {
       const before = (rev.state === 'in_review' ? live?.rev.content : baseRev?.content) ?? {};
       const beforeSetup = ((rev.state === 'in_review' ? live?.rev.setup : baseRev?.setup) ?? null) as SetupRecord | null;
       const proposedSetup = (rev.setup ?? null) as SetupRecord | null;
+      const diff = await bodyDiffOffThread(bodyOf(before), bodyOf(rev.content));
       return {
         setupChanges:
           beforeSetup || proposedSetup
@@ -528,7 +532,8 @@ export function revisionService(ctx: AppContext) {
         view: v,
         live,
         changedFields: changedFields(before, rev.content),
-        bodyDiff: bodyDiff(before, rev.content),
+        bodyDiff: diff.parts,
+        bodyDiffDetail: diff.detail,
         workedExamples: checkWorkedExamples(String(rev.content.body ?? '')),
         own: rev.authorId === actor.id,
         stale: (rev.baseRevisionId ?? null) !== (v.doc.publishedRevisionId ?? null) && rev.state === 'in_review',

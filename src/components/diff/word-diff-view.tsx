@@ -1,4 +1,5 @@
 import { useId, useState } from 'react';
+import type { BodyDiffDetail } from '@shared/schemas/revision';
 
 /** One run of a word diff as the API sends it (the `diff` package's change objects). */
 export type WordChange = { value: string; added?: boolean; removed?: boolean; count?: number };
@@ -67,11 +68,30 @@ function SideBySideDiff({ changes, fromLabel, toLabel }: { changes: WordChange[]
   );
 }
 
+const COARSE_NOTE: Record<Exclude<BodyDiffDetail, 'words'>, string> = {
+  sentences: 'Some passages differ too much to compare word by word; they are compared sentence by sentence.',
+  lines: 'Some passages differ too much to compare word by word; they are shown as whole lines removed and added.',
+  whole: 'The two texts have almost nothing in common, so they are shown whole: the old text removed and the new one added.',
+};
+
 /**
  * A word-level diff of prose, inline or side by side. Pure rendering of the server's diff:
  * it pulls in no diff library, so reader pages stay small.
  */
-export function WordDiffView({ changes, fromLabel, toLabel, initialLayout = 'inline' }: { changes: WordChange[]; fromLabel: string; toLabel: string; initialLayout?: DiffLayout }) {
+export function WordDiffView({
+  changes,
+  fromLabel,
+  toLabel,
+  initialLayout = 'inline',
+  detail = 'words',
+}: {
+  changes: WordChange[];
+  fromLabel: string;
+  toLabel: string;
+  initialLayout?: DiffLayout;
+  /** How finely the server could compare the texts (long, very different texts are compared more coarsely). */
+  detail?: BodyDiffDetail;
+}) {
   const [layout, setLayout] = useState<DiffLayout>(initialLayout);
   const groupId = useId();
   const { added, removed } = countChangedWords(changes);
@@ -102,6 +122,11 @@ export function WordDiffView({ changes, fromLabel, toLabel, initialLayout = 'inl
           ))}
         </div>
       </div>
+      {detail !== 'words' && (
+        <p role="note" className="rounded-md border border-caution-line bg-caution-wash px-3 py-2 text-sm">
+          {COARSE_NOTE[detail]}
+        </p>
+      )}
       {layout === 'inline' ? (
         <div className="rounded-md border border-paper-line bg-paper-card p-4">
           <InlineDiff changes={changes} />

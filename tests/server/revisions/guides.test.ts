@@ -153,6 +153,24 @@ describe('GET /api/guides/:slug/revisions', () => {
   });
 });
 
+describe('GET /api/guides/:slug/revisions (a guide that was never live)', () => {
+  it('answers strangers and visitors exactly as for a slug nobody used; its author and moderators see the draft', async () => {
+    const { slug, revision } = await createDraftGuide(author);
+    const { client: stranger } = await signedInClient(t, 'member');
+    const unused = `never-used-${Date.now()}`;
+    for (const [who, c] of [['visitor', visitor], ['stranger', stranger]] as const) {
+      for (const suffix of ['/revisions', '/revisions/1', '']) {
+        const real = await c.get(`/api/guides/${slug}${suffix}`);
+        const none = await c.get(`/api/guides/${unused}${suffix}`);
+        expect(real.status, `${who} ${suffix}`).toBe(404);
+        expect(real.body, `${who} ${suffix}`).toEqual(none.body);
+      }
+    }
+    expect((await author.get(`/api/guides/${slug}/revisions`).expect(200)).body.data.map((r: { id: string }) => r.id)).toEqual([revision.id]);
+    expect((await mod.get(`/api/guides/${slug}/revisions`).expect(200)).body.data).toHaveLength(1);
+  });
+});
+
 describe('GET /api/guides/:slug/revisions/:n', () => {
   it('returns a version by number for its permalink; drafts only to their author and moderators', async () => {
     const { slug } = await createPublishedGuide(author, mod, { body: 'The first body' });

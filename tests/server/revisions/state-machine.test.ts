@@ -289,10 +289,14 @@ describe('POST /api/guides/:slug/revisions', () => {
     expect((await other.post(`/api/guides/no-such-guide/revisions`, { baseRevisionId: revisionId })).status).toBe(404);
   });
 
-  it('refuses an edit of a guide that has no live version yet (409)', async () => {
+  it('refuses an edit of a guide that has no live version yet: 409 to its author, and to anyone else the answer an unused slug gets', async () => {
     const { slug, revision } = await createDraftGuide(author);
-    const res = await other.post(`/api/guides/${slug}/revisions`, { baseRevisionId: revision.id });
-    expect(res.status).toBe(409);
-    expect(res.body.error.code).toBe('no_published_revision');
+    const own = await author.post(`/api/guides/${slug}/revisions`, { baseRevisionId: revision.id });
+    expect(own.status).toBe(409);
+    expect(own.body.error.code).toBe('no_published_revision');
+    const stranger = await other.post(`/api/guides/${slug}/revisions`, { baseRevisionId: revision.id });
+    const unused = await other.post(`/api/guides/never-used-slug-${Date.now()}/revisions`, { baseRevisionId: revision.id });
+    expect(stranger.status).toBe(404);
+    expect(stranger.body).toEqual(unused.body);
   });
 });

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { User } from '@shared/schemas/user';
+import type { SignUpAccepted, SignUpInput, User } from '@shared/schemas/user';
 import { api, resetCsrf, type Envelope } from '@/lib/api-client';
 
 /** Query-option factories for the session (keys general → specific). */
@@ -42,7 +42,7 @@ export function useSignOut() {
 
 export function useSignUp() {
   return useMutation({
-    mutationFn: async (input: { email: string; displayName: string; password: string }) => (await api.post<Envelope<{ user: User }>>('/api/auth/sign-up', input)).data.user,
+    mutationFn: async (input: SignUpInput) => (await api.post<Envelope<SignUpAccepted>>('/api/auth/sign-up', input)).data,
   });
 }
 

@@ -4,17 +4,13 @@ import { useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
 import { signInSchema, type SignInInput } from '@shared/schemas/user';
+import { safeNext } from '@shared/safe-next';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useResendVerification, useSignIn } from '../api/auth';
-
-/** Only same-site paths are followed after sign-in. */
-export function safeNext(next: string | null) {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/account';
-}
 
 export function SignInForm() {
   const [params] = useSearchParams();

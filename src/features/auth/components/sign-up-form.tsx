@@ -19,8 +19,8 @@ export function SignUpForm() {
   const handleSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
-      const user = await signUp.mutateAsync(values);
-      setSentTo(user.email);
+      const accepted = await signUp.mutateAsync(values);
+      setSentTo(accepted.email);
     } catch (err) {
       setFormError(applyServerErrors(err, form.setError, ['email', 'displayName', 'password']));
     }
@@ -29,7 +29,7 @@ export function SignUpForm() {
   if (sentTo) {
     return (
       <Notice tone="ok" title="Check your mail">
-        We sent a confirmation link to <strong>{sentTo}</strong>. Open it to finish setting up your account, then <Link to="/sign-in">sign in</Link>.
+        We sent a mail to <strong>{sentTo}</strong>. Open its confirmation link to finish setting up your account, then <Link to="/sign-in">sign in</Link>. If the address already has an account, the mail says so instead.
       </Notice>
     );
   }

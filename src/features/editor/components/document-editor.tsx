@@ -119,6 +119,8 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
     storageKey,
     content,
     savedContent: draft ? serverContent : null,
+    savedAt: draft?.updatedAt ?? null,
+    startingContent: serverContent,
     save,
     canSave: editable && canCreate,
     cannotSaveReason: editable ? 'Kept in this browser — add a title, summary, class and surface to save it to your workbench' : 'Not editable in this state',

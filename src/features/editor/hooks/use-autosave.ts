@@ -7,6 +7,14 @@ type Options<C> = {
   content: C;
   /** The content the server already holds (nothing to save while they match). */
   savedContent: C | null;
+  /** When the server last saved `savedContent` (an ISO date), for the status of a draft just opened. */
+  savedAt?: string | null;
+  /**
+   * The server's text the editor opened with (the draft, or the live version an edit starts from). Only a
+   * difference from it is an edit. It comes from the server, not from the field, so a change typed before
+   * this hook first ran can never be taken for the starting point.
+   */
+  startingContent: C;
   /** Sends the content to the server; throw to report failure. */
   save: (content: C) => Promise<void>;
   /** False while the content cannot be sent yet (e.g. a new guide without a title); it is still kept locally. */
@@ -23,8 +31,11 @@ const storage = () => (typeof window === 'undefined' ? null : window.localStorag
  * Keeps a draft safe: every change goes to localStorage at once, and to the server a few seconds after
  * typing stops. A failed save keeps the browser copy and retries when the connection returns.
  */
-export function useAutosave<C>({ storageKey, content, savedContent, save, canSave = true, cannotSaveReason, delayMs = 2500, retryMs = 10_000 }: Options<C>) {
-  const [status, setStatus] = useState<SaveStatus>({ kind: 'idle' });
+export function useAutosave<C>({ storageKey, content, savedContent, savedAt, startingContent, save, canSave = true, cannotSaveReason, delayMs = 2500, retryMs = 10_000 }: Options<C>) {
+  // A draft the server holds is saved until it is changed: say so, rather than "no changes yet".
+  const [status, setStatus] = useState<SaveStatus>(() =>
+    savedContent !== null && sameContent(content, savedContent) ? { kind: 'saved', at: savedAt ? Date.parse(savedAt) : Date.now() } : { kind: 'idle' },
+  );
   const latest = useRef(content);
   latest.current = content;
   const lastSaved = useRef<C | null>(savedContent);
@@ -74,11 +85,12 @@ export function useAutosave<C>({ storageKey, content, savedContent, save, canSav
   }, []);
 
   const serialized = JSON.stringify(content);
-  const opened = useRef(content);
+  const starting = useRef(startingContent);
+  starting.current = startingContent;
   const touched = useRef(false);
   useEffect(() => {
-    // The content the editor opened with is not an edit; nothing to keep or send until it changes.
-    if (!touched.current && sameContent(latest.current, opened.current)) return;
+    // The server's text the editor opened with is not an edit; nothing to keep or send until it changes.
+    if (!touched.current && sameContent(latest.current, starting.current)) return;
     touched.current = true;
     if (lastSaved.current !== null && sameContent(latest.current, lastSaved.current)) return;
     editedAt.current = Date.now();

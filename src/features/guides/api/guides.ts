@@ -2,7 +2,7 @@ import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@ta
 import { CLASSES, SURFACES } from '@shared/constants';
 import type { GuideContent } from '@shared/schemas/guide';
 import type { ParameterSummary } from '@shared/schemas/parameter';
-import type { Revision } from '@shared/schemas/revision';
+import type { BodyDiffDetail, Revision } from '@shared/schemas/revision';
 import type { FieldChange, WordChange } from '@/components/diff/word-diff-view';
 import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
@@ -37,7 +37,7 @@ export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 
 };
 
 /** What the comparison of two revisions returns. */
-export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[] };
+export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[]; bodyDiffDetail: BodyDiffDetail };
 
 export type GuideFilters = { class?: string; surface?: string; parameter?: string; q?: string };
 

@@ -12,7 +12,7 @@ export function CompareView({ slug, from, to }: { slug: string; from: number; to
   const cmp = useQuery(guideQueries.compare(slug, from, to));
   if (cmp.isPending) return <Spinner label="Comparing…" />;
   if (cmp.isError) return <Notice tone="danger" title="These versions could not be compared">{cmp.error.message}</Notice>;
-  const { from: a, to: b, bodyDiff, changedFields } = cmp.data;
+  const { from: a, to: b, bodyDiff, bodyDiffDetail, changedFields } = cmp.data;
   const fromLabel = `Version ${a.number}`;
   const toLabel = `Version ${b.number}`;
   return (
@@ -40,7 +40,7 @@ export function CompareView({ slug, from, to }: { slug: string; from: number; to
         <h2 id="changed-text" className="text-lg font-semibold">
           Changed text
         </h2>
-        <WordDiffView changes={bodyDiff} fromLabel={fromLabel} toLabel={toLabel} />
+        <WordDiffView changes={bodyDiff} detail={bodyDiffDetail} fromLabel={fromLabel} toLabel={toLabel} />
       </section>
     </div>
   );

@@ -221,7 +221,7 @@ export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExampl
             <FieldChangesTable changes={d.changedFields ?? []} fromLabel={liveLabel} toLabel={proposedLabel} caption="Fields that differ from the live version" />
           </Section>
           <Section id="review-text" title="Changed text">
-            <WordDiffView changes={d.bodyDiff ?? []} fromLabel={liveLabel} toLabel={proposedLabel} />
+            <WordDiffView changes={d.bodyDiff ?? []} detail={d.bodyDiffDetail} fromLabel={liveLabel} toLabel={proposedLabel} />
           </Section>
           <Section id="review-warnings" title="Calculator warnings">
             {warningCount === 0 ? (

@@ -1,0 +1,24 @@
+/** Where sign-in goes when there is no usable `next`. */
+export const DEFAULT_AFTER_SIGN_IN = '/account';
+
+// Anything a browser could read as another host: `//host`, `/\host` (backslashes are slashes to a URL
+// parser), and control characters, which the URL parser strips (so `/\t/host` would become `//host`).
+// eslint-disable-next-line no-control-regex -- control characters are exactly what it looks for
+const UNSAFE = /[\\\u0000-\u001f\u007f]/;
+
+/**
+ * The path sign-in returns to, if `next` is a path on this site; the account page otherwise. Judged here,
+ * not left to the router, so every place that follows `next` follows only our own pages.
+ */
+export function safeNext(next: string | null | undefined): string {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || UNSAFE.test(next)) return DEFAULT_AFTER_SIGN_IN;
+  const origin = 'https://tunewright.invalid';
+  let url: URL;
+  try {
+    url = new URL(next, origin);
+  } catch {
+    return DEFAULT_AFTER_SIGN_IN;
+  }
+  if (url.origin !== origin) return DEFAULT_AFTER_SIGN_IN;
+  return `${url.pathname}${url.search}${url.hash}`;
+}
