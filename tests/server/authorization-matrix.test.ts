@@ -185,10 +185,14 @@ function documentScenarios(kind: 'guides' | 'parameters'): Record<string, Scenar
         label: "the owner's unpublished draft in the history",
         arrange: async (w) => {
           const d = await draft(w);
-          return { method: 'get', url: `/api/${kind}/${d.slug}/revisions`, id: d.id };
+          return { method: 'get', url: `/api/${kind}/${d.slug}/revisions`, id: d.id, missingUrl: `/api/${kind}/never-used-slug-${d.number}/revisions` };
         },
-        // A list, so others get it without the draft rather than a refusal.
-        expect: { owner: ok(listed(true)), moderator: ok(listed(true)), admin: ok(listed(true)), stranger: ok(listed(false)), visitor: ok(listed(false)) },
+        // A list, so others get it without the draft rather than a refusal; but a guide that was never live
+        // does not exist for them at all (the answer an unused slug gets).
+        expect:
+          kind === 'guides'
+            ? { owner: ok(listed(true)), moderator: ok(listed(true)), admin: ok(listed(true)), stranger: err(404, 'not_found'), visitor: err(404, 'not_found') }
+            : { owner: ok(listed(true)), moderator: ok(listed(true)), admin: ok(listed(true)), stranger: ok(listed(false)), visitor: ok(listed(false)) },
       },
     ],
     [`GET /api/${kind}/:slug/revisions/:n`]: [
