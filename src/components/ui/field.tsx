@@ -23,7 +23,7 @@ function FieldShell({ label, error, hint, id, children }: FieldShellProps) {
   );
 }
 
-const control = 'w-full rounded-md border bg-white/80 px-3 py-2 text-ink shadow-inner placeholder:text-ink-faint focus:border-copper focus:outline-none';
+const control = 'w-full rounded-md border bg-white/80 px-3 py-2 text-ink shadow-inner placeholder:text-ink-faint focus:border-copper';
 
 type TextFieldProps = InputHTMLAttributes<HTMLInputElement> & { label: ReactNode; error?: string; hint?: ReactNode };
 

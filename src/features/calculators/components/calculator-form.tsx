@@ -79,7 +79,7 @@ function renderField(
         {unit && <span className="text-xs font-normal text-ink-muted">{unit}</span>}
       </label>
     );
-    const control = `w-full rounded-md border bg-white/85 px-2.5 py-1.5 text-[0.95rem] text-ink shadow-inner focus:border-copper focus:outline-none ${error ? 'border-danger' : 'border-ink/25'}`;
+    const control = `w-full rounded-md border bg-white/85 px-2.5 py-1.5 text-[0.95rem] text-ink shadow-inner focus:border-copper ${error ? 'border-danger' : 'border-ink/25'}`;
     return (
       <div key={field.key} className="flex min-w-0 flex-col gap-1">
         {label}

@@ -112,7 +112,7 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
             value={filter}
             onChange={(e) => setFilter(e.target.value)}
             placeholder="e.g. drag brake, boost, cutoff, kV"
-            className="w-full rounded-md border border-ink/25 bg-white/85 px-3 py-2 text-ink shadow-inner placeholder:text-ink-faint focus:border-copper focus:outline-none"
+            className="w-full rounded-md border border-ink/25 bg-white/85 px-3 py-2 text-ink shadow-inner placeholder:text-ink-faint focus:border-copper"
             aria-describedby="parameter-filter-count"
           />
         </div>

@@ -106,7 +106,7 @@ export function SearchBox() {
         onBlur={() => setOpen(false)}
         onKeyDown={handleKeyDown}
         placeholder="Search: drag brake, 17.5T…"
-        className="w-full rounded-md border border-ink/20 bg-white/80 px-3 py-1.5 text-sm placeholder:text-ink-faint focus:border-copper focus:outline-none"
+        className="w-full rounded-md border border-ink/20 bg-white/80 px-3 py-1.5 text-sm placeholder:text-ink-faint focus:border-copper"
       />
       <ul
         id={listId}

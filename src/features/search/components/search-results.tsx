@@ -97,7 +97,7 @@ export function SearchResults({ params, onChange }: Props) {
           maxLength={LIMITS.searchQueryMax}
           onChange={(e) => setDraft(e.target.value)}
           placeholder="A setting, a class, a track…"
-          className="w-full rounded-md border border-ink/25 bg-white/80 px-3 py-2 text-ink shadow-inner focus:border-copper focus:outline-none"
+          className="w-full rounded-md border border-ink/25 bg-white/80 px-3 py-2 text-ink shadow-inner focus:border-copper"
         />
         <Button type="submit">Search</Button>
       </form>
