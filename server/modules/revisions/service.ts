@@ -122,6 +122,17 @@ async function audit(
 
 const revMeta = (doc: DocumentEntity, rev: RevisionEntity, extra: Record<string, unknown> = {}) => ({ documentId: doc.id, kind: doc.kind, slug: doc.slug, number: rev.number, ...extra });
 
+/**
+ * A sent-back revision becomes a draft again on the author's first change to it (text, fields or
+ * baseline), audited; the moderator's reason stays with it until it is submitted again. Call inside
+ * the transaction that makes the change, with the revision row locked.
+ */
+export async function reopenIfReturned(m: EntityManager, actorId: string, rev: RevisionEntity, doc: DocumentEntity) {
+  if (rev.state !== 'returned') return;
+  await m.getRepository(RevisionEntity).update({ id: rev.id }, { state: 'draft' });
+  await audit(m, { actorId, action: 'revision.reopen', subjectKind: 'revision', subjectId: rev.id, from: 'returned', to: 'draft', meta: revMeta(doc, rev) });
+}
+
 async function nextNumber(m: EntityManager, documentId: string): Promise<number> {
   const [row] = await m.query('SELECT COALESCE(MAX(number), 0) + 1 AS n FROM revisions WHERE document_id = $1', [documentId]);
   return Number(row.n);
@@ -266,7 +277,10 @@ export function revisionService(ctx: AppContext) {
         }
         if (Object.keys(fields).length) patch.content = parseContent(doc.kind, { ...rev.content, ...fields }, 'body');
         if (note !== undefined) patch.note = note;
-        if (Object.keys(patch).length) await m.getRepository(RevisionEntity).update({ id }, patch as QueryDeepPartialEntity<RevisionEntity>);
+        if (Object.keys(patch).length) {
+          await m.getRepository(RevisionEntity).update({ id }, patch as QueryDeepPartialEntity<RevisionEntity>);
+          await reopenIfReturned(m, actor.id, rev, doc);
+        }
         if (patch.baseRevisionId) {
           await audit(m, { actorId: actor.id, action: 'revision.rebase', subjectKind: 'revision', subjectId: id, from: rev.baseRevisionId, to: patch.baseRevisionId, meta: revMeta(doc, rev) });
         }

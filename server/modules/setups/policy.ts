@@ -1,4 +1,4 @@
-import { ALLOW, authorOnly, type Actor, type Decision, type RevisionFacts } from '../revisions/policy';
+import { ALLOW, authorOnly, EDITABLE_STATES, type Actor, type Decision, type RevisionFacts } from '../revisions/policy';
 
 /** Uploaded setups are private: only their owner may read, download or delete them. */
 export function canReadUpload(user: { id: string } | null, row: { ownerId: string }): boolean {
@@ -9,6 +9,7 @@ export function canReadUpload(user: { id: string } | null, row: { ownerId: strin
 export function mayChangeBaseline(actor: Actor, rev: RevisionFacts): Decision {
   const who = authorOnly(actor, rev);
   if (!who.ok) return who;
-  if (rev.state !== 'draft') return { ok: false, status: 409, code: 'not_draft', message: 'The baseline can only change while the revision is a draft; start a new draft to change it.' };
+  // A sent-back revision is the author's to fix, baseline included (it becomes a draft again).
+  if (!EDITABLE_STATES.includes(rev.state)) return { ok: false, status: 409, code: 'not_draft', message: 'The baseline can only change while the revision is a draft or sent back; start a new draft to change it.' };
   return ALLOW;
 }

@@ -8,6 +8,7 @@ import { AppError, notFound } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
 import { DocumentEntity } from '../revisions/document.entity';
 import { RevisionEntity } from '../revisions/revision.entity';
+import { reopenIfReturned } from '../revisions/service';
 import { UserEntity } from '../auth/user.entity';
 import { SetupEntity } from './setup.entity';
 import { checkFileContent, checkFileName, invalidSetup } from './upload';
@@ -154,25 +155,27 @@ async function ownDraft(m: EntityManager, user: Actor, revisionId: string) {
   if (!decision.ok) throw new AppError(decision.status, decision.code, decision.message);
   const doc = await m.getRepository(DocumentEntity).findOneByOrFail({ id: revision.documentId });
   if (doc.kind !== 'guide') throw new AppError(409, 'not_a_guide', 'Only guide revisions carry a baseline setup.');
-  return revision;
+  return { revision, doc };
 }
 
 /** Attaches (or replaces) the baseline of the author's own draft, after validating it against the library. */
 export async function attachToRevision(ctx: AppContext, user: Actor, revisionId: string, body: unknown) {
   return ctx.dataSource.transaction(async (m) => {
-    const revision = await ownDraft(m, user, revisionId);
+    const { revision, doc } = await ownDraft(m, user, revisionId);
     const result = validateSetupObject(body, await loadSettingLibrary(m));
     if (!result.ok) throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
     // Provenance is stamped on export from the revision itself; whatever came in is not kept.
     const { provenance: _ignored, ...record } = canonicalRecord(result.record);
     await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: record });
+    await reopenIfReturned(m, user!.id, revision, doc);
     return record as SetupRecord;
   });
 }
 
 export async function detachFromRevision(ctx: AppContext, user: Actor, revisionId: string) {
   await ctx.dataSource.transaction(async (m) => {
-    const revision = await ownDraft(m, user, revisionId);
+    const { revision, doc } = await ownDraft(m, user, revisionId);
     await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: null });
+    await reopenIfReturned(m, user!.id, revision, doc);
   });
 }

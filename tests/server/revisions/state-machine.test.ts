@@ -3,6 +3,7 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../.
 import { signedInClient } from '../../factories/user';
 import { createDraftGuide, createPublishedGuide, guideInput, proposeEdit } from '../../factories/guide';
 import type { UserEntity } from '../../../server/modules/auth/user.entity';
+import { buildSetupRecord } from '../../factories/setup-record';
 
 let t: TestApp;
 let author: TestClient;
@@ -201,14 +202,42 @@ describe('POST /api/reviews/:revisionId/return', () => {
     // The author sees the reason on their revision.
     const seen = await author.get(`/api/revisions/${revision.id}`);
     expect(seen.body.data.revision.reason).toMatch(/pinion/);
-    // Returned is editable by its author and can go back to review.
-    expect((await author.patch(`/api/revisions/${revision.id}`, { body: 'Now with the 34-tooth pinion and a heat check.' })).status).toBe(200);
+    // Returned is editable by its author: the first change makes it a draft again (audited), the reason stays with it.
     expect((await other.patch(`/api/revisions/${revision.id}`, { body: 'x' })).status).toBe(404);
+    const fixed = await author.patch(`/api/revisions/${revision.id}`, { body: 'Now with the 34-tooth pinion and a heat check.' });
+    expect(fixed.status).toBe(200);
+    expect(fixed.body.data.revision).toMatchObject({ state: 'draft', reason: 'Add the pinion you ran, and a heat check after five minutes.' });
+    const reopened = (await auditFor(revision.id)).at(-1)!;
+    expect([reopened.action, reopened.from_value, reopened.to_value, reopened.actor_id]).toEqual(['revision.reopen', 'returned', 'draft', authorUser.id]);
     const again = await author.post(`/api/revisions/${revision.id}/submit`, { note: 'Added pinion and heat check' });
     expect(again.status).toBe(200);
     expect(again.body.data.revision).toMatchObject({ state: 'in_review', reason: null });
     const resubmit = (await auditFor(revision.id)).at(-1)!;
-    expect([resubmit.action, resubmit.from_value, resubmit.to_value]).toEqual(['revision.submit', 'returned', 'in_review']);
+    expect([resubmit.action, resubmit.from_value, resubmit.to_value]).toEqual(['revision.submit', 'draft', 'in_review']);
+  });
+
+  it("lets the author change a sent-back revision's baseline (PUT and DELETE …/setup), reopening it as a draft", async () => {
+    for (const method of ['put', 'delete'] as const) {
+      const { revision } = await createDraftGuide(author);
+      // This file's database has no parameter library, so the baseline carries no ESC settings.
+      expect((await author.put(`/api/revisions/${revision.id}/setup`, buildSetupRecord({ escSettings: {} }))).status).toBe(200);
+      await author.post(`/api/revisions/${revision.id}/submit`, { note: 'Ready' });
+      expect((await mod.post(`/api/reviews/${revision.id}/return`, { reason: 'The baseline still runs the old pinion.' })).status).toBe(200);
+      const res =
+        method === 'put'
+          ? await author.put(`/api/revisions/${revision.id}/setup`, buildSetupRecord({ escSettings: {}, gearing: { spurTeeth: 84, pinionTeeth: 30, internalRatio: 2.6, tyreDiameterMm: 62 } }))
+          : await author.delete(`/api/revisions/${revision.id}/setup`);
+      expect(res.status, `${method}: ${JSON.stringify(res.body)}`).toBe(method === 'put' ? 200 : 204);
+      expect(await stateOf(revision.id)).toBe('draft');
+      const row = (await auditFor(revision.id)).at(-1)!;
+      expect([row.action, row.from_value, row.to_value]).toEqual(['revision.reopen', 'returned', 'draft']);
+      const stored = (await t.db.dataSource.query('SELECT setup FROM revisions WHERE id = $1', [revision.id]))[0].setup;
+      if (method === 'put') expect(stored.gearing.pinionTeeth).toBe(30);
+      else expect(stored).toBeNull();
+      // And it goes back to review from there.
+      expect((await author.post(`/api/revisions/${revision.id}/submit`, { note: 'Baseline fixed' })).status).toBe(200);
+      expect(await stateOf(revision.id)).toBe('in_review');
+    }
   });
 
   it('refuses members and own revisions', async () => {
