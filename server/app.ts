@@ -16,6 +16,7 @@ import { renderApiDocs } from './lib/api-docs';
 import { loadShell } from './lib/html-shell';
 import { guidePageHandler, parameterPageHandler } from './modules/pages/handler';
 import { assertServeable } from './config/env';
+import { compressAnswers, staticBuild } from './middleware/compress';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -100,6 +101,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
     next();
   });
 
+  app.use(compressAnswers());
   app.use('/api', express.json({ limit: LIMITS.jsonBodyBytes, strict: true }));
   const { pool } = installAuth(app, ctx);
   app.use('/api', csrf.csrfSynchronisedProtection);
@@ -119,8 +121,8 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
 
   if (opts.serveClient ?? true) {
     if (fs.existsSync(path.join(distDir, 'index.html'))) {
-      app.use('/assets', express.static(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
-      app.use(express.static(distDir, { index: false, maxAge: '1h' }));
+      app.use('/assets', staticBuild(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
+      app.use(staticBuild(distDir, { index: false, maxAge: '1h' }));
       const shell = loadShell(distDir);
       app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
       app.get('/parameters/:slug', parameterPageHandler(ctx, shell));
