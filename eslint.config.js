@@ -1,6 +1,29 @@
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
+import pluginQuery from '@tanstack/eslint-plugin-query';
+import fs from 'node:fs';
+
+// The import boundaries of the client (DEVELOPERS.md, Conventions): a feature never imports another
+// feature (pages in src/app/routes compose them), and shared components and the client library never
+// import features.
+const features = fs
+  .readdirSync('src/features', { withFileTypes: true })
+  .filter((d) => d.isDirectory())
+  .map((d) => d.name);
+const restrict = (patterns) => ({ 'no-restricted-imports': ['error', { patterns }] });
+const boundaries = [
+  ...features.map((f) => ({
+    files: [`src/features/${f}/**/*.{ts,tsx}`],
+    rules: restrict([
+      { regex: `^@/features/(?!${f}/)`, message: 'Features do not import each other: compose them in a page under src/app/routes.' },
+      { regex: `^(\\.\\./)+(${features.filter((o) => o !== f).join('|')})/`, message: 'Features do not import each other: compose them in a page under src/app/routes.' },
+    ]),
+  })),
+  // The layout (header, guards) is the app's frame and reads the session; the building blocks below it do not.
+  { files: ['src/components/ui/**/*.{ts,tsx}', 'src/components/diff/**/*.{ts,tsx}', 'src/lib/**/*.{ts,tsx}'], rules: restrict([{ regex: '^@/features/', message: 'Shared components and the client library do not import features.' }]) },
+  { files: ['shared/**/*.ts'], rules: restrict([{ regex: '^(@/|(\\.\\./)+(src|server)/)', message: 'shared/ is imported by both sides: it imports neither the client nor the server.' }]) },
+];
 
 export default tseslint.config(
   { ignores: ['dist/', 'node_modules/', '.data/', '.test-artifacts/', 'coverage/'] },
@@ -14,6 +37,8 @@ export default tseslint.config(
       'react-hooks/exhaustive-deps': 'warn',
     },
   },
+  ...pluginQuery.configs['flat/recommended'],
+  ...boundaries,
   {
     files: ['server/bin/*.mjs'],
     languageOptions: { globals: { process: 'readonly', console: 'readonly', Buffer: 'readonly', URL: 'readonly', setTimeout: 'readonly' } },

@@ -1,5 +1,5 @@
 // `npm test`: the same bootstrap as `npm start`, then every suite against a throwaway cluster on a free port.
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -18,8 +18,34 @@ function cleanup() {
 process.on('SIGINT', () => { cleanup(); process.exit(130); });
 process.on('SIGTERM', () => { cleanup(); process.exit(143); });
 
+/**
+ * The static checks CI runs before the suites (a whole `npm test`, not one run for chosen files): lint,
+ * typecheck and the format check. Each counts as one check in the closing line.
+ */
+function staticChecks() {
+  const bin = (pkg, file) => path.join(root, 'node_modules', pkg, file);
+  const checks = [
+    ['lint', [bin('eslint', 'bin/eslint.js'), '.']],
+    ['typecheck', [bin('typescript', 'bin/tsc'), '--noEmit', '-p', '.']],
+    ['format', [bin('prettier', 'bin/prettier.cjs'), '--check', '--log-level', 'warn', '.']],
+  ];
+  let passed = 0;
+  let failed = 0;
+  for (const [name, args] of checks) {
+    const started = Date.now();
+    const r = spawnSync(process.execPath, args, { cwd: root, stdio: 'inherit' });
+    const ok = r.status === 0;
+    log(`${name}: ${ok ? 'ok' : 'FAILED'} (${((Date.now() - started) / 1000).toFixed(1)} s)`);
+    if (ok) passed++;
+    else failed++;
+  }
+  return { passed, failed };
+}
+
 async function main() {
   ensureDependencies(log);
+  const fileArgs = process.argv.slice(2);
+  const statics = fileArgs.length ? { passed: 0, failed: 0 } : staticChecks();
   const bin = ensurePostgresInstalled(log);
   ensureChromiumInstalled(log);
   ensureClientBuild(log);
@@ -51,6 +77,8 @@ async function main() {
   } else {
     failed = 1;
   }
+  passed += statics.passed;
+  failed += statics.failed;
   console.log(`tests: ${passed} passed, ${failed} failed`);
   process.exit(failed > 0 || code !== 0 ? 1 : 0);
 }

@@ -59,13 +59,13 @@ export function SetupRecordForm(props: Props) {
   const library = useQuery(setupQueries.escSettings());
   if (library.isPending) return <Spinner label="Loading the parameter library…" />;
   if (library.error) return <Notice tone="danger">The parameter library could not be loaded, so ESC settings cannot be checked. Try again in a moment.</Notice>;
-  return <RecordForm {...props} library={library.data} />;
+  return <RecordForm {...props} definitions={library.data} />;
 }
 
-function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', actions, library }: Props & { library: SettingDefinitionRow[] }) {
-  const schema = useMemo(() => setupRecordSchema(library), [library]);
-  const escOptions = useMemo(() => library.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD)), [library]);
-  const bySlug = useMemo(() => new Map(library.map((d) => [d.slug, d])), [library]);
+function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', actions, definitions }: Props & { definitions: SettingDefinitionRow[] }) {
+  const schema = useMemo(() => setupRecordSchema(definitions), [definitions]);
+  const escOptions = useMemo(() => definitions.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD)), [definitions]);
+  const bySlug = useMemo(() => new Map(definitions.map((d) => [d.slug, d])), [definitions]);
   // Explicit generics (input, context, output) as zod 4 resolvers need; the record type is the same both ways.
   const form = useForm<SetupRecord, unknown, SetupRecord>({ resolver: zodResolver(schema) as Resolver<SetupRecord, unknown, SetupRecord>, defaultValues: defaultValue ?? EMPTY, mode: 'onBlur' });
   const { register, handleSubmit, formState, reset, setValue, unregister, watch } = form;
@@ -99,7 +99,7 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
     if (!file) return;
     const kind = /\.csv$/i.test(file.name) ? 'csv' : /\.json$/i.test(file.name) ? 'json' : null;
     if (!kind) return setFileIssues([{ path: 'file.name', message: 'Choose a .json or .csv setup file' }]);
-    const result = parseSetupText(await file.text(), kind, library);
+    const result = parseSetupText(await file.text(), kind, definitions);
     if (!result.ok) return setFileIssues(result.issues);
     setFileIssues(null);
     reset(result.record);
