@@ -1,6 +1,5 @@
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import fs from 'node:fs';
 import path from 'node:path';
 import { LIMITS } from '../shared/constants';
@@ -17,6 +16,7 @@ import { loadShell } from './lib/html-shell';
 import { guidePageHandler, parameterPageHandler } from './modules/pages/handler';
 import { assertServeable } from './config/env';
 import { compressAnswers, staticBuild } from './middleware/compress';
+import { requestLog } from './middleware/request-log';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -66,7 +66,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   app.set('trust proxy', ctx.config.trustProxy ? 1 : false);
   app.set('query parser', 'extended');
 
-  if (ctx.config.env !== 'test') app.use(pinoHttp({ logger: ctx.logger, autoLogging: { ignore: (req) => req.url?.startsWith('/assets/') ?? false } }));
+  if (ctx.config.env !== 'test') app.use(requestLog(ctx.logger));
 
   app.use(
     helmet({
