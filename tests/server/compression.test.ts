@@ -92,3 +92,19 @@ describe('compression negotiated per request (RFC 9110 §12.5.3)', () => {
     expect(small.headers['content-encoding']).toBeUndefined();
   });
 });
+
+describe('conditional requests', () => {
+  it('answers 304 Not Modified to a public GET whose ETag matches, and 200 once it changed', async () => {
+    for (const url of ['/api/parameters', '/parameters/drag-brake', '/api/parameters/drag-brake']) {
+      const first = await rawGet(url, { 'Accept-Encoding': 'br' });
+      expect(first.status, url).toBe(200);
+      const etag = first.headers.etag;
+      expect(etag, url).toBeTruthy();
+      const again = await rawGet(url, { 'Accept-Encoding': 'br', 'If-None-Match': etag! });
+      expect(again.status, url).toBe(304);
+      expect(again.body.length, url).toBe(0);
+      const stale = await rawGet(url, { 'Accept-Encoding': 'br', 'If-None-Match': 'W/"not-this-one"' });
+      expect(stale.status, url).toBe(200);
+    }
+  });
+});
