@@ -1,8 +1,5 @@
-import { Route } from 'react-router-dom';
 import type { User } from '../../../shared/schemas/user';
-import type { GuideDetail, ReadableGuideRevision } from '../../../src/features/guides/api/guides';
-import { INITIAL_DATA_ID, type InitialData } from '../../../src/app/initial-data';
-import { GuidePage } from '../../../src/app/routes/guide';
+import { drawGuidePage, INITIAL_DATA_ID, type GuideDetail, type InitialData, type ReadableGuideRevision } from '../../../src/entry-server';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';
@@ -10,17 +7,11 @@ import { liveParameterSummaries } from '../parameters/routes';
 import { isModerator } from '../revisions/policy';
 import { presentGuideRecord, presentReadableRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
-import { anonymousPages, drawApp } from './draw';
+import { anonymousPages } from './anonymous-pages';
 
 // Visitors all get the same page for a live guide, so it is kept until the guide (or the library) changes.
 const anonymous = anonymousPages();
 
-const GUIDE_PAGES = (
-  <>
-    <Route path="/guides/:slug" element={<GuidePage />} />
-    <Route path="/guides/:slug/v/:n" element={<GuidePage />} />
-  </>
-);
 
 /**
  * The guide page (/guides/:slug or its permalink /guides/:slug/v/:n) as the browser's first render
@@ -59,7 +50,7 @@ export async function guidePageHtml(
   const cached = cacheable ? anonymous.get(url, [detail, parameters]) : undefined;
   if (cached) return cached;
   const html = shell.render({
-    appHtml: drawApp(url, data, GUIDE_PAGES),
+    appHtml: drawGuidePage(url, data),
     data,
     dataId: INITIAL_DATA_ID,
     title: shown.content.title,

@@ -1,16 +1,12 @@
-import { Route } from 'react-router-dom';
 import type { User } from '../../../shared/schemas/user';
-import { INITIAL_DATA_ID, type InitialData } from '../../../src/app/initial-data';
-import { ParameterPage } from '../../../src/app/routes/parameters';
-import type { ParameterPageData } from '../../../src/features/parameters/api/parameters';
+import { drawParameterPage, INITIAL_DATA_ID, type InitialData, type ParameterPageData } from '../../../src/entry-server';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';
 import { liveParameterDetail } from '../parameters/routes';
-import { anonymousPages, drawApp } from './draw';
+import { anonymousPages } from './anonymous-pages';
 
 const anonymous = anonymousPages();
-const PARAMETER_PAGES = <Route path="/parameters/:slug" element={<ParameterPage />} />;
 
 /**
  * A parameter entry's page (/parameters/:slug) as the browser's first render will draw it, with the
@@ -30,7 +26,7 @@ export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: Use
   if (cached) return cached;
   const data: InitialData = { me: user, parameter: { slug, detail } };
   const html = shell.render({
-    appHtml: drawApp(url, data, PARAMETER_PAGES),
+    appHtml: drawParameterPage(url, data),
     data,
     dataId: INITIAL_DATA_ID,
     title: detail.parameter.name,

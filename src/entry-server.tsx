@@ -1,0 +1,47 @@
+// The one entry the server draws pages through: `server/` imports nothing else from `src/`.
+import type { ReactNode } from 'react';
+import { QueryClientProvider } from '@tanstack/react-query';
+import { renderToString } from 'react-dom/server';
+import { Route, Routes, StaticRouter } from 'react-router-dom';
+import { seedInitialData, type InitialData } from './app/initial-data';
+import './app/nav-extras-setup';
+import { GuidePage } from './app/routes/guide';
+import { ParameterPage } from './app/routes/parameters';
+import { AppLayout } from './components/layout/app-layout';
+import { createQueryClient } from './lib/query-client';
+
+export { INITIAL_DATA_ID, type InitialData } from './app/initial-data';
+export type { GuideDetail, ReadableGuideRevision } from './features/guides/api/guides';
+export type { ParameterPageData } from './features/parameters/api/parameters';
+
+/** The app's own layout and page components, drawn to HTML from the reads the browser would make. */
+function drawApp(url: string, data: InitialData, pages: ReactNode): string {
+  const qc = createQueryClient();
+  seedInitialData(qc, data);
+  return renderToString(
+    <QueryClientProvider client={qc}>
+      <StaticRouter location={url}>
+        <Routes>
+          <Route element={<AppLayout />}>{pages}</Route>
+        </Routes>
+      </StaticRouter>
+    </QueryClientProvider>,
+  );
+}
+
+/** A guide page (`/guides/:slug` or its permalink `/guides/:slug/v/:n`) as the browser's first render draws it. */
+export function drawGuidePage(url: string, data: InitialData): string {
+  return drawApp(
+    url,
+    data,
+    <>
+      <Route path="/guides/:slug" element={<GuidePage />} />
+      <Route path="/guides/:slug/v/:n" element={<GuidePage />} />
+    </>,
+  );
+}
+
+/** A parameter entry's page (`/parameters/:slug`) as the browser's first render draws it. */
+export function drawParameterPage(url: string, data: InitialData): string {
+  return drawApp(url, data, <Route path="/parameters/:slug" element={<ParameterPage />} />);
+}
