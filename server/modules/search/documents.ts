@@ -4,7 +4,7 @@ import { CLASSES, SURFACES } from '../../../shared/constants';
 import type { GuideContent } from '../../../shared/schemas/guide';
 import type { ParameterContent } from '../../../shared/schemas/parameter';
 import { markdownToText } from './markdown-text';
-import type { SearchDocument } from './search-index';
+import type { SearchDocument } from './types';
 
 const CLASS_SLUGS = new Set<string>(CLASSES.map((c) => c.slug));
 const SURFACE_SLUGS = new Set<string>(SURFACES.map((s) => s.slug));
