@@ -82,23 +82,35 @@ export class TermIndex<T> extends MiniSearch<T> {
 }
 
 /** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
-export type FlatPostings = { gen: number; total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
+export type FlatPostings = { total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
+/** The fields a query looks in: all of them, or the headline ones (suggestions). */
+export type Scope = 'all' | 'headline';
+const SCOPES: Scope[] = ['all', 'headline'];
+/**
+ * A cached flat list also keeps what its impacts were computed with (per field of its scope: boost
+ * × idf, NaN while no item held the term there, and the average field length), so items added
+ * later are appended on the same footing instead of the whole list being rebuilt.
+ */
+type CachedPostings = FlatPostings & { fields: Field[]; weights: Float64Array; avgs: Float64Array; pending: number[] };
 const MAX_CACHED_TERMS = 4000;
+const MAX_PENDING = 1000;
+
+const idfOf = (N: number, n: number) => Math.max(0.01, Math.log(1 + (N - n + 0.5) / (n + 0.5)));
 
 /**
- * Flattened postings per term and field scope, cached. Per-term change counters: adding an item
- * bumps the counters of its terms, so only their flattened postings are rebuilt. Removed items are
- * skipped while scoring; idf and lengths are refreshed once the item count has drifted by 1 %.
+ * Flattened postings per term and field scope, cached. Adding an item queues its short id on the
+ * cached lists of its terms; the next read of such a list appends the item's impacts and drops
+ * the entries of removed items (a copy of typed arrays, not a rebuild from MiniSearch's maps: a
+ * search right after an update costs what any other does). Removed items are skipped while scoring
+ * until then; idf and lengths are refreshed by a full rebuild once the item count has drifted by 1 %.
  */
 export class PostingsCache {
-  private flat = new Map<string, FlatPostings>();
-  private termGen = new Map<string, number>();
+  private flat = new Map<string, CachedPostings>();
   /** Field lengths per field, indexed by short id. */
   private lengths: Float64Array[] = FIELDS.map(() => new Float64Array(1024));
 
   clear() {
     this.flat.clear();
-    this.termGen.clear();
   }
 
   grow(size: number) {
@@ -109,36 +121,53 @@ export class PostingsCache {
     });
   }
 
-  /** Notes a newly added item's field lengths. */
-  attach(mini: TermIndex<SearchDocument>, short: number) {
+  /** Notes a newly added item: its field lengths, and its short id on the cached lists of its terms. */
+  attach(mini: TermIndex<SearchDocument>, short: number, doc: SearchDocument, queue: boolean) {
     const lens = mini.fieldLengths(short) ?? [];
     FIELDS.forEach((f, i) => (this.lengths[i][short] = lens[mini.fieldId(f)] ?? 0));
-  }
-
-  /** The item about to be added holds these terms: their flattened postings are out of date. */
-  touch(doc: SearchDocument) {
-    for (const f of FIELDS) for (const t of toTerms(fieldText(doc, f))) this.termGen.set(t, (this.termGen.get(t) ?? 0) + 1);
+    if (!queue || this.flat.size === 0) return;
+    const seen = new Set<string>();
+    for (const f of FIELDS)
+      for (const t of toTerms(fieldText(doc, f))) {
+        if (seen.has(t)) continue;
+        seen.add(t);
+        for (const scope of SCOPES) {
+          const key = `${scope}\u0000${t}`;
+          const cached = this.flat.get(key);
+          if (!cached) continue;
+          // A list nobody reads while many items are added is cheaper to rebuild once than to keep queueing for.
+          if (cached.pending.length >= MAX_PENDING) this.flat.delete(key);
+          else cached.pending.push(short);
+        }
+      }
   }
 
   /** `alive[short]` is 0 for discarded items (their postings linger until MiniSearch vacuums them). */
-  get(mini: TermIndex<SearchDocument>, alive: Uint8Array, term: string, data: FieldTermData, fields: Field[], scope: string): FlatPostings {
+  get(mini: TermIndex<SearchDocument>, alive: Uint8Array, term: string, data: FieldTermData, fields: Field[], scope: Scope): FlatPostings {
     const key = `${scope}\u0000${term}`;
     const cached = this.flat.get(key);
-    const gen = this.termGen.get(term) ?? 0;
     const N = mini.total;
-    if (cached && cached.gen === gen && Math.abs(cached.total - N) <= cached.total * 0.01) return cached;
+    if (cached && Math.abs(cached.total - N) <= cached.total * 0.01) {
+      if (cached.pending.length) this.patch(cached, mini, alive, data);
+      return cached;
+    }
     const acc = new Map<number, number>();
     const inHeadline = new Set<number>();
-    for (const field of fields) {
+    const weights = new Float64Array(fields.length).fill(NaN);
+    const avgs = new Float64Array(fields.length).fill(1);
+    for (let f = 0; f < fields.length; f++) {
+      const field = fields[f];
       const fid = mini.fieldId(field);
       const postings = data.get(fid);
       if (!postings) continue;
       const n = postings.size;
       // Postings of discarded items linger until vacuumed, so n can pass N: keep idf positive.
-      const idf = Math.max(0.01, Math.log(1 + (N - n + 0.5) / (n + 0.5)));
+      const idf = idfOf(N, n);
       const w = FIELD_BOOST[field] * idf;
       const lens = this.lengths[FIELDS.indexOf(field)];
       const avg = mini.avgFieldLength(fid) || 1;
+      weights[f] = w;
+      avgs[f] = avg;
       const headline = HEADLINE_FIELDS.includes(field);
       postings.forEach((tf, doc) => {
         if (alive[doc] === 0) return; // discarded, not yet vacuumed
@@ -158,8 +187,61 @@ export class PostingsCache {
       i++;
     }
     if (this.flat.size >= MAX_CACHED_TERMS) this.flat.clear();
-    const flat = { gen, total: N, docs, impact, headline };
+    const flat: CachedPostings = { total: N, docs, impact, headline, fields, weights, avgs, pending: [] };
     this.flat.set(key, flat);
     return flat;
+  }
+
+  /** Appends the queued items' impacts (computed as the full build would have) and drops removed items. */
+  private patch(c: CachedPostings, mini: TermIndex<SearchDocument>, alive: Uint8Array, data: FieldTermData) {
+    const added: Array<{ doc: number; v: number; headline: number }> = [];
+    for (const doc of new Set(c.pending)) {
+      if (alive[doc] === 0) continue;
+      let v = 0;
+      let headline = 0;
+      let holds = false;
+      for (let f = 0; f < c.fields.length; f++) {
+        const field = c.fields[f];
+        const postings = data.get(mini.fieldId(field));
+        const tf = postings?.get(doc);
+        if (tf === undefined || !postings) continue;
+        if (Number.isNaN(c.weights[f])) {
+          // The first item holding the term in this field: weigh it as a full build would now.
+          c.weights[f] = FIELD_BOOST[field] * idfOf(mini.total, postings.size);
+          c.avgs[f] = mini.avgFieldLength(mini.fieldId(field)) || 1;
+        }
+        const w = c.weights[f];
+        const avg = c.avgs[f];
+        const len = this.lengths[FIELDS.indexOf(field)][doc];
+        v += w * (BM25.d + (tf * (BM25.k + 1)) / (tf + BM25.k * (1 - BM25.b + (BM25.b * len) / avg)));
+        holds = true;
+        if (HEADLINE_FIELDS.includes(field)) headline = 1;
+      }
+      if (holds) added.push({ doc, v, headline });
+    }
+    c.pending = [];
+    const { docs, impact, headline } = c;
+    let live = 0;
+    for (let i = 0; i < docs.length; i++) live += alive[docs[i]];
+    if (live === docs.length && !added.length) return;
+    const n = live + added.length;
+    const nextDocs = new Int32Array(n);
+    const nextImpact = new Float32Array(n);
+    const nextHeadline = new Uint8Array(n);
+    let k = 0;
+    for (let i = 0; i < docs.length; i++) {
+      if (alive[docs[i]] === 0) continue;
+      nextDocs[k] = docs[i];
+      nextImpact[k] = impact[i];
+      nextHeadline[k++] = headline[i];
+    }
+    for (const a of added) {
+      nextDocs[k] = a.doc;
+      nextImpact[k] = a.v;
+      nextHeadline[k++] = a.headline;
+    }
+    c.docs = nextDocs;
+    c.impact = nextImpact;
+    c.headline = nextHeadline;
   }
 }

@@ -1,7 +1,7 @@
 import type { SearchHit, SearchSuggestion, SearchType } from '../../../shared/schemas/search';
 import { didYouMean } from './did-you-mean';
 import { FacetTable } from './facets';
-import { FIELDS, HEADLINE_FIELDS, PostingsCache, TermIndex, fieldText, type Field, type FieldTermData } from './postings';
+import { FIELDS, HEADLINE_FIELDS, PostingsCache, TermIndex, fieldText, type Field, type FieldTermData, type Scope } from './postings';
 import { ScoreBoard, deriveTerms, termsIn } from './scoring';
 import { cutSnippet, snippetSources, type SnippetSource } from './snippets';
 import { SynonymTable } from './synonyms';
@@ -75,7 +75,8 @@ export class SearchIndex {
     this.postings.grow(size);
   }
 
-  private attach(doc: SearchDocument) {
+  /** `queue`: an item added after the index was built (its terms' cached postings get it appended). */
+  private attach(doc: SearchDocument, queue = false) {
     const id = docId(doc.type, doc.slug);
     this.docs.set(id, doc);
     if (doc.type === 'parameter') this.params.set(doc.slug, doc);
@@ -83,7 +84,7 @@ export class SearchIndex {
     const short = this.mini.shortId(id)!;
     this.grow(short + 1);
     this.idLimit = Math.max(this.idLimit, short + 1);
-    this.postings.attach(this.mini, short);
+    this.postings.attach(this.mini, short, doc, queue);
     this.slots[short] = { doc, snippet: snippetSources(doc) };
     this.facets.attach(short, doc);
   }
@@ -117,9 +118,8 @@ export class SearchIndex {
   /** Adds or replaces one item. */
   put(doc: SearchDocument) {
     this.remove(doc.type, doc.slug, false);
-    this.postings.touch(doc);
     this.mini.add(doc);
-    this.attach(doc);
+    this.attach(doc, true);
     if (doc.type === 'parameter') this.rebuildSynonyms();
   }
 
@@ -158,7 +158,7 @@ export class SearchIndex {
         if (short !== undefined) named.add(short);
       }
     const fields = opts.fields ?? [...FIELDS];
-    const scope = opts.fields ? 'headline' : 'all';
+    const scope: Scope = opts.fields ? 'headline' : 'all';
     const { mini, postings, board, facets } = this;
     const alive = facets.alive;
     const flatten = (term: string, data: FieldTermData) => postings.get(mini, alive, term, data, fields, scope);
