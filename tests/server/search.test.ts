@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seed } from '../../server/db/seed';
 import { LIMITS } from '../../shared/constants';
-import { searchResponseSchema, searchSuggestionSchema } from '../../shared/schemas/search';
+import { searchResponseSchema, searchSuggestionSchema, snippetSegments } from '../../shared/schemas/search';
+import { publishRevision } from '../factories/revision';
+import { within } from '../search/wait';
 import { createClient, createTestApp, type TestApp, type TestClient } from '../setup/test-app';
 
 let t: TestApp;
@@ -48,7 +50,10 @@ describe('GET /api/search', () => {
     const onClay = (await client.get('/api/search?q=drag%20brake&surface=clay')).body;
     expect(onClay.meta.total).toBe(clay.count);
     const stock = (await client.get('/api/search?q=punch&class=buggy-2wd-stock')).body;
-    expect(stock.data.hits.map((h: { type: string; slug: string }) => `${h.type}:${h.slug}`)).toEqual(['guide:stock-2wd-buggy-harbour-flats-clay', 'setup:stock-2wd-buggy-harbour-flats-clay']);
+    expect(stock.data.hits.map((h: { type: string; slug: string }) => `${h.type}:${h.slug}`)).toEqual([
+      'guide:stock-2wd-buggy-harbour-flats-clay',
+      'setup:stock-2wd-buggy-harbour-flats-clay',
+    ]);
     const withRollout = (await client.get('/api/search?q=clay&parameter=rollout')).body;
     expect(withRollout.meta.total).toBeGreaterThan(0);
     const limited = (await client.get('/api/search?q=brake&limit=2')).body;
@@ -113,5 +118,32 @@ describe('GET /api/search/suggest', () => {
   it('rejects an empty or over-long query', async () => {
     expect((await client.get('/api/search/suggest?q=')).status).toBe(400);
     expect((await client.get(`/api/search/suggest?q=${'b'.repeat(LIMITS.searchQueryMax + 1)}`)).body.error.code).toBe('validation_failed');
+  });
+});
+
+describe('GET /api/search snippets', () => {
+  it('are plain text: markup a writer typed into a summary, conditions or body never reaches a snippet', async () => {
+    await publishRevision(t.db.dataSource, 'guide', 'drag-car-park-asphalt', (c) => ({
+      ...c,
+      summary: 'Gentle <b>drag</b> launch for the <img src=x onerror=alert(1)> wrenshaw night <!-- hidden --> <script>alert(2)</script>',
+      conditions: 'Dusty <a href="javascript:alert(3)">wrenshaw</a> evening',
+      body: `${c.body as string}\n\nWrenshaw notes <img\nsrc=x onerror=alert(4)\n> and the end <svg onload=alert(5)\n`,
+    }));
+    await within(2000, async () => (await client.get('/api/search?q=wrenshaw')).body.meta.total > 0, 'edited guide indexed');
+    for (const q of ['wrenshaw', 'wrenshaw notes', 'gentle launch']) {
+      const res = await client.get(`/api/search?q=${encodeURIComponent(q)}`);
+      const hit = res.body.data.hits.find((h: { slug: string }) => h.slug === 'drag-car-park-asphalt');
+      expect(hit, q).toBeTruthy();
+      const text = hit.snippet.replace(/<\/?mark>/g, '');
+      // Nothing left that a browser would read as the start of a tag, a comment or an attribute.
+      expect(text, q).not.toMatch(/<[a-z/!?]/i);
+      expect(text, q).not.toMatch(/onerror|onload|javascript:|<|>/i);
+      expect(
+        snippetSegments(hit.snippet).every((s) => !/[<>]/.test(s.text)),
+        q,
+      ).toBe(true);
+    }
+    const summary = (await client.get('/api/search?q=gentle%20launch')).body.data.hits.find((h: { slug: string }) => h.slug === 'drag-car-park-asphalt');
+    expect(summary.snippet.replace(/<\/?mark>/g, '')).toContain('drag launch for the wrenshaw night');
   });
 });

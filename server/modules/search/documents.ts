@@ -3,7 +3,7 @@ import type { DocumentKind } from '../../../shared/constants';
 import { CLASSES, SURFACES } from '../../../shared/constants';
 import type { GuideContent } from '../../../shared/schemas/guide';
 import type { ParameterContent } from '../../../shared/schemas/parameter';
-import { markdownToText } from './markdown-text';
+import { markdownToText, stripMarkup } from './markdown-text';
 import type { SearchDocument } from './types';
 
 const CLASS_SLUGS = new Set<string>(CLASSES.map((c) => c.slug));
@@ -24,7 +24,7 @@ export function parameterDocument(slug: string, c: ParameterContent): SearchDocu
     title: c.name,
     url: searchUrls.parameter(slug),
     aliases: c.aliases ?? [],
-    summary: c.summary,
+    summary: stripMarkup(c.summary),
     body: markdownToText(c.body ?? ''),
     tags: [c.category, c.unit].filter(Boolean),
     class: null,
@@ -41,7 +41,7 @@ export function guideDocument(slug: string, c: GuideContent): SearchDocument {
     title: c.title,
     url: searchUrls.guide(slug),
     aliases: [],
-    summary: [c.summary, c.conditions].filter(Boolean).join(' '),
+    summary: stripMarkup([c.summary, c.conditions].filter(Boolean).join(' ')),
     body: markdownToText(c.body ?? ''),
     tags: c.tags ?? [],
     class: c.class,

@@ -1,3 +1,4 @@
+import { stripMarkup } from './markdown-text';
 import { processTerm, tokenizeWithSpans } from './tokenizer';
 import type { SearchDocument } from './types';
 
@@ -45,14 +46,15 @@ function findWords(lower: string, terms: Array<{ needles: string[]; unit: string
   return out.sort((x, y) => x - y);
 }
 
-/** A text a snippet can be cut from: the summary or the body, with any literal mark tags removed. */
+/** A text a snippet can be cut from: the summary or the body as plain text (no tags, so no literal mark tags either). */
 export type SnippetSource = { text: string; cells: number[] };
 const NO_CELLS: number[] = [];
 
 /** The texts a snippet is cut from, prepared once when the item is indexed. */
 export function snippetSources(doc: SearchDocument): SnippetSource[] {
   return [doc.summary, doc.body].filter(Boolean).map((raw) => {
-    const text = raw.replace(/<\/?mark>/gi, '');
+    // Items are built from plain text already (documents.ts); this also holds for items built elsewhere.
+    const text = stripMarkup(raw);
     // Where table cells (joined with " · ") are, so a snippet can prefer prose to table rows.
     const cells: number[] = [];
     for (let at = text.indexOf(' · '); at !== -1; at = text.indexOf(' · ', at + 3)) cells.push(at);
@@ -62,7 +64,8 @@ export function snippetSources(doc: SearchDocument): SnippetSource[] {
 
 /**
  * A short passage with the matched words wrapped in <mark>…</mark>. The passage is plain text
- * with any literal mark tags removed, so the client can split on them and render text nodes only.
+ * (markup was stripped when the item was indexed), so the client can split on the marks and
+ * render text nodes only, and a client that uses innerHTML is safe too.
  * `sources`: the item's summary and body as kept for snippets (see snippetSources).
  */
 export function cutSnippet(sources: SnippetSource[], matched: Set<string>, width = 220): string {
