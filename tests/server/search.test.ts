@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seed } from '../../server/db/seed';
 import { LIMITS } from '../../shared/constants';
-import { searchResponseSchema, searchSuggestionSchema, snippetSegments } from '../../shared/schemas/search';
+import { SEARCH_MAX_OFFSET, searchMetaSchema, searchResponseSchema, searchSuggestionSchema, snippetSegments } from '../../shared/schemas/search';
 import { publishRevision } from '../factories/revision';
 import { within } from '../search/wait';
 import { createClient, createTestApp, type TestApp, type TestClient } from '../setup/test-app';
@@ -96,6 +96,70 @@ describe('GET /api/search', () => {
       const res = await client.get(path);
       expect(res.status, path).toBe(400);
       expect(res.body.error.code).toBe('validation_failed');
+    }
+  });
+});
+
+describe('GET /api/search paging', () => {
+  it('pages through every match with offset: meta.total is the true count, no item twice, none skipped', async () => {
+    for (const [q, filter] of [
+      ['brake', ''],
+      ['harbour flats', '&type=guide'],
+      ['drag brake', '&surface=clay'],
+    ]) {
+      const whole = (await client.get(`/api/search?q=${encodeURIComponent(q)}${filter}&limit=50`)).body;
+      const total = whole.meta.total;
+      expect(total, q).toBeGreaterThan(3);
+      const seen: string[] = [];
+      for (let offset = 0; offset < total + 3; offset += 3) {
+        const res = await client.get(`/api/search?q=${encodeURIComponent(q)}${filter}&limit=3&offset=${offset}`);
+        expect(res.status).toBe(200);
+        expect(searchMetaSchema.strict().parse(res.body.meta)).toMatchObject({ total, offset, limit: 3 });
+        expect(res.body.data.hits.length, `${q} @${offset}`).toBe(Math.max(0, Math.min(3, total - offset)));
+        // Facets count every match, whichever page is asked for.
+        expect(res.body.data.facets, `${q} @${offset}`).toEqual(whole.data.facets);
+        seen.push(...res.body.data.hits.map((h: { type: string; slug: string }) => `${h.type}:${h.slug}`));
+      }
+      expect(seen.length, q).toBe(total);
+      expect(new Set(seen).size, q).toBe(total);
+      if (total <= 50) expect(seen, q).toEqual(whole.data.hits.map((h: { type: string; slug: string }) => `${h.type}:${h.slug}`));
+    }
+  });
+
+  it('answers an offset past the last match with no hits and the same total', async () => {
+    const res = await client.get('/api/search?q=brake&offset=9000');
+    expect(res.status).toBe(200);
+    expect(res.body.data.hits).toEqual([]);
+    expect(res.body.meta.total).toBeGreaterThan(5);
+  });
+
+  it('rejects a negative, fractional, non-numeric or too deep offset', async () => {
+    for (const offset of ['-1', '1.5', 'ten', String(SEARCH_MAX_OFFSET + 1)]) {
+      const res = await client.get(`/api/search?q=brake&offset=${offset}`);
+      expect(res.status, offset).toBe(400);
+      expect(res.body.error.code).toBe('validation_failed');
+      expect(res.body.error.details[0].path).toBe('query.offset');
+    }
+  });
+});
+
+describe('GET /api/search corrections', () => {
+  it('says what it searched for when the query was read differently from how it was typed', async () => {
+    for (const [q, searchedFor] of [
+      ['dragbreak', 'drag brake'],
+      ['Drag break on clay', 'drag brake on clay'],
+      ['low voltage cuttoff', 'low voltage cutoff'],
+    ]) {
+      const res = await client.get(`/api/search?q=${encodeURIComponent(q)}`);
+      expect(res.body.data.searchedFor, q).toBe(searchedFor);
+      expect(res.body.data.hits.length, q).toBeGreaterThan(0);
+    }
+  });
+
+  it('says nothing extra when the words were found as typed, by another name, or not at all', async () => {
+    for (const q of ['drag brake', 'drag brakes', 'boost', 'LVC', 'drgabrkae']) {
+      const res = await client.get(`/api/search?q=${encodeURIComponent(q)}`);
+      expect(res.body.data, q).not.toHaveProperty('searchedFor');
     }
   });
 });

@@ -18,12 +18,14 @@ const MAX_PREFIX_TERMS = 40;
 const MAX_QUERY_TERMS = 30;
 /** …and bit 30 marks an item where a typed word (or its typo/prefix variant) matched, not only another name of it. */
 export const TYPED_BIT = 1 << 30;
+/** Up to this many places the page is kept in a sorted buffer; past it, sorting all candidates is cheaper. */
+const SMALL_PAGE = 200;
 
 /** One index term a query looks up: a typed word, its typo or prefix variant, or another name. */
 export type Derived = { term: string; data: FieldTermData; weight: number; bit: number; exact: boolean; typed: boolean };
 
-/** A query's terms to look up, and its groups' forms as term masks (`formGroup`: the group of each form). */
-export type DerivedQuery = { derived: Derived[]; forms: Int32Array; formGroup: Int32Array; groupCount: number };
+/** A query's terms to look up, and its groups' forms as term masks (`formGroup`: the group of each form; `bits`: each term's bit). */
+export type DerivedQuery = { derived: Derived[]; forms: Int32Array; formGroup: Int32Array; groupCount: number; bits: Map<string, number> };
 
 /** The terms to look up for a query: each typed term (with its typo and prefix variants) and each other name. */
 export function deriveTerms(mini: TermIndex<SearchDocument>, groups: QueryGroup[], opts: { lastPrefix?: boolean }): DerivedQuery {
@@ -90,7 +92,7 @@ export function deriveTerms(mini: TermIndex<SearchDocument>, groups: QueryGroup[
       }
     }
   });
-  return { derived, forms: Int32Array.from(forms), formGroup: Int32Array.from(formGroup), groupCount: groups.length };
+  return { derived, forms: Int32Array.from(forms), formGroup: Int32Array.from(formGroup), groupCount: groups.length, bits };
 }
 
 /**
@@ -190,8 +192,13 @@ export class ScoreBoard {
     };
   }
 
-  /** The best `limit` candidates by (tier, score), kept in a small sorted buffer: only the page is ordered. */
+  /**
+   * The best `limit` candidates by (tier, score), kept in a small sorted buffer: only the page is
+   * ordered. Equal candidates keep their collection order, so any page of a query is a slice of one
+   * ranking (no item on two pages, none skipped); deep pages sort every candidate instead.
+   */
   selectPage(candidates: number, limit: number) {
+    if (limit > SMALL_PAGE) return this.sortAll(candidates).slice(0, limit);
     const { score, candidateIds, candidateTiers } = this;
     const page: Array<{ doc: number; tier: number }> = [];
     // The page's worst entry, kept in locals so most candidates are turned away with two comparisons.
@@ -215,6 +222,13 @@ export class ScoreBoard {
       worstScore = score[last.doc];
     }
     return page;
+  }
+
+  /** Every candidate in ranking order (a stable sort: ties keep collection order, as in selectPage). */
+  private sortAll(candidates: number) {
+    const { score, candidateIds, candidateTiers } = this;
+    const all = Array.from({ length: candidates }, (_, i) => ({ doc: candidateIds[i], tier: candidateTiers[i] }));
+    return all.sort((a, b) => b.tier - a.tier || score[b.doc] - score[a.doc]);
   }
 
   /** Back to all zeros for the next query (`idLimit`: one past the highest short id given out). */

@@ -1,4 +1,5 @@
 import type { SearchHit, SearchSuggestion, SearchType } from '../../../shared/schemas/search';
+import { searchedFor } from './corrections';
 import { didYouMean } from './did-you-mean';
 import { FacetTable } from './facets';
 import { FIELDS, HEADLINE_FIELDS, PostingsCache, TermIndex, fieldText, type Field, type FieldTermData, type Scope } from './postings';
@@ -146,11 +147,15 @@ export class SearchIndex {
   }
 
   /** `highlight`: say which terms each hit holds (for snippets; only with every field searched). */
-  private run(q: string, opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; facets: boolean; highlight?: boolean }) {
+  private run(
+    q: string,
+    opts: { fields?: Field[]; lastPrefix?: boolean; filters?: SearchFilters; limit: number; offset?: number; facets: boolean; highlight?: boolean },
+  ) {
     const terms = toTerms(q);
     if (!terms.length) return null;
     const groups = this.synonyms.group(terms);
-    const { derived, forms, formGroup } = deriveTerms(this.mini, groups, opts);
+    const query = deriveTerms(this.mini, groups, opts);
+    const { derived, forms, formGroup } = query;
     const named = new Set<number>();
     for (const g of groups)
       for (const slug of g.slugs) {
@@ -169,18 +174,24 @@ export class SearchIndex {
     const filter = facets.filterFor(opts.filters ?? {});
     const counts = facets.newCounts();
     const { candidates, anyExact } = facets.collect(board, touchedCount, forms, formGroup, filter, opts.facets ? counts : null);
-    const results = board.selectPage(candidates, opts.limit).map(({ doc, tier }) => {
+    const offset = opts.offset ?? 0;
+    const page = board.selectPage(candidates, offset + opts.limit);
+    const results = (offset ? page.slice(offset) : page).map(({ doc, tier }) => {
       const slot = this.slots[doc]!;
       const matched = opts.highlight ? termsIn(derived, doc, mask[doc]) : new Set<string>();
       return { doc: slot.doc, snippet: slot.snippet, score: score[doc], exact: tier >= 64, matched };
     });
     board.clear(touchedCount, this.idLimit);
-    return { results, total: candidates, counts, anyExact };
+    return { results, total: candidates, counts, anyExact, groups, query };
   }
 
-  /** Ranked hits with facets, snippets and, when nothing matches exactly, a "did you mean". */
-  search(q: string, filters: SearchFilters = {}, limit = 10): IndexSearchResult {
-    const r = this.run(q, { filters, limit, facets: true, highlight: true });
+  /**
+   * Ranked hits (`limit` of them after the first `offset`) with facets and the total over all
+   * matches, snippets, what was searched for when the query was read differently from how it was
+   * typed, and, when nothing matches exactly, a "did you mean".
+   */
+  search(q: string, filters: SearchFilters = {}, limit = 10, offset = 0): IndexSearchResult {
+    const r = this.run(q, { filters, limit, offset, facets: true, highlight: true });
     const empty = { type: [], class: [], surface: [], parameter: [] };
     if (!r) return { hits: [], facets: empty, total: 0 };
     const hits: SearchHit[] = r.results.map((x) => ({
@@ -194,7 +205,9 @@ export class SearchIndex {
     }));
     const facets = this.facets.lists(r.counts, (v) => this.params.get(v)?.title ?? paramWords(v));
     const suggestion = r.anyExact ? undefined : this.didYouMean(q);
-    return { hits, facets, total: r.total, ...(suggestion ? { didYouMean: suggestion } : {}) };
+    const parameterName = (slug: string) => this.params.get(slug)?.title;
+    const corrected = r.total > 0 ? searchedFor(q, r.groups, r.query, { mini: this.mini, parameterName }) : undefined;
+    return { hits, facets, total: r.total, ...(suggestion ? { didYouMean: suggestion } : {}), ...(corrected ? { searchedFor: corrected } : {}) };
   }
 
   /** Titles to offer while typing: names, aliases, tags and class words, the last word as a prefix. */

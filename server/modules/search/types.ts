@@ -19,7 +19,7 @@ export type SearchDocument = {
 
 export type SearchFilters = { type?: SearchType; class?: string; surface?: string; parameter?: string };
 
-export type IndexSearchResult = { hits: SearchHit[]; facets: SearchFacets; total: number; didYouMean?: string };
+export type IndexSearchResult = { hits: SearchHit[]; facets: SearchFacets; total: number; didYouMean?: string; searchedFor?: string };
 
 export const docId = (type: SearchType, slug: string) => `${type}:${slug}`;
 export const paramWords = (slug: string) => slug.replace(/-/g, ' ');
