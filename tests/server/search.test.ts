@@ -100,6 +100,21 @@ describe('GET /api/search', () => {
   });
 });
 
+describe('GET /api/search setup snippets', () => {
+  it('write a baseline setup record in words, not as a run of raw values', async () => {
+    const res = await client.get('/api/search?q=17.5T%20stock%20buggy%20drag%20brake&type=setup');
+    const hit = res.body.data.hits.find((h: { slug: string }) => h.slug === 'stock-2wd-buggy-harbour-flats-clay');
+    expect(hit).toBeTruthy();
+    const text = hit.snippet.replace(/<\/?mark>/g, '');
+    expect(text).toMatch(/^17\.5T sensored, 2S LiPo, 84\/3\d × 2\.6, /);
+    expect(text).toMatch(/drag brake \d+ %/);
+    expect(text).toMatch(/low voltage cutoff 3\.\d V per cell/);
+    // No bare values strung together (the record's numbers, classes and flags one after another).
+    expect(text).not.toMatch(/· \d|\btrue\b|buggy-2wd-stock|\blipo\b/);
+    expect(hit.snippet).toMatch(/<mark>drag<\/mark> <mark>brake<\/mark>/);
+  });
+});
+
 describe('GET /api/search paging', () => {
   it('pages through every match with offset: meta.total is the true count, no item twice, none skipped', async () => {
     for (const [q, filter] of [

@@ -4,6 +4,7 @@ import { CLASSES, SURFACES } from '../../../shared/constants';
 import type { GuideContent } from '../../../shared/schemas/guide';
 import type { ParameterContent } from '../../../shared/schemas/parameter';
 import { markdownToText, stripMarkup } from './markdown-text';
+import { setupSettings, setupText } from './setup-text';
 import type { SearchDocument } from './types';
 
 const CLASS_SLUGS = new Set<string>(CLASSES.map((c) => c.slug));
@@ -50,40 +51,30 @@ export function guideDocument(slug: string, c: GuideContent): SearchDocument {
   };
 }
 
-function strings(value: unknown, out: string[], depth = 0) {
-  if (depth > 6 || value == null) return;
-  if (typeof value === 'string') out.push(value);
-  else if (typeof value === 'number' || typeof value === 'boolean') out.push(String(value));
-  else if (Array.isArray(value)) for (const v of value) strings(v, out, depth + 1);
-  else if (typeof value === 'object') for (const [k, v] of Object.entries(value)) if (k !== 'schemaVersion' && k !== 'format') strings(v, out, depth + 1);
-}
-
 /**
  * The search item of a live guide's baseline setup record. The record's exact shape belongs to the
- * setup module; here every text and number in it is indexed, and its class, surface and the
+ * setup module; here it is written in words (setup-text.ts), and its class, surface and the
  * parameter slugs it sets are read where present.
  */
 export function setupDocument(slug: string, guide: GuideContent, setup: Record<string, unknown>): SearchDocument {
-  const pieces: string[] = [];
-  strings(setup, pieces);
   const vehicle = (setup.vehicle ?? {}) as Record<string, unknown>;
   const cls = [setup.class, vehicle.class].find((v): v is string => typeof v === 'string' && CLASS_SLUGS.has(v)) ?? guide.class;
   const surface =
     [setup.surface, (setup.conditions as Record<string, unknown> | undefined)?.surface].find(
       (v): v is string => typeof v === 'string' && SURFACE_SLUGS.has(v),
     ) ?? guide.surface;
-  const settings = [setup.esc, setup.settings, setup.escSettings].find((v) => v && typeof v === 'object' && !Array.isArray(v)) as
-    Record<string, unknown> | undefined;
+  const settings = setupSettings(setup);
   const params = settings ? Object.keys(settings).filter((k) => /^[a-z0-9]+(-[a-z0-9]+)*$/.test(k)) : [];
-  const keyWords = params.map((p) => p.replace(/-/g, ' '));
+  const { headline, rest } = setupText(setup);
   return {
     type: 'setup',
     slug,
     title: `Baseline setup: ${guide.title}`,
     url: searchUrls.setup(slug),
     aliases: [],
-    summary: typeof setup.notes === 'string' ? setup.notes : guide.summary,
-    body: [...keyWords, ...pieces].join(' · '),
+    // The headline in words is what a snippet shows first ("17.5T sensored, 2S LiPo, 84/32 × 2.6, drag brake 8 %").
+    summary: headline || stripMarkup(guide.summary),
+    body: rest,
     tags: ['setup', 'baseline', ...(guide.tags ?? [])],
     class: cls,
     surface,
