@@ -81,8 +81,11 @@ export class TermIndex<T> extends MiniSearch<T> {
   }
 }
 
-/** One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a headline field holds it. */
-export type FlatPostings = { total: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
+/**
+ * One term's postings flattened for scoring: item ids, their field-weighted BM25 impact, and whether a
+ * headline field holds it; the first `length` entries are used (the arrays have room to append to).
+ */
+export type FlatPostings = { total: number; length: number; docs: Int32Array; impact: Float32Array; headline: Uint8Array };
 /** The fields a query looks in: all of them, or the headline ones (suggestions). */
 export type Scope = 'all' | 'headline';
 const SCOPES: Scope[] = ['all', 'headline'];
@@ -187,7 +190,7 @@ export class PostingsCache {
       i++;
     }
     if (this.flat.size >= MAX_CACHED_TERMS) this.flat.clear();
-    const flat: CachedPostings = { total: N, docs, impact, headline, fields, weights, avgs, pending: [] };
+    const flat: CachedPostings = { total: N, length: acc.size, docs, impact, headline, fields, weights, avgs, pending: [] };
     this.flat.set(key, flat);
     return flat;
   }
@@ -220,28 +223,30 @@ export class PostingsCache {
       if (holds) added.push({ doc, v, headline });
     }
     c.pending = [];
+    // Removed items out in place, then the new ones appended; new arrays (with room to spare) only when full.
     const { docs, impact, headline } = c;
-    let live = 0;
-    for (let i = 0; i < docs.length; i++) live += alive[docs[i]];
-    if (live === docs.length && !added.length) return;
-    const n = live + added.length;
-    const nextDocs = new Int32Array(n);
-    const nextImpact = new Float32Array(n);
-    const nextHeadline = new Uint8Array(n);
     let k = 0;
-    for (let i = 0; i < docs.length; i++) {
+    for (let i = 0; i < c.length; i++) {
       if (alive[docs[i]] === 0) continue;
-      nextDocs[k] = docs[i];
-      nextImpact[k] = impact[i];
-      nextHeadline[k++] = headline[i];
+      docs[k] = docs[i];
+      impact[k] = impact[i];
+      headline[k++] = headline[i];
+    }
+    c.length = k;
+    if (k + added.length > docs.length) {
+      const room = Math.ceil((k + added.length) * 1.25) + 16;
+      const grow = <A extends Int32Array | Float32Array | Uint8Array>(a: A, b: A) => {
+        b.set(a.subarray(0, k));
+        return b;
+      };
+      c.docs = grow(docs, new Int32Array(room));
+      c.impact = grow(impact, new Float32Array(room));
+      c.headline = grow(headline, new Uint8Array(room));
     }
     for (const a of added) {
-      nextDocs[k] = a.doc;
-      nextImpact[k] = a.v;
-      nextHeadline[k++] = a.headline;
+      c.docs[c.length] = a.doc;
+      c.impact[c.length] = a.v;
+      c.headline[c.length++] = a.headline;
     }
-    c.docs = nextDocs;
-    c.impact = nextImpact;
-    c.headline = nextHeadline;
   }
 }

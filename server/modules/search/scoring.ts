@@ -151,9 +151,9 @@ export class ScoreBoard {
       const bit = d.exact ? 1 << d.bit : 0;
       const typedBit = d.typed ? TYPED_BIT : 0;
       const w = d.weight;
-      const { docs, impact, headline } = p;
+      const { docs, impact, headline, length } = p;
       // Items removed since these postings were flattened are scored too and dropped once, in collect().
-      for (let i = 0; i < docs.length; i++) {
+      for (let i = 0; i < length; i++) {
         const doc = docs[i];
         // Every impact and weight is positive, so a zero score means "not touched yet".
         if (score[doc] === 0) touchedIds[n++] = doc;
