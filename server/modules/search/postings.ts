@@ -103,7 +103,7 @@ const idfOf = (N: number, n: number) => Math.max(0.01, Math.log(1 + (N - n + 0.5
 /**
  * Flattened postings per term and field scope, cached. Adding an item queues its short id on the
  * cached lists of its terms; the next read of such a list appends the item's impacts and drops
- * the entries of removed items (a copy of typed arrays, not a rebuild from MiniSearch's maps: a
+ * the entries of removed items (in place in typed arrays, not a rebuild from MiniSearch's maps: a
  * search right after an update costs what any other does). Removed items are skipped while scoring
  * until then; idf and lengths are refreshed by a full rebuild once the item count has drifted by 1 %.
  */
