@@ -1,3 +1,4 @@
+import { distance as levenshtein } from 'fastest-levenshtein';
 import { z } from 'zod';
 import type { CalcField, CalcIssue } from './types';
 
@@ -146,21 +147,6 @@ export function defaultedChoiceInput<const T extends readonly [string, ...string
     .meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, true) });
 }
 
-/** Levenshtein distance, small inputs only: used to suggest the field someone probably meant. */
-function editDistance(a: string, b: string): number {
-  const row = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let diagonal = row[0];
-    row[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const above = row[j];
-      row[j] = Math.min(row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diagonal = above;
-    }
-  }
-  return row[b.length];
-}
-
 /** The message for one unknown input key, suggesting the nearest known key when one is close. */
 export function unknownKeyMessage(key: string, knownKeys: readonly string[]): string {
   const lower = key.toLowerCase();
@@ -173,7 +159,7 @@ export function unknownKeyMessage(key: string, knownKeys: readonly string[]): st
     const distance =
       knownLower.startsWith(lower) || lower.startsWith(knownLower)
         ? 1
-        : Math.min(editDistance(lower, knownLower), editDistance(lower, stem));
+        : Math.min(levenshtein(lower, knownLower), levenshtein(lower, stem));
     if (distance < bestDistance) {
       best = known;
       bestDistance = distance;

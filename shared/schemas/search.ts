@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { CLASS_SLUGS, LIMITS, SURFACE_SLUGS } from '../constants';
 
 export const SEARCH_TYPES = ['parameter', 'guide', 'setup'] as const;
+/** The deepest a results page may start (far past what a reader pages through). */
+export const SEARCH_MAX_OFFSET = 10_000;
 export type SearchType = (typeof SEARCH_TYPES)[number];
 
 /** Query of GET /api/search. */
@@ -20,6 +22,8 @@ export const searchQuerySchema = z.object({
     .max(80)
     .optional(),
   limit: z.coerce.number().int().min(1).max(50).default(10),
+  /** How many of the ranked matches to skip: with `meta.total`, a client pages through every match. */
+  offset: z.coerce.number().int().min(0, 'Offset is 0 or more').max(SEARCH_MAX_OFFSET, `Offset is at most ${SEARCH_MAX_OFFSET}`).default(0),
 });
 export type SearchQuery = z.infer<typeof searchQuerySchema>;
 
@@ -55,8 +59,23 @@ export const searchResponseSchema = z.object({
   facets: searchFacetsSchema,
   /** A nearby name or spelling, offered when nothing matched as typed. */
   didYouMean: z.string().optional(),
+  /**
+   * What the results were found for, when that is not what was typed: a name written run together or
+   * misspelt ("dragbreak" → "drag brake"), or an unknown word read as a known one. The query as typed
+   * with the corrected words in place.
+   */
+  searchedFor: z.string().optional(),
 });
-export type SearchResponse = z.infer<typeof searchResponseSchema> & { tookMs?: number };
+export type SearchResponse = z.infer<typeof searchResponseSchema>;
+
+/** `meta` of GET /api/search: `total` counts every match (with the filters), not only this page. */
+export const searchMetaSchema = z.object({
+  total: z.number().int(),
+  offset: z.number().int(),
+  limit: z.number().int(),
+  tookMs: z.number(),
+});
+export type SearchMeta = z.infer<typeof searchMetaSchema>;
 
 export const searchSuggestionSchema = z.object({ type: z.enum(SEARCH_TYPES), slug: z.string(), title: z.string(), url: z.string() });
 export type SearchSuggestion = z.infer<typeof searchSuggestionSchema>;

@@ -1,3 +1,4 @@
+import { distance as levenshtein } from 'fastest-levenshtein';
 import { z } from 'zod';
 import { CLASS_SLUGS, SURFACE_SLUGS } from '../constants';
 import { packChemistries } from '../calc/chemistry';
@@ -176,18 +177,9 @@ function closest(slug: string, known: readonly string[]): string | undefined {
   for (const k of known) {
     if (k.includes(slug) || slug.includes(k)) return k;
     // Small Levenshtein distance: enough to catch a typo such as "drag-brak".
-    const row = Array.from({ length: k.length + 1 }, (_, j) => j);
-    for (let i = 1; i <= slug.length; i++) {
-      let diag = row[0];
-      row[0] = i;
-      for (let j = 1; j <= k.length; j++) {
-        const above = row[j];
-        row[j] = Math.min(row[j] + 1, row[j - 1] + 1, diag + (slug[i - 1] === k[j - 1] ? 0 : 1));
-        diag = above;
-      }
-    }
-    if (row[k.length] < bestScore) {
-      bestScore = row[k.length];
+    const d = levenshtein(slug, k);
+    if (d < bestScore) {
+      bestScore = d;
       best = k;
     }
   }

@@ -5,18 +5,17 @@
 // corpus in this process, query by query in turn with ours, and prints both with their ratio: on a
 // shared machine the load average moves absolute figures far more than it moves a ratio.
 import 'reflect-metadata';
-import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { pathToFileURL } from 'node:url';
-import { isDeepStrictEqual } from 'node:util';
 import v8 from 'node:v8';
 import vm from 'node:vm';
 import pg from 'pg';
 import { SearchIndex, type SearchDocument } from '../../server/modules/search/search-index';
 import { libraryDocuments } from '../search/library-index';
 import { QUALITY_QUERIES } from '../search/queries';
+import { fmt, line, mb, pct, shuffled } from './bench-util';
+import { compareWithBaseline } from './search-baseline';
 import { rng, syntheticGuides } from './search-corpus';
 
 v8.setFlagsFromString('--expose-gc');
@@ -48,23 +47,6 @@ const MIX = [
   'lipo cutoff 3.2V',
 ];
 
-const pct = (xs: number[], p: number) => {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.min(s.length - 1, Math.floor((p / 100) * s.length))];
-};
-const mb = (bytes: number) => bytes / 1024 / 1024;
-const fmt = (n: number, d = 2) => n.toFixed(d);
-
-function shuffled<T>(xs: T[], seed: number) {
-  const r = rng(seed);
-  const a = [...xs];
-  for (let i = a.length - 1; i > 0; i--) {
-    const j = Math.floor(r() * (i + 1));
-    [a[i], a[j]] = [a[j], a[i]];
-  }
-  return a;
-}
-
 function hitRate(search: (q: string) => string[]) {
   let top3 = 0;
   let rr = 0;
@@ -81,44 +63,6 @@ async function hitRateAsync(search: (q: string) => Promise<string[]>) {
   const ranked = new Map<string, string[]>();
   for (const { q } of QUALITY_QUERIES) ranked.set(q, await search(q));
   return hitRate((q) => ranked.get(q)!);
-}
-
-type Index = Pick<SearchIndex, 'load' | 'search'>;
-
-/** The search index class of another revision (its search module and shared/), unpacked under .test-artifacts/. */
-async function baselineIndex(rev: string): Promise<new () => Index> {
-  const commit = execFileSync('git', ['rev-parse', '--verify', `${rev}^{commit}`], { encoding: 'utf8' }).trim();
-  const dir = path.resolve('.test-artifacts', 'bench-baseline', commit);
-  if (!fs.existsSync(dir)) {
-    fs.mkdirSync(dir, { recursive: true });
-    const tar = execFileSync('git', ['archive', '--format=tar', commit, 'server/modules/search', 'shared'], { maxBuffer: 256 * 1024 * 1024 });
-    execFileSync('tar', ['-x', '-C', dir], { input: tar });
-  }
-  const mod = (await import(pathToFileURL(path.join(dir, 'server/modules/search/search-index.ts')).href)) as { SearchIndex: new () => Index };
-  return mod.SearchIndex;
-}
-
-/** Both indexes over the same query mix, in turn (which goes first alternates by round), plus each query's fastest run. */
-function compare(ours: Index, theirs: Index) {
-  const lat = { ours: [] as number[], theirs: [] as number[] };
-  const fastest = { ours: new Map<string, number>(), theirs: new Map<string, number>() };
-  for (const q of MIX) {
-    ours.search(q, {}, 10);
-    theirs.search(q, {}, 10);
-  }
-  for (let round = 0; round < ROUNDS; round++) {
-    for (const q of shuffled(MIX, round + 2000)) {
-      const order = round % 2 ? (['ours', 'theirs'] as const) : (['theirs', 'ours'] as const);
-      for (const who of order) {
-        const s = performance.now();
-        (who === 'ours' ? ours : theirs).search(q, {}, 10);
-        const ms = performance.now() - s;
-        lat[who].push(ms);
-        fastest[who].set(q, Math.min(fastest[who].get(q) ?? Infinity, ms));
-      }
-    }
-  }
-  return { lat, fastest: { ours: [...fastest.ours.values()], theirs: [...fastest.theirs.values()] } };
 }
 
 async function startPostgres(): Promise<{ url: string; stop: () => void }> {
@@ -198,14 +142,23 @@ async function main() {
     index.put(edited);
     upd.push(performance.now() - s);
   }
-  // The first search after an update rebuilds the flattened postings of the changed item's terms.
-  const afterUpd: number[] = [];
-  for (let i = 0; i < 50; i++) {
+  // The first search after an update brings the changed item's terms' flattened postings up to date.
+  // The same query without an update before it is timed in the same loop, so the two compare under the same load.
+  const afterUpd = { wall: [] as number[], cpu: [] as number[] };
+  const noUpd = { wall: [] as number[], cpu: [] as number[] };
+  const timed = (into: { wall: number[]; cpu: number[] }, run: () => void) => {
+    const c = process.cpuUsage();
+    const s = performance.now();
+    run();
+    into.wall.push(performance.now() - s);
+    const used = process.cpuUsage(c);
+    into.cpu.push((used.user + used.system) / 1000);
+  };
+  for (let i = 0; i < 100; i++) {
+    timed(noUpd, () => index.search('drag brake', {}, 10));
     const d = synthetic[Math.floor(r() * synthetic.length)];
     index.put({ ...d, body: `${d.body} Lower the drag brake for the dusty afternoon.` });
-    const s = performance.now();
-    index.search('drag brake', {}, 10);
-    afterUpd.push(performance.now() - s);
+    timed(afterUpd, () => index.search('drag brake', {}, 10));
   }
   const paramUpd: number[] = [];
   for (let i = 0; i < 50; i++) {
@@ -319,7 +272,6 @@ async function main() {
   }
 
   const ok = (v: number, target: number) => (v <= target ? 'ok' : 'MISSED');
-  const line = (cells: string[], widths: number[]) => cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ');
   const W = [34, 14, 14, 14, 10];
   console.log('\nIn-memory search (MiniSearch + our ranking), whole API work per query');
   console.log(line(['', 'value', 'target', '', ''], W));
@@ -348,7 +300,10 @@ async function main() {
       W,
     ),
   );
-  console.log(line(['search right after an update p50/p95', `${fmt(pct(afterUpd, 50))} ms`, `${fmt(pct(afterUpd, 95))} ms`, '', ''], W));
+  console.log(line(['search right after an update p50/p95', `${fmt(pct(afterUpd.wall, 50))} ms`, `${fmt(pct(afterUpd.wall, 95))} ms`, '', ''], W));
+  console.log(line(['  same, CPU time', `${fmt(pct(afterUpd.cpu, 50))} ms`, `${fmt(pct(afterUpd.cpu, 95))} ms`, '', ''], W));
+  console.log(line(['  same query, no update before it', `${fmt(pct(noUpd.wall, 50))} ms`, `${fmt(pct(noUpd.wall, 95))} ms`, '', ''], W));
+  console.log(line(['  same, CPU time', `${fmt(pct(noUpd.cpu, 50))} ms`, `${fmt(pct(noUpd.cpu, 95))} ms`, '', ''], W));
   console.log(line(['update parameter p50 / p95', `${fmt(pct(paramUpd, 50), 3)} ms`, `${fmt(pct(paramUpd, 95), 3)} ms`, '', ''], W));
   console.log(line(['remove item p50 / p95', `${fmt(pct(rem, 50), 3)} ms`, `${fmt(pct(rem, 95), 3)} ms`, '', ''], W));
   console.log(`(${lat.length} searches over ${MIX.length} distinct queries; ${upd.length} guide updates)`);
@@ -382,60 +337,7 @@ async function main() {
     `PostgreSQL: load ${fmt(p.loadMs / 1000)} s, GIN build ${fmt(p.indexMs / 1000)} s, table + index ${fmt(p.sizeMb, 0)} MB, single-row update p50 ${fmt(pct(p.upd, 50))} ms`,
   );
 
-  if (BASELINE) {
-    // Both built afresh from the same corpus (the index above has been through the update runs).
-    const Baseline = await baselineIndex(BASELINE);
-    let tb = performance.now();
-    const base = new Baseline();
-    base.load(corpus);
-    const baseBuildMs = performance.now() - tb;
-    tb = performance.now();
-    const ours = new SearchIndex();
-    ours.load(corpus);
-    const oursBuildMs = performance.now() - tb;
-    // Same answers (hits, scores, snippets, facets, totals) for the whole mix, or the speed-up is not like for like.
-    const same = MIX.filter((q) => isDeepStrictEqual(ours.search(q, {}, 10), base.search(q, {}, 10))).length;
-    const loadBefore = os.loadavg()[0];
-    const c = compare(ours, base);
-    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
-    console.log(
-      `\nBaseline ${BASELINE} vs this tree, same corpus and process, queries in turn (load average ${fmt(loadBefore, 1)} → ${fmt(os.loadavg()[0], 1)})`,
-    );
-    const W3 = [34, 12, 12, 12, 22];
-    console.log(line(['', 'p50', 'p95', 'p99', 'fastest run: mean / p95'], W3));
-    for (const [name, who] of [
-      [`baseline ${BASELINE}`, 'theirs'],
-      ['this tree', 'ours'],
-    ] as const)
-      console.log(
-        line(
-          [
-            name,
-            `${fmt(pct(c.lat[who], 50))} ms`,
-            `${fmt(pct(c.lat[who], 95))} ms`,
-            `${fmt(pct(c.lat[who], 99))} ms`,
-            `${fmt(mean(c.fastest[who]))} / ${fmt(pct(c.fastest[who], 95))} ms`,
-          ],
-          W3,
-        ),
-      );
-    const ratio = (f: (xs: number[]) => number, a: number[], b: number[]) => fmt(f(a) / f(b));
-    console.log(
-      line(
-        [
-          'ratio this tree / baseline',
-          ratio((x) => pct(x, 50), c.lat.ours, c.lat.theirs),
-          ratio((x) => pct(x, 95), c.lat.ours, c.lat.theirs),
-          ratio((x) => pct(x, 99), c.lat.ours, c.lat.theirs),
-          `${ratio(mean, c.fastest.ours, c.fastest.theirs)} / ${ratio((x) => pct(x, 95), c.fastest.ours, c.fastest.theirs)}`,
-        ],
-        W3,
-      ),
-    );
-    console.log(
-      `index build: baseline ${fmt(baseBuildMs / 1000)} s, this tree ${fmt(oursBuildMs / 1000)} s; identical answers for ${same} of ${MIX.length} queries`,
-    );
-  }
+  if (BASELINE) await compareWithBaseline(BASELINE, corpus, MIX, ROUNDS);
   console.log(
     `load average at the end: ${os
       .loadavg()

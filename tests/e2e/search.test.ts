@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { screenshot, watchPageErrors } from '../setup/browser';
+import { screenshot, screenshotPath, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 
 const suite = browserSuite();
@@ -115,6 +115,55 @@ describe('search in Chromium', () => {
       .waitFor();
     await screenshot(page, 'search-page-375');
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375);
+    expect(errors).toEqual([]);
+  });
+
+  it('at 390 px: says what it searched for, and pages through every match with "show more"', async () => {
+    const page = await suite.browser.newPage({ viewport: { width: 390, height: 844 } });
+    const errors = watchPageErrors(page);
+    await page.goto(`${suite.server.baseUrl}/search?q=dragbreak`);
+    const note = page.getByTestId('searched-for');
+    await note.waitFor();
+    expect(await note.textContent()).toMatch(/Showing results for drag brake — you typed “dragbreak”/);
+    await page
+      .getByRole('region', { name: /results for/i })
+      .getByRole('link', { name: 'Drag brake' })
+      .first()
+      .waitFor();
+    await screenshot(page, 'search-searched-for-390');
+    await page.screenshot({ path: screenshotPath('search-searched-for-390-top') });
+
+    // A query with more matches than one page (20).
+    let q = '';
+    let total = 0;
+    for (const candidate of ['brake', 'motor', 'throttle', 'clay', 'timing']) {
+      const res = await page.request.get(`${suite.server.baseUrl}/api/search?q=${candidate}&limit=1`);
+      total = (await res.json()).meta.total;
+      if (total > 20) {
+        q = candidate;
+        break;
+      }
+    }
+    expect(q, 'a query with more than one page of matches').not.toBe('');
+    await page.goto(`${suite.server.baseUrl}/search?q=${q}`);
+    const results = page.getByRole('region', { name: /results for/i });
+    await results.getByRole('listitem').first().waitFor();
+    expect(await results.getByRole('listitem').count()).toBe(20);
+    expect(await results.textContent()).toContain(`Showing 20 of ${total}`);
+    for (let shown = 20; shown < total; shown += 20) {
+      await results.getByRole('button', { name: /^Show \d+ more$/ }).click();
+      await expect.poll(() => results.getByRole('listitem').count()).toBe(Math.min(total, shown + 20));
+    }
+    expect(await results.getByRole('button', { name: /more$/ }).count()).toBe(0);
+    const hrefs = await results
+      .getByRole('listitem')
+      .locator('a')
+      .evaluateAll((as) => as.map((a) => `${a.textContent}|${a.getAttribute('href')}`));
+    expect(new Set(hrefs).size).toBe(total);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await screenshot(page, 'search-show-more-390');
+    await results.getByText(`All ${total} shown`).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: screenshotPath('search-show-more-390-end') });
     expect(errors).toEqual([]);
   });
 });

@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import type { GuideRecord, GuideSummary } from '../../../shared/schemas/guide';
 import type { DocumentStatus, MyRevision, Person, ReadableRevision, ReviewItem, Revision, RevisionHistoryItem } from '../../../shared/schemas/revision';
 import { resolveParameterHref } from '../../../shared/markdown/links';
@@ -141,7 +142,7 @@ export function presentGuideRecord(v: RevisionView, opts: { withHiddenReason?: b
 const RENDERED_MAX = 2000;
 // Rendered bodies by revision id and last change: published and superseded revisions never change,
 // so each is rendered once per process; a draft re-renders only after it was edited.
-const rendered = new Map<string, string>();
+const rendered = new LRUCache<string, string>({ max: RENDERED_MAX });
 
 /** The revision's body as the sanitized HTML reading pages show (cached per revision version). */
 export function renderedBody(v: RevisionView): string {
@@ -150,7 +151,6 @@ export function renderedBody(v: RevisionView): string {
   if (html === undefined) {
     const body = String((v.rev.content as { body?: unknown }).body ?? '');
     html = renderMarkdownHtml(body, v.doc.kind === 'parameter' ? { resolveHref: resolveParameterHref } : {});
-    if (rendered.size >= RENDERED_MAX) rendered.delete(rendered.keys().next().value as string);
     rendered.set(key, html);
   }
   return html;

@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import type { DocumentKind } from '../../../shared/constants';
 import type { AppContext } from '../../context';
 
@@ -29,7 +30,8 @@ export type PublishedCache = {
 /** `enabled` false means every read goes to the loader (e.g. while the listener is reconnecting and changes could be missed). */
 export function createPublishedCache(opts: { enabled?: () => boolean } = {}): PublishedCache {
   const enabled = opts.enabled ?? (() => true);
-  const entries = new Map<string, unknown>();
+  // Boxed, since lru-cache holds no undefined values; the least recently read entry goes first when full.
+  const entries = new LRUCache<string, { value: unknown }>({ max: MAX_ENTRIES });
   // Bumped on every invalidation, so a read that began before a change never stores the old value.
   const generations = new Map<string, number>();
   let epoch = 0;
@@ -40,26 +42,26 @@ export function createPublishedCache(opts: { enabled?: () => boolean } = {}): Pu
       const doc = docKey(kind, slug);
       const key = `${view}|${doc}`;
       if (!enabled()) return load();
-      if (entries.has(key)) return entries.get(key) as T;
+      const hit = entries.get(key);
+      if (hit) return hit.value as T;
       const gen = generations.get(doc) ?? 0;
       const startEpoch = epoch;
       const value = await load();
       if (value !== null && enabled() && (generations.get(doc) ?? 0) === gen && epoch === startEpoch) {
-        if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value as string);
-        entries.set(key, value);
+        entries.set(key, { value });
       }
       return value;
     },
     async readAcross<T>(view: string, load: () => Promise<T | null>) {
       const key = `${view}|${ACROSS}`;
       if (!enabled()) return load();
-      if (entries.has(key)) return entries.get(key) as T;
+      const hit = entries.get(key);
+      if (hit) return hit.value as T;
       const gen = generations.get(ACROSS) ?? 0;
       const startEpoch = epoch;
       const value = await load();
       if (value !== null && enabled() && (generations.get(ACROSS) ?? 0) === gen && epoch === startEpoch) {
-        if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value as string);
-        entries.set(key, value);
+        entries.set(key, { value });
       }
       return value;
     },

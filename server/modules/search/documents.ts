@@ -3,8 +3,9 @@ import type { DocumentKind } from '../../../shared/constants';
 import { CLASSES, SURFACES } from '../../../shared/constants';
 import type { GuideContent } from '../../../shared/schemas/guide';
 import type { ParameterContent } from '../../../shared/schemas/parameter';
-import { markdownToText } from './markdown-text';
-import type { SearchDocument } from './search-index';
+import { markdownToText, stripMarkup } from './markdown-text';
+import { setupSettings, setupText } from './setup-text';
+import type { SearchDocument } from './types';
 
 const CLASS_SLUGS = new Set<string>(CLASSES.map((c) => c.slug));
 const SURFACE_SLUGS = new Set<string>(SURFACES.map((s) => s.slug));
@@ -24,7 +25,7 @@ export function parameterDocument(slug: string, c: ParameterContent): SearchDocu
     title: c.name,
     url: searchUrls.parameter(slug),
     aliases: c.aliases ?? [],
-    summary: c.summary,
+    summary: stripMarkup(c.summary),
     body: markdownToText(c.body ?? ''),
     tags: [c.category, c.unit].filter(Boolean),
     class: null,
@@ -41,7 +42,7 @@ export function guideDocument(slug: string, c: GuideContent): SearchDocument {
     title: c.title,
     url: searchUrls.guide(slug),
     aliases: [],
-    summary: [c.summary, c.conditions].filter(Boolean).join(' '),
+    summary: stripMarkup([c.summary, c.conditions].filter(Boolean).join(' ')),
     body: markdownToText(c.body ?? ''),
     tags: c.tags ?? [],
     class: c.class,
@@ -50,40 +51,30 @@ export function guideDocument(slug: string, c: GuideContent): SearchDocument {
   };
 }
 
-function strings(value: unknown, out: string[], depth = 0) {
-  if (depth > 6 || value == null) return;
-  if (typeof value === 'string') out.push(value);
-  else if (typeof value === 'number' || typeof value === 'boolean') out.push(String(value));
-  else if (Array.isArray(value)) for (const v of value) strings(v, out, depth + 1);
-  else if (typeof value === 'object') for (const [k, v] of Object.entries(value)) if (k !== 'schemaVersion' && k !== 'format') strings(v, out, depth + 1);
-}
-
 /**
  * The search item of a live guide's baseline setup record. The record's exact shape belongs to the
- * setup module; here every text and number in it is indexed, and its class, surface and the
+ * setup module; here it is written in words (setup-text.ts), and its class, surface and the
  * parameter slugs it sets are read where present.
  */
 export function setupDocument(slug: string, guide: GuideContent, setup: Record<string, unknown>): SearchDocument {
-  const pieces: string[] = [];
-  strings(setup, pieces);
   const vehicle = (setup.vehicle ?? {}) as Record<string, unknown>;
   const cls = [setup.class, vehicle.class].find((v): v is string => typeof v === 'string' && CLASS_SLUGS.has(v)) ?? guide.class;
   const surface =
     [setup.surface, (setup.conditions as Record<string, unknown> | undefined)?.surface].find(
       (v): v is string => typeof v === 'string' && SURFACE_SLUGS.has(v),
     ) ?? guide.surface;
-  const settings = [setup.esc, setup.settings, setup.escSettings].find((v) => v && typeof v === 'object' && !Array.isArray(v)) as
-    Record<string, unknown> | undefined;
+  const settings = setupSettings(setup);
   const params = settings ? Object.keys(settings).filter((k) => /^[a-z0-9]+(-[a-z0-9]+)*$/.test(k)) : [];
-  const keyWords = params.map((p) => p.replace(/-/g, ' '));
+  const { headline, rest } = setupText(setup);
   return {
     type: 'setup',
     slug,
     title: `Baseline setup: ${guide.title}`,
     url: searchUrls.setup(slug),
     aliases: [],
-    summary: typeof setup.notes === 'string' ? setup.notes : guide.summary,
-    body: [...keyWords, ...pieces].join(' · '),
+    // The headline in words is what a snippet shows first ("17.5T sensored, 2S LiPo, 84/32 × 2.6, drag brake 8 %").
+    summary: headline || stripMarkup(guide.summary),
+    body: rest,
     tags: ['setup', 'baseline', ...(guide.tags ?? [])],
     class: cls,
     surface,

@@ -40,7 +40,8 @@ export function markdownToText(md: string): string {
     lines.push(line);
   }
   // Blank lines end a paragraph; keep them as sentence breaks so snippets don't run headings into text.
-  return lines
+  // Tags were removed line by line above; one spread over lines is removed from the whole text.
+  const text = lines
     .join('\n')
     .replace(/\n{2,}/g, '\n')
     .split('\n')
@@ -48,5 +49,22 @@ export function markdownToText(md: string): string {
     .map((l) => (/[.!?:;·]$/.test(l) ? l : `${l}.`))
     .join(' ')
     .replace(/\s+/g, ' ')
+    .trim();
+  return stripMarkup(text);
+}
+
+/**
+ * Plain text of a user's text for the index and its snippets: HTML tags and comments go (also one
+ * spread over lines or left open at the end), and a "<" that could still open a tag is dropped, so a
+ * snippet is plain text for every client, even one that puts it into innerHTML. Text without "<" is
+ * returned as it is.
+ */
+export function stripMarkup(text: string): string {
+  if (!text.includes('<')) return text;
+  return text
+    .replace(/<!--[\s\S]*?(?:-->|$)/g, ' ')
+    .replace(/<\/?[a-z][^>]*(?:>|$)/gi, ' ')
+    .replace(/<(?=[a-z/!?])/gi, '')
+    .replace(/[ \t]{2,}/g, ' ')
     .trim();
 }

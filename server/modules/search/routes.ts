@@ -1,22 +1,28 @@
 import { z } from 'zod';
-import { searchQuerySchema, searchResponseSchema, searchSuggestionSchema, suggestQuerySchema } from '../../../shared/schemas/search';
+import { searchQuerySchema, searchResponseSchema, searchSuggestionSchema, suggestQuerySchema, type SearchMeta } from '../../../shared/schemas/search';
 import { defineRoute } from '../../lib/route';
 
 export const searchRoutes = [
   defineRoute({
     method: 'get',
     path: '/api/search',
-    summary: 'Search live parameters, guides and setup baselines, with facets and snippets',
+    summary: 'Search live parameters, guides and setup baselines, with facets and snippets; `offset` pages through all `meta.total` matches',
     tags: ['search'],
     access: 'public',
     query: searchQuerySchema,
     response: searchResponseSchema,
     handler: ({ query, ctx }) => {
-      const { q, limit, ...filters } = query;
-      const r = ctx.search.search(q, filters, limit);
+      const { q, limit, offset, ...filters } = query;
+      const r = ctx.search.search(q, filters, limit, offset);
+      const meta: SearchMeta = { total: r.total, offset, limit, tookMs: r.tookMs };
       return {
-        data: { hits: r.hits, facets: r.facets, ...(r.didYouMean ? { didYouMean: r.didYouMean } : {}) },
-        meta: { tookMs: r.tookMs, total: r.total },
+        data: {
+          hits: r.hits,
+          facets: r.facets,
+          ...(r.didYouMean ? { didYouMean: r.didYouMean } : {}),
+          ...(r.searchedFor ? { searchedFor: r.searchedFor } : {}),
+        },
+        meta,
       };
     },
   }),

@@ -1,13 +1,13 @@
 import type { DataSource } from 'typeorm';
 import type { DocumentKind } from '../../../shared/constants';
-import type { SearchFacets, SearchHit, SearchSuggestion } from '../../../shared/schemas/search';
+import type { SearchSuggestion } from '../../../shared/schemas/search';
 import type { DocumentChange } from '../../lib/document-events';
 import type { Logger } from '../../lib/logger';
 import type { DocumentListener } from '../../lib/document-listener';
 import { loadLiveDocument, loadLiveDocuments } from './documents';
-import { SearchIndex, type SearchFilters } from './search-index';
+import { SearchIndex, type IndexSearchResult, type SearchFilters } from './search-index';
 
-export type SearchResult = { hits: SearchHit[]; facets: SearchFacets; didYouMean?: string; total: number; tookMs: number };
+export type SearchResult = IndexSearchResult & { tookMs: number };
 
 /**
  * Search over live parameters, guides and setup baselines. One in-memory implementation today;
@@ -19,7 +19,8 @@ export interface SearchService {
   /** Re-reads one document's live revision and replaces it in the index (or removes it if it is no longer live). */
   upsertDocument(kind: DocumentKind, slug: string): Promise<void>;
   removeDocument(kind: DocumentKind, slug: string): void;
-  search(query: string, filters?: SearchFilters, limit?: number): SearchResult;
+  /** `limit` ranked hits after the first `offset`; `total` counts every match. */
+  search(query: string, filters?: SearchFilters, limit?: number, offset?: number): SearchResult;
   suggest(q: string): SearchSuggestion[];
   /** Builds the index and starts following document-change notifications. */
   start(): Promise<void>;
@@ -66,9 +67,9 @@ export function createSearchService(deps: Deps): SearchService {
         index.remove('setup', slug);
       }
     },
-    search(query, filters = {}, limit = 10) {
+    search(query, filters = {}, limit = 10, offset = 0) {
       const t0 = performance.now();
-      const r = index.search(query, filters, limit);
+      const r = index.search(query, filters, limit, offset);
       return { ...r, tookMs: Math.round((performance.now() - t0) * 100) / 100 };
     },
     suggest(q) {

@@ -1,3 +1,4 @@
+import { distance as levenshtein } from 'fastest-levenshtein';
 import type { ParameterCategory } from '@shared/constants';
 
 /** What each library section is about, in a line a newcomer can scan. */
@@ -65,20 +66,6 @@ export function formatStep(p: { unit: string; range: { min: number; max: number;
 
 const letters = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, '');
 
-function distance(a: string, b: string): number {
-  const row = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let diag = row[0];
-    row[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const above = row[j];
-      row[j] = Math.min(row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = above;
-    }
-  }
-  return row[b.length];
-}
-
 /**
  * Splits an entry's aliases into other names for it and spellings people type (kept so search finds
  * them, shown apart so the page does not read as if "dragbreak" were a proper name).
@@ -90,7 +77,7 @@ export function splitAliases(name: string, aliases: string[]): { names: string[]
   for (const alias of aliases) {
     const a = letters(alias);
     if (a === base) continue; // the name itself, hyphenated or run together
-    const near = [base, ...names.map(letters)].some((n) => distance(a, n) <= 2);
+    const near = [base, ...names.map(letters)].some((n) => levenshtein(a, n) <= 2);
     (near ? spellings : names).push(alias);
   }
   return { names, spellings };

@@ -1,5 +1,5 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { useQuery } from '@tanstack/react-query';
+import { useInfiniteQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { LIMITS } from '@shared/constants';
 import type { FacetValue, SearchType } from '@shared/schemas/search';
@@ -7,6 +7,7 @@ import { Button } from '@/components/ui/button';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { searchQueries, type SearchParams } from '../api/search';
+import { FacetList } from './facet-list';
 import { HighlightedSnippet } from './highlighted-snippet';
 import { TypeBadge } from './type-badge';
 
@@ -26,57 +27,18 @@ type Props = {
   onChange: (next: Partial<Record<'q' | SearchFilterKey, string | undefined>>) => void;
 };
 
-function FacetList({
-  label,
-  values,
-  selected,
-  onSelect,
-}: {
-  label: string;
-  values: FacetValue[];
-  selected?: string;
-  onSelect: (v: string | undefined) => void;
-}) {
-  const [more, setMore] = useState(false);
-  if (!values.length && !selected) return null;
-  const shown = more ? values : values.slice(0, 6);
-  return (
-    <fieldset className="border-b border-paper-line pb-4 last:border-b-0">
-      <legend className="mb-2 text-xs font-semibold tracking-wider text-ink-muted uppercase">{label}</legend>
-      <ul className="flex flex-col gap-0.5">
-        {shown.map((v) => {
-          const on = v.value === selected;
-          return (
-            <li key={v.value}>
-              <button
-                type="button"
-                aria-pressed={on}
-                onClick={() => onSelect(on ? undefined : v.value)}
-                className={`flex w-full items-center justify-between gap-2 rounded px-2 py-1 text-left text-sm ${on ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`}
-              >
-                <span className="min-w-0 truncate">{v.label}</span>
-                <span className={`tabular-nums text-xs ${on ? 'text-paper/80' : 'text-ink-muted'}`}>{v.count}</span>
-              </button>
-            </li>
-          );
-        })}
-      </ul>
-      {values.length > 6 && (
-        <button type="button" className="mt-1 px-2 text-xs font-medium text-copper-dark underline" onClick={() => setMore((m) => !m)}>
-          {more ? 'Show fewer' : `Show all ${values.length}`}
-        </button>
-      )}
-    </fieldset>
-  );
-}
-
 /** The search page body: query box, facet lists with counts, results with highlighted snippets, and an empty state. */
 export function SearchResults({ params, onChange }: Props) {
   const [draft, setDraft] = useState(params.q);
   const [filtersOpen, setFiltersOpen] = useState(false);
   useEffect(() => setDraft(params.q), [params.q]);
-  const results = useQuery(searchQueries.results({ ...params, limit: PAGE }));
-  const page = results.data;
+  const results = useInfiniteQuery(searchQueries.results({ ...params, limit: PAGE }));
+  // Facets, the total and the corrections come with every page and are the same on each: read the first.
+  const page = results.data?.pages[0];
+  const hits = results.data?.pages.flatMap((p) => p.data.hits) ?? [];
+  const total = page?.meta.total ?? 0;
+  const searchedFor = page?.data.searchedFor;
+  const didYouMean = page?.data.didYouMean && page.data.didYouMean.toLowerCase() !== searchedFor?.toLowerCase() ? page.data.didYouMean : undefined;
   const active = FACETS.filter((f) => params[f.key]);
 
   const handleSubmit = (e: FormEvent) => {
@@ -110,15 +72,15 @@ export function SearchResults({ params, onChange }: Props) {
       )}
 
       {params.q && results.isPending && <Spinner label="Searching…" />}
-      {params.q && results.isError && (
+      {params.q && results.isError && !results.isFetchNextPageError && (
         <Notice tone="danger" title="The search did not go through">
           {results.error.message}
         </Notice>
       )}
 
       {params.q && page && (
-        <div className={`grid gap-6 ${page.meta.total > 0 ? 'md:grid-cols-[15rem_1fr]' : ''}`}>
-          {page.meta.total > 0 && (
+        <div className={`grid gap-6 ${total > 0 ? 'md:grid-cols-[15rem_1fr]' : ''}`}>
+          {total > 0 && (
             <aside aria-label="Filter results" className="flex flex-col gap-4">
               <button
                 type="button"
@@ -154,21 +116,25 @@ export function SearchResults({ params, onChange }: Props) {
 
           <section aria-labelledby="results-heading" className="min-w-0">
             <h2 id="results-heading" className="mb-3 text-sm text-ink-muted" aria-live="polite">
-              {page.meta.total === 0 ? 'No results' : `${page.meta.total} result${page.meta.total === 1 ? '' : 's'}`} for “
-              <span className="font-semibold text-ink">{params.q}</span>”
-              {page.meta.total > page.data.hits.length && ` — the best ${page.data.hits.length} shown; narrow with the filters`}
+              {total === 0 ? 'No results' : `${total} result${total === 1 ? '' : 's'}`} for “
+              <span className="font-semibold text-ink">{searchedFor ?? params.q}</span>”
             </h2>
-            {page.data.hits.length === 0 ? (
+            {searchedFor && hits.length > 0 && (
+              <p className="mb-3 text-sm text-ink-soft" data-testid="searched-for">
+                Showing results for <strong className="font-semibold text-ink">{searchedFor}</strong> — you typed “{params.q}”.
+              </p>
+            )}
+            {hits.length === 0 ? (
               <Card className="p-5">
-                {page.data.didYouMean ? (
+                {didYouMean ? (
                   <p className="text-lg">
                     Did you mean{' '}
                     <button
                       type="button"
                       className="font-semibold text-copper-dark underline"
-                      onClick={() => onChange({ q: page.data.didYouMean, type: undefined, class: undefined, surface: undefined, parameter: undefined })}
+                      onClick={() => onChange({ q: didYouMean, type: undefined, class: undefined, surface: undefined, parameter: undefined })}
                     >
-                      {page.data.didYouMean}
+                      {didYouMean}
                     </button>
                     ?
                   </p>
@@ -192,17 +158,17 @@ export function SearchResults({ params, onChange }: Props) {
               </Card>
             ) : (
               <>
-                {page.data.didYouMean && (
+                {didYouMean && (
                   <p className="mb-3 text-sm text-ink-soft">
                     Nothing matched exactly. Did you mean{' '}
-                    <button type="button" className="font-semibold text-copper-dark underline" onClick={() => onChange({ q: page.data.didYouMean })}>
-                      {page.data.didYouMean}
+                    <button type="button" className="font-semibold text-copper-dark underline" onClick={() => onChange({ q: didYouMean })}>
+                      {didYouMean}
                     </button>
                     ?
                   </p>
                 )}
                 <ol className={`flex flex-col gap-3 ${results.isPlaceholderData ? 'opacity-60' : ''}`}>
-                  {page.data.hits.map((h) => (
+                  {hits.map((h) => (
                     <li key={`${h.type}:${h.slug}`}>
                       <Card className="p-4">
                         <div className="flex flex-wrap items-center gap-2">
@@ -216,6 +182,21 @@ export function SearchResults({ params, onChange }: Props) {
                     </li>
                   ))}
                 </ol>
+                <div className="mt-4 flex flex-wrap items-center gap-3">
+                  <p className="text-sm text-ink-muted" aria-live="polite">
+                    {hits.length < total ? `Showing ${hits.length} of ${total}` : total > PAGE ? `All ${total} shown` : null}
+                  </p>
+                  {results.hasNextPage && (
+                    <Button variant="secondary" size="sm" pending={results.isFetchingNextPage} onClick={() => void results.fetchNextPage()}>
+                      Show {Math.min(PAGE, total - hits.length)} more
+                    </Button>
+                  )}
+                </div>
+                {results.isFetchNextPageError && (
+                  <Notice tone="danger" title="The next results did not load">
+                    {results.error?.message}
+                  </Notice>
+                )}
               </>
             )}
           </section>
