@@ -31,7 +31,18 @@ afterAll(async () => {
   await t.close();
 });
 
-type Item = { revisionId: string; kind: string; slug: string; title: string; number: number; baseNumber: number | null; submittedAt: string; class: string | null; own: boolean; author: { displayName: string } };
+type Item = {
+  revisionId: string;
+  kind: string;
+  slug: string;
+  title: string;
+  number: number;
+  baseNumber: number | null;
+  submittedAt: string;
+  class: string | null;
+  own: boolean;
+  author: { displayName: string };
+};
 
 describe('GET /api/reviews', () => {
   it('lists the seeded proposals for the demo moderator, oldest first, with what the queue shows', async () => {
@@ -45,7 +56,7 @@ describe('GET /api/reviews', () => {
     expect(items.every((i) => !i.own)).toBe(true);
     expect(res.body.meta).toEqual({ total: items.length, reviewable: items.length });
     const stock = items.find((i) => i.slug === 'stock-2wd-buggy-harbour-flats-clay')!;
-    expect(stock).toMatchObject({ kind: 'guide', class: 'buggy-2wd-stock', number: 3, baseNumber: 2, author: { displayName: 'Rosa Kittering' } });
+    expect(stock).toMatchObject({ kind: 'guide', class: 'buggy-2wd-stock', number: 4, baseNumber: 3, author: { displayName: 'Rosa Kittering' } });
     expect(stock.title).toMatch(/Stock 2WD buggy/);
   });
 
@@ -78,8 +89,8 @@ describe('GET /api/reviews/:revisionId', () => {
     const stock = items.find((i) => i.slug === 'stock-2wd-buggy-harbour-flats-clay')!;
     const res = await owen.get(`/api/reviews/${stock.revisionId}`).expect(200);
     const d = res.body.data;
-    expect(d.revision).toMatchObject({ id: stock.revisionId, state: 'in_review', number: 3 });
-    expect(d.live).toMatchObject({ state: 'published', number: 2 });
+    expect(d.revision).toMatchObject({ id: stock.revisionId, state: 'in_review', number: 4 });
+    expect(d.live).toMatchObject({ state: 'published', number: 3 });
     expect(d.bodyDiff.some((p: { added?: boolean }) => p.added)).toBe(true);
     expect(d.own).toBe(false);
     expect(d.stale).toBe(false);
