@@ -7,7 +7,7 @@ import { defineCalculator, type CalcWarning } from './types';
 //   expo ≥ 0: y = (1 − k)·x + k·x³            softer near neutral, more resolution for traction
 //   expo < 0: y = 1 − [(1 − k)(1 − x) + k(1 − x)³]  the mirror: sharper near neutral
 // Both pass through 0 and 100 %, never decrease, and stay within 0..100 % for any k in 0..1.
-// Punch (REFERENCES.md, common practice): the commanded output may rise by at most
+// Punch (common practice, no source): the commanded output may rise by at most
 // punchRatePctPerS × Δt, so a snap from 0 to full output takes 100 / rate seconds.
 
 /** Full output in less than this many ms counts as very hard punch (common practice, no source). */
@@ -120,8 +120,7 @@ export function computeThrottle(input: ThrottleInput) {
 export const throttleCalculator = defineCalculator({
   name: 'throttle',
   title: 'Throttle curve and punch',
-  description:
-    'How stick travel maps to output for a throttle curve, and how long the punch limit takes to let the output rise to full.',
+  description: 'How stick travel maps to output for a throttle curve, and how long the punch limit takes to let the output rise to full.',
   input: throttleInput,
   defaults: { expoPct: 20, punchRatePctPerS: 400, inputPct: 50 },
   compute: computeThrottle,

@@ -4,7 +4,7 @@ import { checkEvenPoles } from './motor';
 import { clamp, roundSig } from './round';
 import { defineCalculator, type CalcWarning } from './types';
 
-// Model (see REFERENCES.md, "Timing advance"): the controller's advance in electrical degrees is
+// Model (a speed-dependent lead rising linearly between two speeds; from memory, general industrial servo-drive practice): the controller's advance in electrical degrees is
 //   total(rpm) = baseDeg + rampDeg × clamp((rpm − rampStartRpm) / (rampEndRpm − rampStartRpm), 0, 1)
 // A linear speed-dependent lead between a start and an end speed is standard drive practice (from memory).
 // The optional full-throttle step adds stepDeg on top, but only once the throttle has been held fully
@@ -104,11 +104,7 @@ export const timingCurveInput = inputObject({
   }),
 })
   .superRefine((value, ctx) => {
-    if (
-      typeof value.rampStartRpm === 'number' &&
-      typeof value.rampEndRpm === 'number' &&
-      value.rampEndRpm <= value.rampStartRpm
-    ) {
+    if (typeof value.rampStartRpm === 'number' && typeof value.rampEndRpm === 'number' && value.rampEndRpm <= value.rampStartRpm) {
       ctx.addIssue({
         code: 'custom',
         path: ['rampEndRpm'],
@@ -141,10 +137,7 @@ export type TimingCurveResults = {
 };
 
 /** Controller advance at `rpm` without the full-throttle step (the linear-ramp model above). */
-export function timingAt(
-  rpm: number,
-  curve: { baseDeg: number; rampDeg: number; rampStartRpm: number; rampEndRpm: number },
-): number {
+export function timingAt(rpm: number, curve: { baseDeg: number; rampDeg: number; rampStartRpm: number; rampEndRpm: number }): number {
   const fraction = clamp((rpm - curve.rampStartRpm) / (curve.rampEndRpm - curve.rampStartRpm), 0, 1);
   return curve.baseDeg + curve.rampDeg * fraction;
 }
@@ -172,9 +165,7 @@ export function computeTimingCurve(input: TimingCurveInput) {
     .sort((a, b) => a - b)
     .map((rpm) => {
       const deg = timingAt(rpm, input);
-      return hasStep
-        ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) }
-        : { rpm, deg: roundSig(deg) };
+      return hasStep ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) } : { rpm, deg: roundSig(deg) };
     });
 
   const warnings: CalcWarning[] = [];

@@ -1,12 +1,7 @@
 import fc from 'fast-check';
 import { evaluate } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import {
-  computeMotor,
-  electricalFrequencyHz,
-  torqueConstantFromKv,
-  type MotorResults,
-} from '../../../shared/calc/motor';
+import { computeMotor, electricalFrequencyHz, torqueConstantFromKv, type MotorResults } from '../../../shared/calc/motor';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
 describe('motor calculator', () => {
@@ -44,8 +39,8 @@ describe('motor calculator', () => {
   it('gives electrical rpm as mechanical rpm × pole pairs', () => {
     const { results } = run<MotorResults>('motor', { kv: 4000, volts: 8.4, poles: 4 });
     expect(results.polePairs).toBe(2);
-    expect(results.noLoadRpm).toBe(33_600); // REFERENCES.md gearing checks: 4000 rpm/V × 8.4 V
-    expect(results.electricalRpm).toBe(67_200); // REFERENCES.md "Motor": electrical rpm = mechanical rpm × pole pairs
+    expect(results.noLoadRpm).toBe(33_600); // 4000 rpm/V × 8.4 V (Wikipedia, "Motor constants": no-load rpm ≈ Kv × V)
+    expect(results.electricalRpm).toBe(67_200); // electrical rpm = mechanical rpm × pole pairs (Ohio University EE notes, ch. 14, §14.3: n = 120 f / P)
     // mathjs oracle: electrical rpm / 60 is the electrical frequency in Hz
     expectRelClose(results.electricalHz, evaluate('67200 / minute').toNumber('Hz'), DISPLAY_REL);
   });
@@ -60,12 +55,8 @@ describe('motor calculator', () => {
 
   it('rejects an odd pole count, out-of-range kV and an unknown key, naming each', () => {
     expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 3 }), 'poles').message).toMatch(/even/);
-    expect(issueAt(rejected('motor', { kv: 50, volts: 8.4, poles: 2 }), 'kv').message).toBe(
-      'Motor kV must be at least 100 rpm/V',
-    );
-    expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 2, kV: 1 }), 'kV').message).toMatch(
-      /Did you mean "kv"/,
-    );
+    expect(issueAt(rejected('motor', { kv: 50, volts: 8.4, poles: 2 }), 'kv').message).toBe('Motor kV must be at least 100 rpm/V');
+    expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 2, kV: 1 }), 'kV').message).toMatch(/Did you mean "kv"/);
     expect(issueAt(rejected('motor', { kv: 4000, poles: 2 }), 'volts').message).toBe('Voltage is required');
   });
 });

@@ -9,7 +9,7 @@ describe('pack calculator', () => {
     const { results } = run<PackResults>('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 3.2 });
     expect(results.fullV).toBeCloseTo(8.4, 9); // Wikipedia, "Lithium polymer battery": 4.2 V per cell full; race rules 8.40 V for 2S
     expect(results.nominalV).toBeCloseTo(7.4, 9); // Wikipedia, "Lithium polymer battery": 3.7 V nominal; 7.4 V 2S, common practice
-    expect(results.cutoffV).toBeCloseTo(6.4, 9); // REFERENCES.md pack checks: 3.2 V/cell cutoff → 6.40 V
+    expect(results.cutoffV).toBeCloseTo(6.4, 9); // 2 × 3.2 V (common practice: a LiPo cutoff of 3.0–3.4 V per cell, set per cell, times cells in series)
     expect(results.storageV).toBeCloseTo(7.6, 9); // Battery University BU-303: storage near 3.8 V per cell
     expect(results.cutoffWindowV.min).toBeCloseTo(6.0, 9); // common practice, no source: 3.0–3.4 V per cell
     expect(results.cutoffWindowV.max).toBeCloseTo(6.8, 9); // common practice, no source
@@ -33,9 +33,7 @@ describe('pack calculator', () => {
     expect(nimh.nominalV).toBeCloseTo(7.2, 9); // Wikipedia, "Nickel–metal hydride battery": 1.2 V per cell nominal
     expect(nimh.cutoffWindowV.max).toBeCloseTo(6.0, 9); // Wikipedia, "Nickel–metal hydride battery": 1.0 V end point
     expect(nimh.storageV).toBeNull();
-    expect(computePack({ chemistry: 'nimh', cells: 6 }).warnings.find((w) => w.code === 'nimh-care')?.message).toMatch(
-      /storage/,
-    );
+    expect(computePack({ chemistry: 'nimh', cells: 6 }).warnings.find((w) => w.code === 'nimh-care')?.message).toMatch(/storage/);
   });
 
   it('reads chemistry names in any case and common aliases', () => {
@@ -62,9 +60,7 @@ describe('pack calculator', () => {
 
   it('always carries the lithium charging caution, deferring to the maker and the rules', () => {
     for (const chemistry of ['lipo', 'lihv', 'lifepo4'] as const) {
-      const care = computePack({ chemistry, cells: 2, cutoffPerCellV: 3.2 }).warnings.find(
-        (w) => w.code === 'lithium-care',
-      );
+      const care = computePack({ chemistry, cells: 2, cutoffPerCellV: 3.2 }).warnings.find((w) => w.code === 'lithium-care');
       expect(care?.level).toBe('info');
       expect(care?.message).toMatch(/maker's instructions/);
       expect(care?.message).toMatch(/sanctioning body/);
@@ -91,30 +87,24 @@ describe('pack calculator', () => {
 
   it('classifies any cutoff against the window consistently (property)', () => {
     fc.assert(
-      fc.property(
-        fc.constantFrom(...packChemistries),
-        fc.double({ min: 0.5, max: 4.5, noNaN: true }),
-        (chemistry, cutoff) => {
-          const { results, warnings } = computePack({ chemistry, cells: 2, cutoffPerCellV: cutoff });
-          const window = chemistryVoltages[chemistry].cutoffWindowV;
-          const expected = cutoff < window.min ? 'below-window' : cutoff > window.max ? 'above-window' : 'in-window';
-          expect(results.cutoffCheck).toBe(expected);
-          expect(warnings.some((w) => w.code === 'cutoff-below-window')).toBe(expected === 'below-window');
-        },
-      ),
+      fc.property(fc.constantFrom(...packChemistries), fc.double({ min: 0.5, max: 4.5, noNaN: true }), (chemistry, cutoff) => {
+        const { results, warnings } = computePack({ chemistry, cells: 2, cutoffPerCellV: cutoff });
+        const window = chemistryVoltages[chemistry].cutoffWindowV;
+        const expected = cutoff < window.min ? 'below-window' : cutoff > window.max ? 'above-window' : 'in-window';
+        expect(results.cutoffCheck).toBe(expected);
+        expect(warnings.some((w) => w.code === 'cutoff-below-window')).toBe(expected === 'below-window');
+      }),
     );
   });
 
   it('rejects unknown chemistry, fractional cells and a missing cell count, naming each', () => {
     const issues = rejected('pack', { chemistry: 'lead-acid', cells: 2.5 });
-    expect(issueAt(issues, 'chemistry').message).toBe(
-      'Chemistry must be one of: LiPo, LiHV, LiFePO4, NiMH (got "lead-acid")',
-    );
+    expect(issueAt(issues, 'chemistry').message).toBe('Chemistry must be one of: LiPo, LiHV, LiFePO4, NiMH (got "lead-acid")');
     expect(issueAt(issues, 'cells').message).toBe('Cells must be a whole number');
     expect(issueAt(rejected('pack', { chemistry: 'lipo' }), 'cells').message).toBe('Cells is required');
     expect(issueAt(rejected('pack', { cells: 2 }), 'chemistry').message).toMatch(/Chemistry is required/);
-    expect(
-      issueAt(rejected('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 5 }), 'cutoffPerCellV').message,
-    ).toBe('Cutoff per cell must be at most 4.5 V');
+    expect(issueAt(rejected('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 5 }), 'cutoffPerCellV').message).toBe(
+      'Cutoff per cell must be at most 4.5 V',
+    );
   });
 });
