@@ -24,6 +24,8 @@ import {
 import { defineRoute, type RouteDef } from '../../lib/route';
 import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentReadableRevision, presentReviewItem, presentRevision } from './presenter';
 import { revisionService } from './service';
+import { checkRevisionContent } from './checks';
+import { contentCheckSchema } from '../../../shared/schemas/content-check';
 
 const revisionIdParam = z.object({ id: z.uuid({ message: 'Must be a revision id' }) });
 const reviewIdParam = z.object({ revisionId: z.uuid({ message: 'Must be a revision id' }) });
@@ -137,10 +139,11 @@ export const revisionRoutes: RouteDef[] = [
     access: 'member',
     owner: { resource: 'revision', rule: 'owner-or-moderator' },
     params: revisionIdParam,
-    response: revisionEnvelope.extend({ document: documentStatusSchema }),
+    response: revisionEnvelope.extend({ document: documentStatusSchema, checks: z.array(contentCheckSchema) }),
     handler: async ({ params, user, ctx }) => {
       const { view, publishedNumber } = await revisionService(ctx).getRevision(user, params.id);
-      return { data: { revision: presentRevision(view), document: presentDocumentStatus(view.doc, publishedNumber) } };
+      const checks = await checkRevisionContent(ctx.dataSource, view.doc.kind, view.rev.content, view.rev.setup);
+      return { data: { revision: presentRevision(view), document: presentDocumentStatus(view.doc, publishedNumber), checks } };
     },
   }),
   defineRoute({
@@ -153,8 +156,12 @@ export const revisionRoutes: RouteDef[] = [
     params: revisionIdParam,
     // The fields depend on the document kind; the service validates them against its content schema.
     body: z.record(z.string(), z.unknown()),
-    response: revisionEnvelope,
-    handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).updateDraft(user!, params.id, body)) } }),
+    response: revisionEnvelope.extend({ checks: z.array(contentCheckSchema) }),
+    handler: async ({ params, body, user, ctx }) => {
+      // The checks run on every save, so the editor lists them as the author writes.
+      const view = await revisionService(ctx).updateDraft(user!, params.id, body);
+      return { data: { revision: presentRevision(view), checks: await checkRevisionContent(ctx.dataSource, view.doc.kind, view.rev.content, view.rev.setup) } };
+    },
   }),
   defineRoute({
     method: 'post',
@@ -246,6 +253,7 @@ export const revisionRoutes: RouteDef[] = [
           changedFields: r.changedFields,
           bodyDiff: r.bodyDiff,
           workedExamples: r.workedExamples,
+          checks: r.checks,
           setupChanges: r.setupChanges,
           setupWarnings: r.setupWarnings,
           own: r.own,

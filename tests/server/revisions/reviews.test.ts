@@ -102,7 +102,8 @@ describe('GET /api/reviews/:revisionId', () => {
     const { client: writer } = await signedInClient(t, 'member');
     const { slug } = await createPublishedGuide(writer, owen, { body: 'Version one.' });
     const body = [
-      'Check the motor after five minutes.',
+      // The caution beside the example: without one the content checks refuse the submission (caution-near-example).
+      'Check the motor after five minutes; past 82 °C, stop and let it cool.',
       '',
       '```worked-example',
       'calc: temperature',
