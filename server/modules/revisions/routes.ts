@@ -25,7 +25,7 @@ import { defineRoute, type RouteDef } from '../../lib/route';
 import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentReadableRevision, presentReviewItem, presentRevision } from './presenter';
 import { revisionService } from './service';
 import { checkRevisionContent } from './checks';
-import { contentCheckSchema } from '../../../shared/schemas/content-check';
+import { contentCheckSchema, reviewApprovalSchema } from '../../../shared/schemas/content-check';
 
 const revisionIdParam = z.object({ id: z.uuid({ message: 'Must be a revision id' }) });
 const reviewIdParam = z.object({ revisionId: z.uuid({ message: 'Must be a revision id' }) });
@@ -254,6 +254,7 @@ export const revisionRoutes: RouteDef[] = [
           bodyDiff: r.bodyDiff,
           workedExamples: r.workedExamples,
           checks: r.checks,
+          approval: r.approval,
           setupChanges: r.setupChanges,
           setupWarnings: r.setupWarnings,
           own: r.own,
@@ -265,13 +266,18 @@ export const revisionRoutes: RouteDef[] = [
   defineRoute({
     method: 'post',
     path: '/api/reviews/:revisionId/publish',
-    summary: 'Publish a proposal (not your own); the previous live revision is superseded',
+    summary:
+      'Publish a proposal (not your own); the previous live revision is superseded. A safety-relevant baseline change needs two different moderators: the first call answers 202 with the approval recorded and the revision still in review',
     tags: ['reviews'],
     access: 'moderator',
     owner: { resource: 'revision', rule: 'not-owner' },
     params: reviewIdParam,
-    response: revisionEnvelope,
-    handler: async ({ params, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).publish(user!, params.revisionId)) } }),
+    response: revisionEnvelope.extend({ approval: reviewApprovalSchema.optional() }),
+    handler: async ({ params, user, ctx }) => {
+      const result = await revisionService(ctx).publish(user!, params.revisionId);
+      if (result.approval) return { status: 202, data: { revision: presentRevision(result), approval: result.approval } };
+      return { data: { revision: presentRevision(result) } };
+    },
   }),
   defineRoute({
     method: 'post',

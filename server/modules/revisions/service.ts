@@ -35,6 +35,7 @@ import { publishedCache } from './read-cache';
 import { RevisionEntity } from './revision.entity';
 import { hasBlockingChecks } from '../../../shared/content-checks/run';
 import { checkRevisionContent, contentCheckFailed } from './checks';
+import { approvalState, approveOrPublish, clearApprovals, type ApprovalState } from './approvals';
 
 type Content = Record<string, unknown>;
 
@@ -89,10 +90,7 @@ async function views(m: EntityManager, revs: RevisionEntity[], knownDocs: Docume
   const docs = new Map(knownDocs.map((d) => [d.id, d]));
   const missingDocs = [...new Set(revs.map((r) => r.documentId))].filter((id) => !docs.has(id));
   if (missingDocs.length) for (const d of await m.getRepository(DocumentEntity).findBy({ id: In(missingDocs) })) docs.set(d.id, d);
-  const who = await people(
-    m,
-    revs.flatMap((r) => [r.authorId, r.reviewedBy]),
-  );
+  const who = await people(m, revs.flatMap((r) => [r.authorId, r.reviewedBy]));
   const baseIds = [...new Set(revs.map((r) => r.baseRevisionId).filter((x): x is string => !!x))];
   const baseRows = baseIds.length ? await m.getRepository(RevisionEntity).find({ where: { id: In(baseIds) }, select: { id: true, number: true } }) : [];
   const baseNumbers = new Map(baseRows.map((r) => [r.id, r.number]));
@@ -119,27 +117,12 @@ function lockDocument(m: EntityManager, where: { id: string } | { kind: Document
 
 async function audit(
   m: EntityManager,
-  row: {
-    actorId: string;
-    action: string;
-    subjectKind: 'revision' | 'document';
-    subjectId: string;
-    from: string | null;
-    to: string | null;
-    reason?: string | null;
-    meta?: Record<string, unknown>;
-  },
+  row: { actorId: string; action: string; subjectKind: 'revision' | 'document'; subjectId: string; from: string | null; to: string | null; reason?: string | null; meta?: Record<string, unknown> },
 ) {
   await m.getRepository(AuditLogEntity).insert({ ...row, reason: row.reason ?? null, meta: row.meta ?? {} } as QueryDeepPartialEntity<AuditLogEntity>);
 }
 
-const revMeta = (doc: DocumentEntity, rev: RevisionEntity, extra: Record<string, unknown> = {}) => ({
-  documentId: doc.id,
-  kind: doc.kind,
-  slug: doc.slug,
-  number: rev.number,
-  ...extra,
-});
+const revMeta = (doc: DocumentEntity, rev: RevisionEntity, extra: Record<string, unknown> = {}) => ({ documentId: doc.id, kind: doc.kind, slug: doc.slug, number: rev.number, ...extra });
 
 async function nextNumber(m: EntityManager, documentId: string): Promise<number> {
   const [row] = await m.query('SELECT COALESCE(MAX(number), 0) + 1 AS n FROM revisions WHERE document_id = $1', [documentId]);
@@ -150,12 +133,7 @@ async function nextNumber(m: EntityManager, documentId: string): Promise<number>
 async function staleBase(m: EntityManager, doc: DocumentEntity): Promise<AppError> {
   const live = doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: doc.publishedRevisionId }) : null;
   const current = live ? presentRevision(await view(m, live, doc)) : null;
-  return new AppError(
-    409,
-    'stale_base',
-    'The live version changed after this draft was started. Merge your changes into the current version first; your text is kept.',
-    { current },
-  );
+  return new AppError(409, 'stale_base', 'The live version changed after this draft was started. Merge your changes into the current version first; your text is kept.', { current });
 }
 
 async function assertFreshBase(m: EntityManager, rev: RevisionEntity, doc: DocumentEntity) {
@@ -200,17 +178,7 @@ export function revisionService(ctx: AppContext) {
       .getMany();
     for (const mod of moderators) {
       await ctx.mailer.send(
-        reviewRequestMail(mod, {
-          appUrl: ctx.config.appUrl,
-          kind: doc.kind,
-          slug: doc.slug,
-          title: titleOf(rev),
-          number: rev.number,
-          revisionId: rev.id,
-          authorName,
-          note: rev.note,
-          isNew: doc.publishedRevisionId === null,
-        }),
+        reviewRequestMail(mod, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: rev.id, authorName, note: rev.note, isNew: doc.publishedRevisionId === null }),
         m,
       );
     }
@@ -235,40 +203,16 @@ export function revisionService(ctx: AppContext) {
       for (let attempt = 0; ; attempt++) {
         try {
           return await ctx.dataSource.transaction(async (m) => {
-            const taken: Array<{ slug: string }> = await m.query(`SELECT slug FROM documents WHERE kind = $1 AND (slug = $2 OR slug LIKE $3)`, [
-              kind,
-              wanted,
-              `${wanted}-%`,
-            ]);
+            const taken: Array<{ slug: string }> = await m.query(`SELECT slug FROM documents WHERE kind = $1 AND (slug = $2 OR slug LIKE $3)`, [kind, wanted, `${wanted}-%`]);
             const used = new Set(taken.map((r) => r.slug));
             let slug = wanted;
             for (let n = 2; used.has(slug); n++) slug = `${wanted}-${n}`;
             const doc = await m.getRepository(DocumentEntity).save(m.getRepository(DocumentEntity).create({ kind, slug, createdBy: actor.id }));
-            const rev = await m
-              .getRepository(RevisionEntity)
-              .save(
-                m
-                  .getRepository(RevisionEntity)
-                  .create({ documentId: doc.id, number: 1, baseRevisionId: null, authorId: actor.id, state: 'draft', note: note ?? '', content }),
-              );
-            await audit(m, {
-              actorId: actor.id,
-              action: 'document.create',
-              subjectKind: 'document',
-              subjectId: doc.id,
-              from: null,
-              to: 'created',
-              meta: { kind, slug },
-            });
-            await audit(m, {
-              actorId: actor.id,
-              action: 'revision.create',
-              subjectKind: 'revision',
-              subjectId: rev.id,
-              from: null,
-              to: 'draft',
-              meta: revMeta(doc, rev),
-            });
+            const rev = await m.getRepository(RevisionEntity).save(
+              m.getRepository(RevisionEntity).create({ documentId: doc.id, number: 1, baseRevisionId: null, authorId: actor.id, state: 'draft', note: note ?? '', content }),
+            );
+            await audit(m, { actorId: actor.id, action: 'document.create', subjectKind: 'document', subjectId: doc.id, from: null, to: 'created', meta: { kind, slug } });
+            await audit(m, { actorId: actor.id, action: 'revision.create', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'draft', meta: revMeta(doc, rev) });
             return view(m, rev, doc);
           });
         } catch (err) {
@@ -302,15 +246,7 @@ export function revisionService(ctx: AppContext) {
             setup: base.setup,
           }),
         );
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.create',
-          subjectKind: 'revision',
-          subjectId: rev.id,
-          from: null,
-          to: 'draft',
-          meta: revMeta(doc, rev, { baseNumber: base.number }),
-        });
+        await audit(m, { actorId: actor.id, action: 'revision.create', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'draft', meta: revMeta(doc, rev, { baseNumber: base.number }) });
         return view(m, rev, doc);
       });
     },
@@ -333,15 +269,7 @@ export function revisionService(ctx: AppContext) {
         if (note !== undefined) patch.note = note;
         if (Object.keys(patch).length) await m.getRepository(RevisionEntity).update({ id }, patch as QueryDeepPartialEntity<RevisionEntity>);
         if (patch.baseRevisionId) {
-          await audit(m, {
-            actorId: actor.id,
-            action: 'revision.rebase',
-            subjectKind: 'revision',
-            subjectId: id,
-            from: rev.baseRevisionId,
-            to: patch.baseRevisionId,
-            meta: revMeta(doc, rev),
-          });
+          await audit(m, { actorId: actor.id, action: 'revision.rebase', subjectKind: 'revision', subjectId: id, from: rev.baseRevisionId, to: patch.baseRevisionId, meta: revMeta(doc, rev) });
         }
         return reload(m, id, doc);
       });
@@ -356,26 +284,9 @@ export function revisionService(ctx: AppContext) {
         if (hasBlockingChecks(checks)) throw contentCheckFailed(checks);
         await assertFreshBase(m, rev, doc);
         const from = rev.state;
-        await m
-          .getRepository(RevisionEntity)
-          .update({ id }, {
-            state: 'in_review',
-            note,
-            content,
-            submittedAt: new Date(),
-            reason: null,
-            reviewedBy: null,
-            reviewedAt: null,
-          } as QueryDeepPartialEntity<RevisionEntity>);
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.submit',
-          subjectKind: 'revision',
-          subjectId: id,
-          from,
-          to: 'in_review',
-          meta: revMeta(doc, rev, { note }),
-        });
+        await clearApprovals(m, id);
+        await m.getRepository(RevisionEntity).update({ id }, { state: 'in_review', note, content, submittedAt: new Date(), reason: null, reviewedBy: null, reviewedAt: null } as QueryDeepPartialEntity<RevisionEntity>);
+        await audit(m, { actorId: actor.id, action: 'revision.submit', subjectKind: 'revision', subjectId: id, from, to: 'in_review', meta: revMeta(doc, rev, { note }) });
         const v = await reload(m, id, doc);
         await mailModerators(m, v.rev, doc, v.author.displayName);
         return v;
@@ -386,72 +297,47 @@ export function revisionService(ctx: AppContext) {
     async withdraw(actor: NonNullable<Actor>, id: string) {
       return inRevisionTx(id, async (m, rev, doc) => {
         check(mayWithdraw(actor, rev));
+        await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'draft', submittedAt: null });
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.withdraw',
-          subjectKind: 'revision',
-          subjectId: id,
-          from: 'in_review',
-          to: 'draft',
-          meta: revMeta(doc, rev),
-        });
+        await audit(m, { actorId: actor.id, action: 'revision.withdraw', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'draft', meta: revMeta(doc, rev) });
         return reload(m, id, doc);
       });
     },
 
-    /** in_review → published by another moderator; the previous live revision becomes archived. */
-    async publish(actor: NonNullable<Actor>, id: string) {
+    /**
+     * in_review → published by another moderator; the previous live revision becomes archived. A
+     * safety-relevant proposal needs two different moderators: the first call records an approval and
+     * leaves it in review (`approval` is then set), the second publishes.
+     */
+    async publish(actor: NonNullable<Actor>, id: string): Promise<RevisionView & { approval: ApprovalState | null }> {
       const v = await inRevisionTx(id, async (m, rev, doc) => {
         check(mayReview(actor, rev));
         await assertFreshBase(m, rev, doc);
+        const gate = await approveOrPublish(m, actor.id, rev, doc);
+        if (!gate.publish) return { ...(await reload(m, id, doc)), approval: gate.state };
         const now = new Date();
         const previousId = doc.publishedRevisionId;
         if (previousId) {
           // Archive first: at most one published revision per document, checked row by row.
           await m.getRepository(RevisionEntity).update({ id: previousId }, { state: 'archived' });
           const prev = await m.getRepository(RevisionEntity).findOneByOrFail({ id: previousId });
-          await audit(m, {
-            actorId: actor.id,
-            action: 'revision.archive',
-            subjectKind: 'revision',
-            subjectId: previousId,
-            from: 'published',
-            to: 'archived',
-            meta: revMeta(doc, prev, { supersededBy: rev.number }),
-          });
+          await audit(m, { actorId: actor.id, action: 'revision.archive', subjectKind: 'revision', subjectId: previousId, from: 'published', to: 'archived', meta: revMeta(doc, prev, { supersededBy: rev.number }) });
         }
         await m.getRepository(RevisionEntity).update({ id }, { state: 'published', publishedAt: now, reviewedBy: actor.id, reviewedAt: now });
         await m.getRepository(DocumentEntity).update({ id: doc.id }, { publishedRevisionId: id });
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.publish',
-          subjectKind: 'revision',
-          subjectId: id,
-          from: 'in_review',
-          to: 'published',
-          meta: revMeta(doc, rev),
-        });
+        await audit(m, { actorId: actor.id, action: 'revision.publish', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'published', meta: revMeta(doc, rev) });
         await notifyDocumentChanged(m, { kind: doc.kind, documentId: doc.id, slug: doc.slug, action: 'published' });
         const author = await activeUser(m, rev.authorId);
         const fresh = await reload(m, id, { ...doc, publishedRevisionId: id });
         if (author) {
           await ctx.mailer.send(
-            publishedMail(author, {
-              appUrl: ctx.config.appUrl,
-              kind: doc.kind,
-              slug: doc.slug,
-              title: titleOf(rev),
-              number: rev.number,
-              revisionId: id,
-              reviewerName: fresh.reviewer?.displayName ?? 'A moderator',
-            }),
+            publishedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator' }),
             m,
           );
         }
-        return fresh;
+        return { ...fresh, approval: null };
       });
-      afterCommit(v.doc);
+      if (!v.approval) afterCommit(v.doc);
       return v;
     },
 
@@ -459,32 +345,14 @@ export function revisionService(ctx: AppContext) {
     async returnRevision(actor: NonNullable<Actor>, id: string, reason: string) {
       return inRevisionTx(id, async (m, rev, doc) => {
         check(mayReview(actor, rev));
+        await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'returned', reason, reviewedBy: actor.id, reviewedAt: new Date() });
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.return',
-          subjectKind: 'revision',
-          subjectId: id,
-          from: 'in_review',
-          to: 'returned',
-          reason,
-          meta: revMeta(doc, rev),
-        });
+        await audit(m, { actorId: actor.id, action: 'revision.return', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'returned', reason, meta: revMeta(doc, rev) });
         const fresh = await reload(m, id, doc);
         const author = await activeUser(m, rev.authorId);
         if (author) {
           await ctx.mailer.send(
-            returnedMail(author, {
-              appUrl: ctx.config.appUrl,
-              kind: doc.kind,
-              slug: doc.slug,
-              title: titleOf(rev),
-              number: rev.number,
-              revisionId: id,
-              reviewerName: fresh.reviewer?.displayName ?? 'A moderator',
-              reason,
-              isNew: !rev.baseRevisionId,
-            }),
+            returnedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator', reason, isNew: !rev.baseRevisionId }),
             m,
           );
         }
@@ -504,15 +372,7 @@ export function revisionService(ctx: AppContext) {
         const current = doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId }) : null;
         if (current) {
           await m.getRepository(RevisionEntity).update({ id: current.id }, { state: 'archived' });
-          await audit(m, {
-            actorId: actor.id,
-            action: 'revision.archive',
-            subjectKind: 'revision',
-            subjectId: current.id,
-            from: 'published',
-            to: 'archived',
-            meta: revMeta(doc, current),
-          });
+          await audit(m, { actorId: actor.id, action: 'revision.archive', subjectKind: 'revision', subjectId: current.id, from: 'published', to: 'archived', meta: revMeta(doc, current) });
         }
         const rev = await m.getRepository(RevisionEntity).save(
           m.getRepository(RevisionEntity).create({
@@ -532,15 +392,7 @@ export function revisionService(ctx: AppContext) {
           }),
         );
         await m.getRepository(DocumentEntity).update({ id: doc.id }, { publishedRevisionId: rev.id });
-        await audit(m, {
-          actorId: actor.id,
-          action: 'revision.restore',
-          subjectKind: 'revision',
-          subjectId: rev.id,
-          from: null,
-          to: 'published',
-          meta: revMeta(doc, rev, { restoredFromNumber: target.number }),
-        });
+        await audit(m, { actorId: actor.id, action: 'revision.restore', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'published', meta: revMeta(doc, rev, { restoredFromNumber: target.number }) });
         await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: 'restored' });
         return view(m, rev, { ...doc, publishedRevisionId: rev.id });
       });
@@ -556,16 +408,7 @@ export function revisionService(ctx: AppContext) {
         check(mayHide(actor, d, hide));
         const patch = hide ? { hiddenAt: new Date(), hiddenBy: actor.id, hiddenReason: reason } : { hiddenAt: null, hiddenBy: null, hiddenReason: null };
         await m.getRepository(DocumentEntity).update({ id: d.id }, patch);
-        await audit(m, {
-          actorId: actor.id,
-          action: hide ? 'document.hide' : 'document.unhide',
-          subjectKind: 'document',
-          subjectId: d.id,
-          from: hide ? 'visible' : 'hidden',
-          to: hide ? 'hidden' : 'visible',
-          reason,
-          meta: { kind, slug },
-        });
+        await audit(m, { actorId: actor.id, action: hide ? 'document.hide' : 'document.unhide', subjectKind: 'document', subjectId: d.id, from: hide ? 'visible' : 'hidden', to: hide ? 'hidden' : 'visible', reason, meta: { kind, slug } });
         await notifyDocumentChanged(m, { kind, documentId: d.id, slug, action: hide ? 'hidden' : 'unhidden' });
         return m.getRepository(DocumentEntity).findOneByOrFail({ id: d.id });
       });
@@ -619,8 +462,7 @@ export function revisionService(ctx: AppContext) {
       const m = ctx.dataSource.manager;
       const doc = await visibleDocument(m, actor, kind, slug);
       const qb = m.getRepository(RevisionEntity).createQueryBuilder('r').where('r.document_id = :doc', { doc: doc.id });
-      if (!isModerator(actor))
-        qb.andWhere('(r.state IN (:...states) OR r.author_id = :me)', { states: PUBLIC_STATES, me: actor?.id ?? '00000000-0000-0000-0000-000000000000' });
+      if (!isModerator(actor)) qb.andWhere('(r.state IN (:...states) OR r.author_id = :me)', { states: PUBLIC_STATES, me: actor?.id ?? '00000000-0000-0000-0000-000000000000' });
       const revs = await qb.orderBy('r.number', 'DESC').getMany();
       return { doc, views: await views(m, revs, [doc]) };
     },
@@ -646,9 +488,7 @@ export function revisionService(ctx: AppContext) {
       const rev = await m.getRepository(RevisionEntity).findOneBy({ id });
       if (!rev || !(isAuthor(actor, rev) || isModerator(actor))) throw notFound('That revision');
       const v = await view(m, rev);
-      const live = v.doc.publishedRevisionId
-        ? await m.getRepository(RevisionEntity).findOne({ where: { id: v.doc.publishedRevisionId }, select: { id: true, number: true } })
-        : null;
+      const live = v.doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOne({ where: { id: v.doc.publishedRevisionId }, select: { id: true, number: true } }) : null;
       return { view: v, publishedNumber: live?.number ?? null };
     },
 
@@ -674,11 +514,7 @@ export function revisionService(ctx: AppContext) {
 
     /** How many proposals this moderator can review (their own are not counted). */
     async reviewCount(actor: NonNullable<Actor>) {
-      return ctx.dataSource
-        .getRepository(RevisionEntity)
-        .createQueryBuilder('r')
-        .where("r.state = 'in_review' AND r.author_id <> :me", { me: actor.id })
-        .getCount();
+      return ctx.dataSource.getRepository(RevisionEntity).createQueryBuilder('r').where("r.state = 'in_review' AND r.author_id <> :me", { me: actor.id }).getCount();
     },
 
     /** A proposal against the live revision: diff, changed metadata and what the calculators say about its worked examples. */
@@ -688,10 +524,7 @@ export function revisionService(ctx: AppContext) {
       // Drafts are not proposals; a moderator sees them only through the author's revision routes.
       if (!rev || rev.state === 'draft') throw notFound('That proposal');
       const v = await view(m, rev);
-      const liveRev =
-        v.doc.publishedRevisionId && v.doc.publishedRevisionId !== rev.id
-          ? await m.getRepository(RevisionEntity).findOneBy({ id: v.doc.publishedRevisionId })
-          : null;
+      const liveRev = v.doc.publishedRevisionId && v.doc.publishedRevisionId !== rev.id ? await m.getRepository(RevisionEntity).findOneBy({ id: v.doc.publishedRevisionId }) : null;
       const live = liveRev ? await view(m, liveRev, v.doc) : null;
       // A waiting proposal is judged against what readers see now; one already decided, against its own base.
       const baseRev = rev.state !== 'in_review' && rev.baseRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: rev.baseRevisionId }) : null;
@@ -712,6 +545,7 @@ export function revisionService(ctx: AppContext) {
         bodyDiff: bodyDiff(before, rev.content),
         workedExamples: checkWorkedExamples(String(rev.content.body ?? '')),
         checks: await checkRevisionContent(m, v.doc.kind, rev.content, rev.setup),
+        approval: await approvalState(m, rev, v.doc),
         own: rev.authorId === actor.id,
         stale: (rev.baseRevisionId ?? null) !== (v.doc.publishedRevisionId ?? null) && rev.state === 'in_review',
       };

@@ -44,23 +44,15 @@ function SetupChangesTable({ changes }: { changes: SetupChange[] }) {
         <caption className="sr-only">Changed setup-record fields</caption>
         <thead>
           <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-            <th scope="col" className="px-3 py-2 font-semibold">
-              Field
-            </th>
-            <th scope="col" className="px-3 py-2 font-semibold">
-              Live
-            </th>
-            <th scope="col" className="px-3 py-2 font-semibold">
-              Proposed
-            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">Field</th>
+            <th scope="col" className="px-3 py-2 font-semibold">Live</th>
+            <th scope="col" className="px-3 py-2 font-semibold">Proposed</th>
           </tr>
         </thead>
         <tbody>
           {changes.map((c) => (
             <tr key={c.path} className="border-b border-paper-line">
-              <th scope="row" className="px-3 py-2 text-left font-medium">
-                {c.label ?? c.path}
-              </th>
+              <th scope="row" className="px-3 py-2 text-left font-medium">{c.label ?? c.path}</th>
               <td className="px-3 py-2 font-mono text-danger">
                 {show(c.from)} {c.unit}
               </td>
@@ -97,17 +89,19 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   const [conflict, setConflict] = useState<string | null>(null);
   const own = detail.own || revision.author.id === currentUserId;
   const waiting = revision.state === 'in_review';
+  const approvedByMe = !!detail.approval?.approvals.some((a) => a.moderator.id === currentUserId) && waiting;
 
   const handlePublish = async () => {
     try {
-      await publish.mutateAsync();
+      const res = await publish.mutateAsync();
+      if (res.approval) {
+        toast.success('Approval recorded: a second moderator has to publish it');
+        return;
+      }
       toast.success('Published: it is live now');
       navigate('/review');
     } catch (err) {
-      if (err instanceof ApiError && err.code === 'stale_base')
-        setConflict(
-          'The live version changed after this proposal was written. Return it so the author can merge their edit with the new live text; nothing they wrote is lost.',
-        );
+      if (err instanceof ApiError && err.code === 'stale_base') setConflict('The live version changed after this proposal was written. Return it so the author can merge their edit with the new live text; nothing they wrote is lost.');
       else toast.error((err as Error).message);
     }
   };
@@ -130,7 +124,11 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   return (
     <Card className="flex flex-col gap-3 p-4">
       <h2 className="text-base font-semibold">Decision</h2>
-      {!waiting && <Notice title={`This revision is ${REVISION_STATE_LABELS[revision.state].toLowerCase()}`}>It is no longer waiting for review.</Notice>}
+      {!waiting && (
+        <Notice title={`This revision is ${REVISION_STATE_LABELS[revision.state].toLowerCase()}`}>
+          It is no longer waiting for review.
+        </Notice>
+      )}
       {own && (
         <Notice tone="caution" title="This is your own revision">
           Another moderator has to review it: nobody publishes or returns their own edit.
@@ -138,18 +136,14 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
       )}
       {(conflict || (detail.stale && waiting)) && (
         <Notice tone="caution" title="Based on an older live version">
-          {conflict ??
-            'The live version changed after this proposal was written, so it cannot be published as it is. Send it back so the author can merge their edit with the new live text; nothing they wrote is lost.'}
+          {conflict ?? 'The live version changed after this proposal was written, so it cannot be published as it is. Send it back so the author can merge their edit with the new live text; nothing they wrote is lost.'}
         </Notice>
       )}
+      <SecondApproval approval={detail.approval} />
       <div className="flex flex-wrap gap-2">
-        <Button
-          onClick={handlePublish}
-          pending={publish.isPending}
-          disabled={own || !waiting || detail.stale}
-          aria-describedby={own ? 'own-revision-why' : undefined}
-        >
-          Publish
+        <Button onClick={handlePublish} pending={publish.isPending} disabled={own || !waiting || detail.stale || approvedByMe} aria-describedby={own ? 'own-revision-why' : undefined}>
+          {detail.approval?.needed === 2 && (detail.approval.approvals.length === 0 ? 'Approve (1 of 2)' : 'Approve and publish (2 of 2)')}
+          {detail.approval?.needed !== 2 && 'Publish'}
         </Button>
         <Button variant="secondary" onClick={() => setReturning(true)} disabled={own || !waiting}>
           Send back with a reason
@@ -192,24 +186,31 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   );
 }
 
+/** Why a proposal needs two moderators and who has approved it (safety-relevant baseline changes). */
+function SecondApproval({ approval }: { approval?: Detail['approval'] }) {
+  if (!approval || approval.needed !== 2) return null;
+  return (
+    <Notice tone="caution" title="Needs two moderators" className="text-sm">
+      <p>This proposal changes the baseline in a way that can damage equipment, so two different moderators must approve it:</p>
+      <ul className="my-1 list-disc pl-5" aria-label="Why two moderators">
+        {approval.rules.map((r) => (
+          <li key={`${r.rule}-${r.path}`}>{r.message}</li>
+        ))}
+      </ul>
+      <p data-testid="approvals">
+        {approval.approvals.length === 0
+          ? 'No approvals yet.'
+          : `Approved by ${approval.approvals.map((a) => `${a.moderator.displayName} (${when.format(new Date(a.at))})`).join(', ')}.`}
+      </p>
+    </Notice>
+  );
+}
+
 /** The review page: what the proposal changes against the live revision, and the decision. */
-export function ReviewDetailView({
-  revisionId,
-  currentUserId,
-  renderWorkedExample,
-}: {
-  revisionId: string;
-  currentUserId: string;
-  renderWorkedExample?: (body: string, index: number) => ReactNode;
-}) {
+export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExample }: { revisionId: string; currentUserId: string; renderWorkedExample?: (body: string, index: number) => ReactNode }) {
   const q = useQuery(reviewQueries.detail(revisionId));
   if (q.isPending) return <Spinner label="Loading the proposal…" />;
-  if (q.isError)
-    return (
-      <Notice tone="danger" title="This proposal could not be loaded">
-        {q.error.message}
-      </Notice>
-    );
+  if (q.isError) return <Notice tone="danger" title="This proposal could not be loaded">{q.error.message}</Notice>;
   const d = q.data;
   const { revision, live } = d;
   const title = String(revision.content.title ?? revision.content.name ?? 'Untitled');
@@ -245,12 +246,7 @@ export function ReviewDetailView({
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-8">
           <Section id="review-details" title="Changed details">
-            <FieldChangesTable
-              changes={d.changedFields ?? []}
-              fromLabel={liveLabel}
-              toLabel={proposedLabel}
-              caption="Fields that differ from the live version"
-            />
+            <FieldChangesTable changes={d.changedFields ?? []} fromLabel={liveLabel} toLabel={proposedLabel} caption="Fields that differ from the live version" />
           </Section>
           <Section id="review-text" title="Changed text">
             <WordDiffView changes={d.bodyDiff ?? []} fromLabel={liveLabel} toLabel={proposedLabel} />
@@ -260,9 +256,7 @@ export function ReviewDetailView({
           </Section>
           <Section id="review-warnings" title="Calculator warnings">
             {warningCount === 0 ? (
-              <p className="text-sm text-ink-soft">
-                The calculators raise no warnings on this proposal’s worked examples{d.setupChanges ? ' or setup record' : ''}.
-              </p>
+              <p className="text-sm text-ink-soft">The calculators raise no warnings on this proposal’s worked examples{d.setupChanges ? ' or setup record' : ''}.</p>
             ) : (
               <div className="flex flex-col gap-4">
                 {examples
@@ -273,11 +267,7 @@ export function ReviewDetailView({
                         Worked example {w.index + 1}
                         {w.calc ? ` · ${w.calc}` : ''}
                       </h3>
-                      {w.issues.length > 0 && (
-                        <WarningList
-                          warnings={w.issues.map((i) => ({ level: 'danger' as const, code: 'input', message: i.message, field: i.path || undefined }))}
-                        />
-                      )}
+                      {w.issues.length > 0 && <WarningList warnings={w.issues.map((i) => ({ level: 'danger' as const, code: 'input', message: i.message, field: i.path || undefined }))} />}
                       <WarningList warnings={w.warnings} />
                     </div>
                   ))}
