@@ -63,7 +63,7 @@ export function safetyRelevantChanges(live: SetupRecord | null, proposed: SetupR
     found.push({
       rule: 'taller-gearing',
       path: 'gearing.pinionTeeth',
-      message: `Makes the gearing ${fmt(((rb - ra) / ra) * 100)} % taller (rollout ${fmt(ra)} → ${fmt(rb)} mm), more than ${TALLER_GEARING_LIMIT * 100} %.`,
+      message: `Makes the gearing ${(((rb - ra) / ra) * 100).toFixed(1)} % taller (rollout ${fmt(ra)} → ${fmt(rb)} mm), more than ${TALLER_GEARING_LIMIT * 100} %.`,
     });
   }
   return found;
