@@ -203,8 +203,15 @@ describe('POST /api/calc/:name', () => {
     expect(paths(body)).toEqual(['body.unit']);
   });
 
+  it('run-time: 5,000 mAh at 20 A on 80 % is 12 minutes; a missing capacity is named', async () => {
+    const { results } = await runGood('run-time', { capacityMah: 5000, averageCurrentA: 20, raceMin: 5 });
+    expect(results.runTimeMin).toBe(12); // 4 A·h ÷ 20 A = 0.2 h (NIST SP 811: the ampere-hour; 80 % planned, common practice)
+    expect(results.maxAverageCurrentForRaceA).toBe(48); // 4 A·h ÷ (5/60) h
+    expect(paths(await runBad('run-time', { averageCurrentA: 20 }))).toEqual(['body.capacityMah']);
+  });
+
   it('covers every calculator in this file', () => {
     // Guards against a new calculator landing without API checks above.
-    expect(Object.keys(calculators).sort()).toEqual(['brake', 'gearing', 'motor', 'pack', 'temperature', 'throttle', 'timing-curve', 'top-speed']);
+    expect(Object.keys(calculators).sort()).toEqual(['brake', 'gearing', 'motor', 'pack', 'run-time', 'temperature', 'throttle', 'timing-curve', 'top-speed']);
   });
 });
