@@ -1,4 +1,4 @@
-import { unit } from 'mathjs';
+import { unit, type Unit } from 'mathjs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { computeRunTime, type RunTimeResults } from '../../../shared/calc/run-time';
@@ -8,7 +8,7 @@ describe('run-time calculator', () => {
   it('gives minutes from capacity and average current (mathjs as the oracle)', () => {
     const full = run<RunTimeResults>('run-time', { capacityMah: 5000, averageCurrentA: 20, usablePct: 100 }).results;
     // 5,000 mAh at 20 A: charge ÷ current, in minutes (NIST SP 811: the ampere-hour, 1 A·h = 3600 C)
-    expect(full.runTimeMin).toBeCloseTo(unit('5000 mA hour').divide(unit('20 A')).toNumber('minute'), 9); // 15 min
+    expect(full.runTimeMin).toBeCloseTo((unit('5000 mA hour').divide(unit('20 A')) as Unit).toNumber('minute'), 9); // 15 min
     expect(full.runTimeMin).toBeCloseTo(15, 9);
     expect(full.cRate).toBeCloseTo(4, 9); // 20 A ÷ 5 Ah: the C rate (current as a multiple of capacity in Ah; common practice)
   });
@@ -16,14 +16,14 @@ describe('run-time calculator', () => {
   it('plans on 80 % of the capacity by default', () => {
     const r = run<RunTimeResults>('run-time', { capacityMah: 5000, averageCurrentA: 20 }).results;
     expect(r.usableMah).toBe(4000); // 80 % of 5,000 mAh (common practice: keep a reserve above the cutoff)
-    expect(r.runTimeMin).toBeCloseTo(unit('4000 mA hour').divide(unit('20 A')).toNumber('minute'), 9); // 12 min, mathjs
+    expect(r.runTimeMin).toBeCloseTo((unit('4000 mA hour').divide(unit('20 A')) as Unit).toNumber('minute'), 9); // 12 min, mathjs
     expect(r.runTimeToEmptyMin).toBeCloseTo(15, 9); // the whole 5,000 mAh at 20 A (mathjs above)
   });
 
   it('gives the highest average current that lasts a race, and warns when the pack runs short', () => {
     const { results, warnings } = computeRunTime({ capacityMah: 4000, averageCurrentA: 40, usablePct: 80, raceMin: 5 });
     // 3,200 mAh over 5 minutes: charge ÷ time (mathjs)
-    expect(results.maxAverageCurrentForRaceA).toBeCloseTo(unit('3200 mA hour').divide(unit('5 minute')).toNumber('A'), 9); // 38.4 A
+    expect(results.maxAverageCurrentForRaceA).toBeCloseTo((unit('3200 mA hour').divide(unit('5 minute')) as Unit).toNumber('A'), 9); // 38.4 A
     expect(results.lastsRace).toBe(false); // 40 A > 38.4 A
     expect(warnings.map((w) => w.code)).toEqual(['short-of-race']);
     expect(warnings[0].message).toMatch(/do not lower the cutoff/);

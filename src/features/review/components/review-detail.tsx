@@ -142,7 +142,7 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
       <SecondApproval approval={detail.approval} />
       <div className="flex flex-wrap gap-2">
         <Button onClick={handlePublish} pending={publish.isPending} disabled={own || !waiting || detail.stale || approvedByMe} aria-describedby={own ? 'own-revision-why' : undefined}>
-          {detail.approval?.needed === 2 && (detail.approval.approvals.length === 0 ? 'Approve (1 of 2)' : 'Approve and publish (2 of 2)')}
+          {detail.approval?.needed === 2 && (approvedByMe ? 'Approved: waiting for a second moderator' : detail.approval.approvals.length === 0 ? 'Approve (1 of 2)' : 'Approve and publish (2 of 2)')}
           {detail.approval?.needed !== 2 && 'Publish'}
         </Button>
         <Button variant="secondary" onClick={() => setReturning(true)} disabled={own || !waiting}>
