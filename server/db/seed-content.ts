@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
+import { isDeepStrictEqual } from 'node:util';
 import matter from 'gray-matter';
 import type { DataSource, EntityManager } from 'typeorm';
 import { parameterContentSchema } from '../../shared/schemas/parameter';
@@ -33,22 +34,65 @@ export async function libraryAccount(ds: DataSource | EntityManager) {
   );
 }
 
-/** Reads and validates content/parameters/*.md; throws naming the file and field on bad content. */
-export function readParameterFiles(dir = path.join(CONTENT_DIR, 'parameters')) {
+/** One seeded version of a parameter entry: v1 is `<slug>.md`, corrections are `<slug>/v<N>.md` with an edit note. */
+export type ParameterFile = { slug: string; number: number; note: string; content: ReturnType<typeof parameterContentSchema.parse> };
+
+function parseParameterFile(file: string, label: string, fallbackSlug: string) {
+  const { data, content } = matter(fs.readFileSync(file, 'utf8'));
+  const slug = String(data.slug ?? fallbackSlug);
+  const fields = Object.fromEntries(Object.entries(data).filter(([key]) => key !== 'note'));
+  const parsed = parameterContentSchema.safeParse({ ...fields, body: content.trim() + '\n' });
+  if (!parsed.success) throw new Error(`${label}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  return { slug, note: data.note === undefined ? '' : String(data.note), content: parsed.data };
+}
+
+/**
+ * Every seeded version of every parameter entry, oldest first per entry: `<slug>.md` is version 1 and
+ * `<slug>/v2.md`, `v3.md`, … are later corrections (each naming its edit note), so the published
+ * history shows what was corrected and why.
+ */
+export function readParameterHistory(dir = path.join(CONTENT_DIR, 'parameters')): ParameterFile[][] {
   return fs
     .readdirSync(dir)
     .filter((f) => f.endsWith('.md'))
     .sort()
     .map((file) => {
-      const { data, content } = matter(fs.readFileSync(path.join(dir, file), 'utf8'));
-      const slug = String(data.slug ?? path.basename(file, '.md'));
-      const parsed = parameterContentSchema.safeParse({ ...data, body: content.trim() + '\n' });
-      if (!parsed.success) throw new Error(`${file}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
-      return { slug, content: parsed.data };
+      const first = parseParameterFile(path.join(dir, file), file, path.basename(file, '.md'));
+      const versions: ParameterFile[] = [{ ...first, number: 1, note: first.note || 'Library entry' }];
+      const later = path.join(dir, path.basename(file, '.md'));
+      if (fs.existsSync(later) && fs.statSync(later).isDirectory()) {
+        const files = fs
+          .readdirSync(later)
+          .filter((f) => /^v\d+\.md$/.test(f))
+          .sort((a, b) => Number(a.slice(1, -3)) - Number(b.slice(1, -3)));
+        files.forEach((f, i) => {
+          const label = `${path.basename(later)}/${f}`;
+          if (Number(f.slice(1, -3)) !== i + 2) throw new Error(`${label}: corrections must be numbered v2, v3, … without gaps`);
+          const next = parseParameterFile(path.join(later, f), label, first.slug);
+          if (next.slug !== first.slug) throw new Error(`${label}: slug ${next.slug} is not ${first.slug}`);
+          if (next.note.trim().length < 3) throw new Error(`${label}: a correction needs an edit note`);
+          versions.push({ ...next, number: i + 2 });
+        });
+      }
+      return versions;
     });
 }
 
-export type GuideFile = { number: number; state: 'published' | 'in_review'; author: string; note: string; content: ReturnType<typeof guideContentSchema.parse> };
+/** Reads and validates the parameter library as it is live: the latest version of each entry. */
+export function readParameterFiles(dir = path.join(CONTENT_DIR, 'parameters')) {
+  return readParameterHistory(dir).map((versions) => {
+    const { slug, content } = versions[versions.length - 1];
+    return { slug, content };
+  });
+}
+
+export type GuideFile = {
+  number: number;
+  state: 'published' | 'in_review';
+  author: string;
+  note: string;
+  content: ReturnType<typeof guideContentSchema.parse>;
+};
 
 /** Reads content/guides/<slug>/v<N>.md, in revision order. */
 export function readGuideDirs(dir = path.join(CONTENT_DIR, 'guides')) {
@@ -66,36 +110,63 @@ export function readGuideDirs(dir = path.join(CONTENT_DIR, 'guides')) {
         const parsed = guideContentSchema.safeParse({ ...data, body: content.trim() + '\n' });
         if (!parsed.success) throw new Error(`${slug}/${file}: ${parsed.error.issues.map((x) => `${x.path.join('.')}: ${x.message}`).join('; ')}`);
         if (Number(file.slice(1, -3)) !== i + 1) throw new Error(`${slug}: revision files must be numbered v1, v2, … without gaps`);
-        return { number: i + 1, state: data.state === 'in_review' ? 'in_review' : 'published', author: String(data.author), note: String(data.note ?? ''), content: parsed.data };
+        return {
+          number: i + 1,
+          state: data.state === 'in_review' ? 'in_review' : 'published',
+          author: String(data.author),
+          note: String(data.note ?? ''),
+          content: parsed.data,
+        };
       });
       return { slug, revisions };
     });
 }
 
-/** Seeds the parameter library as published revision 1 of each entry; entries that exist are left alone. */
+/**
+ * Seeds the parameter library: every version file of an entry, the last one live and the older ones
+ * archived. An entry that exists gets the versions it lacks appended (so a correction reaches a running
+ * library), but only while its latest revision is still the seeded one, word for word: an entry that
+ * moderators have edited since is left alone.
+ */
 export async function seedParameters(ds: DataSource) {
   const author = await libraryAccount(ds);
   let created = 0;
-  for (const { slug, content } of readParameterFiles()) {
+  for (const versions of readParameterHistory()) {
+    const slug = versions[0].slug;
     await ds.transaction(async (m) => {
-      if (await m.getRepository(DocumentEntity).exists({ where: { kind: 'parameter', slug } })) return;
-      const doc = await m.getRepository(DocumentEntity).save(m.getRepository(DocumentEntity).create({ kind: 'parameter', slug, createdBy: author.id }));
-      const rev = await m.getRepository(RevisionEntity).save(
-        m.getRepository(RevisionEntity).create({
-          documentId: doc.id,
-          number: 1,
-          authorId: author.id,
-          state: 'published',
-          note: 'Library entry',
-          content,
-          submittedAt: new Date(),
-          publishedAt: new Date(),
-          reviewedAt: new Date(),
-        }),
-      );
-      doc.publishedRevisionId = rev.id;
-      await m.getRepository(DocumentEntity).save(doc);
-      created++;
+      const docs = m.getRepository(DocumentEntity);
+      const revs = m.getRepository(RevisionEntity);
+      let doc = await docs.findOne({ where: { kind: 'parameter', slug }, lock: { mode: 'pessimistic_write' } });
+      let latest: RevisionEntity | null = null;
+      if (doc) {
+        latest = await revs.findOne({ where: { documentId: doc.id }, order: { number: 'DESC' } });
+        const seeded = latest && versions.find((v) => v.number === latest!.number);
+        if (!latest || !seeded || latest.state !== 'published' || !isDeepStrictEqual(latest.content, JSON.parse(JSON.stringify(seeded.content)))) return;
+        if (latest.number >= versions.length) return;
+      } else {
+        doc = await docs.save(docs.create({ kind: 'parameter', slug, createdBy: author.id }));
+        created++;
+      }
+      const now = new Date();
+      for (const v of versions.filter((x) => x.number > (latest?.number ?? 0))) {
+        if (latest) await revs.update({ id: latest.id }, { state: 'archived' });
+        latest = await revs.save(
+          revs.create({
+            documentId: doc.id,
+            number: v.number,
+            baseRevisionId: latest?.id ?? null,
+            authorId: author.id,
+            state: 'published',
+            note: v.note,
+            content: v.content,
+            submittedAt: now,
+            publishedAt: now,
+            reviewedAt: now,
+          }),
+        );
+      }
+      doc.publishedRevisionId = latest!.id;
+      await docs.save(doc);
     });
   }
   return created;
@@ -133,7 +204,7 @@ export async function seedGuides(ds: DataSource, users: Map<string, UserEntity>,
             note: r.note,
             content: r.content,
             submittedAt: when,
-            reviewedBy: state === 'in_review' ? null : reviewer?.id ?? null,
+            reviewedBy: state === 'in_review' ? null : (reviewer?.id ?? null),
             reviewedAt: state === 'in_review' ? null : new Date(when.getTime() + DAY),
             publishedAt: state === 'in_review' ? null : new Date(when.getTime() + DAY),
             createdAt: when,

@@ -3,7 +3,7 @@ import { inputObject, numberInput, optionalNumberInput } from './inputs';
 import { roundSig } from './round';
 import { defineCalculator, type CalcWarning } from './types';
 
-// Model (REFERENCES.md, common practice): at neutral the controller applies the drag brake; just past
+// Model (common practice, no source): at neutral the controller applies the drag brake; just past
 // neutral on the brake side it applies the initial brake, rising linearly to the brake strength at full
 // brake stick. Brake never falls below the drag brake once the stick leaves neutral, since letting go
 // of the brake would otherwise brake harder than holding it lightly.

@@ -3,6 +3,7 @@ import { gearingCalculator } from './gearing';
 import { toCalcIssues } from './inputs';
 import { motorCalculator } from './motor';
 import { packCalculator } from './pack';
+import { runTimeCalculator } from './run-time';
 import { temperatureCalculator } from './temperature';
 import { throttleCalculator } from './throttle';
 import { timingCurveCalculator } from './timing-curve';
@@ -19,6 +20,7 @@ export const calculators = {
   throttle: throttleCalculator,
   brake: brakeCalculator,
   temperature: temperatureCalculator,
+  'run-time': runTimeCalculator,
 } as const;
 
 /** A calculator's name. */

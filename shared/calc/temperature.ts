@@ -19,9 +19,13 @@ export type TemperatureBand = 'cool' | 'warm' | 'hot' | 'too-hot';
 export type BandLimitsC = { warmFromC: number; hotFromC: number; tooHotAboveC: number };
 
 /**
- * Band limits per part.
+ * Band limits per part. Guides and parameter entries state motor temperatures in these same words.
  * - motor: commonly kept below about 71–82 °C (160–180 °F) after a run (common practice, no source),
- *   so hot starts at 71 and too-hot above 82; warm from 55 °C (common practice, no source).
+ *   so `hot` is that window (at the usual limit: go no taller) and `too-hot` is above 82; warm from
+ *   55 °C (common practice, no source). Why a ceiling: winding insulation is rated at its hottest spot
+ *   by thermal class (IEC 60085: A 105, E 120, B 130, F 155, H 180 °C), which is inside the windings,
+ *   hotter than the can; sintered NdFeB magnets lose strength as they heat (Wikipedia, "Rare-earth
+ *   magnet", properties), for good past the grade's working temperature.
  * - esc: common practice, no source; the case runs a little cooler than a motor's can, and most
  *   controllers' own thermal cutoffs sit well above these, so they are early warnings.
  * - pack: lithium packs too hot above about 60 °C (common practice, no source); warm from 40, hot from 50.
@@ -119,7 +123,10 @@ export function computeTemperature(input: TemperatureInput) {
       code: 'hot',
       field: 'value',
       message:
-        `Hot for a ${name}: let it cool fully before the next run and find the cause ` +
+        (part === 'motor'
+          ? 'At the usual upper limit for a motor (commonly kept below about 71–82 °C / 160–180 °F after a run): go no taller on gearing or timing, '
+          : `Hot for a ${name}: `) +
+        `let it cool fully before the next run and find the cause ` +
         (part === 'pack'
           ? '(too much current for the pack, a hot day, or a tired pack). '
           : '(gearing too tall, too much timing, heavy drag brake, or a binding drivetrain). ') +

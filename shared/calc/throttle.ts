@@ -7,7 +7,7 @@ import { defineCalculator, type CalcWarning } from './types';
 //   expo ≥ 0: y = (1 − k)·x + k·x³            softer near neutral, more resolution for traction
 //   expo < 0: y = 1 − [(1 − k)(1 − x) + k(1 − x)³]  the mirror: sharper near neutral
 // Both pass through 0 and 100 %, never decrease, and stay within 0..100 % for any k in 0..1.
-// Punch (REFERENCES.md, common practice): the commanded output may rise by at most
+// Punch (common practice, no source): the commanded output may rise by at most
 // punchRatePctPerS × Δt, so a snap from 0 to full output takes 100 / rate seconds.
 
 /** Full output in less than this many ms counts as very hard punch (common practice, no source). */

@@ -4,7 +4,7 @@ import { checkEvenPoles } from './motor';
 import { clamp, roundSig } from './round';
 import { defineCalculator, type CalcWarning } from './types';
 
-// Model (see REFERENCES.md, "Timing advance"): the controller's advance in electrical degrees is
+// Model (a speed-dependent lead rising linearly between two speeds; from memory, general industrial servo-drive practice): the controller's advance in electrical degrees is
 //   total(rpm) = baseDeg + rampDeg × clamp((rpm − rampStartRpm) / (rampEndRpm − rampStartRpm), 0, 1)
 // A linear speed-dependent lead between a start and an end speed is standard drive practice (from memory).
 // The optional full-throttle step adds stepDeg on top, but only once the throttle has been held fully

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { CLASS_SLUGS, DOCUMENT_KINDS, REVISION_STATES, type DocumentKind } from '../constants';
+import { contentCheckSchema, reviewApprovalSchema } from './content-check';
 import { guideContentSchema } from './guide';
 import { parameterContentSchema } from './parameter';
 
@@ -132,6 +133,10 @@ export const reviewDetailSchema = z.object({
   bodyDiff: z.array(diffPartSchema),
   bodyDiffDetail: bodyDiffDetailSchema,
   workedExamples: z.array(workedExampleCheckSchema),
+  /** What the content checks find in the proposal and its baseline (shared/content-checks). */
+  checks: z.array(contentCheckSchema),
+  /** One moderator, or two for a safety-relevant baseline change: which rules triggered and who approved. */
+  approval: reviewApprovalSchema,
   /** Changed fields of the attached baseline setup record (null when neither side has one). */
   setupChanges: z.array(z.object({ path: z.string(), label: z.string(), unit: z.string(), from: z.unknown(), to: z.unknown() })).nullable(),
   /** Cautions the calculators raise on the proposal's setup record. */

@@ -73,7 +73,8 @@ describe('withdraw, restore and hide in Chromium', () => {
     expect(before.map((r) => [r.number, r.state])).toEqual([
       [1, 'archived'],
       [2, 'archived'],
-      [3, 'published'],
+      [3, 'archived'],
+      [4, 'published'],
     ]);
     const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const errors = watchPageErrors(owen);
@@ -83,44 +84,52 @@ describe('withdraw, restore and hide in Chromium', () => {
     await history.getByRole('table').waitFor();
     await history.getByRole('button', { name: 'Restore version 1' }).click();
     const dialog = owen.getByRole('dialog', { name: 'Restore version 1?' });
-    await dialog.getByText(/current live version 3 becomes superseded/).waitFor();
+    await dialog.getByText(/current live version 4 becomes superseded/).waitFor();
     await owen.screenshot({ path: screenshotPath('guides-restore-dialog') }); // the viewport: the dialog sits where the history is
     await dialog.getByRole('button', { name: 'Publish a copy of version 1' }).click();
-    await owen.getByText('Version 1 restored as version 4').waitFor();
-    await expect.poll(() => owen.getByTestId('version-line').textContent()).toMatch(/^Version 4, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
+    await owen.getByText('Version 1 restored as version 5').waitFor();
+    await expect
+      .poll(() => owen.getByTestId('version-line').textContent())
+      .toMatch(/^Version 5, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
 
     const after = await revisionsOf(db(), slug);
     expect(after.map((r) => [r.number, r.state, r.restoredFromNumber])).toEqual([
       [1, 'archived', null],
       [2, 'archived', null],
       [3, 'archived', null],
-      [4, 'published', 1],
+      [4, 'archived', null],
+      [5, 'published', 1],
     ]);
-    expect(after[3].content).toEqual(before[0].content);
-    expect(after[3]).toMatchObject({ authorEmail: 'owen@tidewater.test', note: 'Restored version 1', baseNumber: 3 });
-    expect((await documentOf(db(), slug)).publishedRevisionId).toBe(after[3].id);
+    expect(after[4].content).toEqual(before[0].content);
+    expect(after[4]).toMatchObject({ authorEmail: 'owen@tidewater.test', note: 'Restored version 1', baseNumber: 4 });
+    expect((await documentOf(db(), slug)).publishedRevisionId).toBe(after[4].id);
 
-    // A visitor reads version 4 with version 1's text, and sees in the line and the history what it is.
+    // A visitor reads version 5 with version 1's text, and sees in the line and the history what it is.
     const visitor = await visitorPage();
     const visitorErrors = watchPageErrors(visitor);
     await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
-    await expect.poll(() => visitor.getByTestId('version-line').textContent()).toMatch(/^Version 4, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
+    await expect
+      .poll(() => visitor.getByTestId('version-line').textContent())
+      .toMatch(/^Version 5, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
     await visitor.getByText(v1Line).first().waitFor();
-    const row4 = visitor.getByRole('region', { name: 'History' }).getByRole('row').filter({ has: visitor.getByRole('rowheader', { name: 'Version 4' }) });
-    await row4.getByText('Restores version 1').waitFor();
-    await row4.getByText('Live').waitFor();
+    const row5 = visitor
+      .getByRole('region', { name: 'History' })
+      .getByRole('row')
+      .filter({ has: visitor.getByRole('rowheader', { name: 'Version 5' }) });
+    await row5.getByText('Restores version 1').waitFor();
+    await row5.getByText('Live').waitFor();
     expect(await visitor.getByRole('button', { name: /Restore version/ }).count()).toBe(0); // readers cannot restore
-    await screenshot(visitor, 'guides-restored-v4');
+    await screenshot(visitor, 'guides-restored-v5');
     await visitor.setViewportSize(VIEWPORTS.phone);
     // On a phone the history is a list of versions, newest first, that fits the width.
     await expect.poll(() => visitor.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
     const phoneHistory = visitor.getByRole('region', { name: 'History' });
     expect(await phoneHistory.getByRole('table').count()).toBe(0);
     const items = phoneHistory.getByRole('list', { name: 'Versions of this guide, newest first' }).getByRole('listitem');
-    expect(await items.count()).toBe(4);
-    await items.first().getByRole('link', { name: 'Version 4' }).waitFor();
+    expect(await items.count()).toBe(5);
+    await items.first().getByRole('link', { name: 'Version 5' }).waitFor();
     await items.first().getByText('Restores version 1').waitFor();
-    await items.nth(3).getByRole('link', { name: 'Compare with live (version 1)' }).waitFor();
+    await items.nth(4).getByRole('link', { name: 'Compare with live (version 1)' }).waitFor();
     const tallest = await items.evaluateAll((els) => Math.max(...els.map((e) => e.getBoundingClientRect().height)));
     await phoneHistory.screenshot({ path: screenshotPath('guides-history-phone') });
     expect(tallest).toBeLessThan(320); // no column squeezed into a tower (a long edit note wraps at full width)
@@ -182,7 +191,10 @@ describe('withdraw, restore and hide in Chromium', () => {
     await visitor.setViewportSize(VIEWPORTS.desktop);
     await visitor.getByRole('link', { name: 'Browse all guides' }).click();
     await visitor.getByRole('heading', { level: 1 }).first().waitFor();
-    await visitor.getByRole('link', { name: /Stock 2WD buggy on Harbour Flats clay/ }).first().waitFor();
+    await visitor
+      .getByRole('link', { name: /Stock 2WD buggy on Harbour Flats clay/ })
+      .first()
+      .waitFor();
     expect(await visitor.getByRole('link', { name: title }).count()).toBe(0);
     await expect.poll(searchFinds, { timeout: 20_000 }).toBe(0);
 

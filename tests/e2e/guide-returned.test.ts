@@ -15,11 +15,11 @@ function linkIn(text: string) {
 
 describe('returned revision in Chromium: send back with a reason, edit, resubmit', () => {
   it('the moderator sends a proposal back; the author sees why on the workbench, in the mail and in the editor, edits and resubmits; the moderator sees the new text in the queue', async () => {
-    // Seeded: Rosa's version 3 of the stock buggy guide is waiting for review.
+    // Seeded: Rosa's version 4 of the stock buggy guide is waiting for review.
     const slug = 'stock-2wd-buggy-harbour-flats-clay';
     const title = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
     const proposal = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.state === 'in_review')!;
-    expect(proposal).toMatchObject({ authorEmail: 'rosa@tidewater.test', number: 3 });
+    expect(proposal).toMatchObject({ authorEmail: 'rosa@tidewater.test', number: 4 });
     const reason = 'The brake-curve example uses 15 % initial brake, but the checklist still says 10 %. Make them agree, and say which tyres the afternoon numbers were run on.';
 
     const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');

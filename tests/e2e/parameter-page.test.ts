@@ -109,7 +109,7 @@ describe('parameter page /parameters/ramped-advance', () => {
     const { page, errors } = await openPage('/calculators/pack?chemistry=lipo&cells=two&cutoffPerCellV=3.2');
     await expect.poll(() => page.locator('[data-field-error="cells"]').innerText()).toMatch(/Cells must be a number/);
     await page.getByLabel(/^Cells/).fill('2');
-    await expect.poll(() => page.locator('[data-result="fullV"] dd').first().innerText()).toBe('8.40 V'); // 2 × 4.20 V (REFERENCES.md)
+    await expect.poll(() => page.locator('[data-result="fullV"] dd').first().innerText()).toBe('8.40 V'); // 2 × 4.20 V (Wikipedia, "Lithium polymer battery": 4.2 V per cell full)
     expect(new URL(page.url()).searchParams.get('cells')).toBe('2');
     expect(errors).toEqual([]);
     await page.close();

@@ -42,12 +42,16 @@ describe('setup journey in Chromium', () => {
     await page.getByLabel('Class').selectOption('buggy-2wd-stock');
     await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
     const [download] = await Promise.all([page.waitForEvent('download'), table.getByRole('link', { name: /as JSON/ }).click()]);
-    expect(download.suggestedFilename()).toBe(`${GUIDE}-v2.tunewright.json`);
+    expect(download.suggestedFilename()).toBe(`${GUIDE}-v3.tunewright.json`);
     const baseline: SetupRecord = JSON.parse(fs.readFileSync(await download.path(), 'utf8'));
     expect(baseline.gearing.pinionTeeth).toBe(32);
 
     // The racer's own copy: two teeth more on the pinion, and the cutoff lowered to 2.9 V per cell.
-    const mine = { ...baseline, gearing: { ...baseline.gearing, pinionTeeth: 34 }, escSettings: { ...baseline.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } } };
+    const mine = {
+      ...baseline,
+      gearing: { ...baseline.gearing, pinionTeeth: 34 },
+      escSettings: { ...baseline.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } },
+    };
     const file = path.join(work, 'my-stock-buggy.json');
     fs.writeFileSync(file, JSON.stringify(mine, null, 2));
     await page.getByLabel('Setup file').setInputFiles(file);

@@ -79,16 +79,16 @@ describe('POST /api/calc/:name', () => {
 
   it('gearing: FDR and rollout for 84/40, 1.9 internal, 64 mm tyre', async () => {
     const { results } = await runGood('gearing', { spur: 84, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 });
-    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks (Wikipedia, "Gear train")
-    expect(results.rolloutMm).toBeCloseTo(50.39, 2); // REFERENCES.md gearing checks
-    expect(results.rolloutIn).toBeCloseTo(1.984, 3); // REFERENCES.md; 1 in = 25.4 mm (NIST SP 811, App. B)
+    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // 84/40 × 1.9 (Wikipedia, "Gear train": stage ratios multiply)
+    expect(results.rolloutMm).toBeCloseTo(50.39, 2); // π × 64 mm / 3.99 (rollout relation, common practice)
+    expect(results.rolloutIn).toBeCloseTo(1.984, 3); // 50.39 mm / 25.4 (NIST SP 811, App. B: 1 in = 25.4 mm)
     expect(results.kmhPer1000Rpm).toBeCloseTo(evaluate('1000 / minute * pi * 64 mm / 3.99').toNumber('km/h'), 3); // mathjs oracle
     expect(results.pinionSweep.length).toBeGreaterThan(5);
   });
 
   it('gearing: strings from a form are accepted; bad fields are each named', async () => {
     const { results } = await runGood('gearing', { spur: '78', pinion: '40', internalRatio: '1', tyreDiameterMm: '44' });
-    expect(results.rolloutMm).toBeCloseTo(70.89, 2); // REFERENCES.md direct-drive check vector
+    expect(results.rolloutMm).toBeCloseTo(70.89, 2); // π × 44 mm / (78/40) (rollout relation, common practice; Wikipedia, "Gear train")
     const body = await runBad('gearing', { spur: 84, pinion: 0, internalRatio: 'fast', tyreDiameterMm: 64 });
     expect(paths(body)).toEqual(expect.arrayContaining(['body.pinion', 'body.internalRatio']));
     expect(body.error.details.find((d) => d.path === 'body.pinion')!.message).toMatch(/Pinion must be at least 5/);
@@ -100,7 +100,7 @@ describe('POST /api/calc/:name', () => {
     const four = await runGood('motor', { kv: 4000, volts: 8.4, poles: 4 });
     expect(four.results.ktNmPerA).toBeCloseTo(0.0023873, 7); // Wikipedia, "Motor constants", §Motor torque constant
     expect(four.results.electricalHz).toBeCloseTo((33600 * 4) / 120, 6); // f = n·P/120, Ohio Univ. basic EE notes §14.3
-    expect(four.results.electricalRpm).toBe(67200); // electrical rpm = mechanical × pole pairs (REFERENCES.md)
+    expect(four.results.electricalRpm).toBe(67200); // electrical rpm = mechanical × pole pairs (Ohio University EE notes, ch. 14, §14.3: n = 120 f / P)
   });
 
   it('motor: an odd pole count and a missing kV are named', async () => {
@@ -118,8 +118,8 @@ describe('POST /api/calc/:name', () => {
       tyreDiameterMm: 64,
       loadFactor: 1,
     });
-    expect(results.noLoadKmh).toBeCloseTo(101.59, 2); // REFERENCES.md gearing checks (33,600 rpm, no-load)
-    expect(Math.abs(results.noLoadMph - 63.12)).toBeLessThan(0.01); // REFERENCES.md (63.12 mph, rounded there)
+    expect(results.noLoadKmh).toBeCloseTo(101.59, 2); // 33,600 rpm × π × 64 mm / 3.99 (road speed relation, common practice; no-load)
+    expect(Math.abs(results.noLoadMph - 63.12)).toBeLessThan(0.01); // 101.59 km/h / 1.609344 (NIST SP 811, Appendix B: 1 mph = 1.609344 km/h)
     expect(results.noLoadMph).toBeCloseTo(unit(results.noLoadKmh, 'km/h').toNumber('mi/h'), 3); // mathjs oracle; 1 mph = 1.609344 km/h (NIST SP 811, App. B)
     expect(warnings.map((w) => w.code)).toContain('high-speed');
   });
@@ -139,10 +139,10 @@ describe('POST /api/calc/:name', () => {
       endbellDeg: 10,
       poles: 4,
     });
-    expect(results.totalDegAt).toBe(15); // REFERENCES.md "Timing advance" linear-ramp model (from memory)
-    expect(results.endbellElectricalDeg).toBe(20); // mechanical × pole pairs = electrical (REFERENCES.md)
+    expect(results.totalDegAt).toBe(15); // half of a lead rising linearly between two speeds (from memory; general industrial servo-drive practice)
+    expect(results.endbellElectricalDeg).toBe(20); // mechanical × pole pairs = electrical (Ohio University EE notes, ch. 14, §14.3)
     const last = results.points.at(-1);
-    expect(last.deg).toBe(30); // at and above the end rpm the full ramp applies (REFERENCES.md model)
+    expect(last.deg).toBe(30); // at and above the end speed the full lead applies (from memory; general industrial servo-drive practice)
   });
 
   it('timing-curve: a ramp end below its start is named', async () => {
@@ -152,9 +152,9 @@ describe('POST /api/calc/:name', () => {
 
   it('pack: 2S LiPo is 8.40 V full, 7.40 V nominal, 6.40 V at 3.2 V/cell, with the lithium caution', async () => {
     const { results, warnings } = await runGood('pack', { chemistry: 'LiPo', cells: 2, cutoffPerCellV: 3.2 });
-    expect(results.fullV).toBeCloseTo(8.4, 6); // REFERENCES.md pack checks; Wikipedia "Lithium polymer battery" (4.2 V/cell)
-    expect(results.nominalV).toBeCloseTo(7.4, 6); // REFERENCES.md pack checks (3.7 V/cell nominal)
-    expect(results.cutoffV).toBeCloseTo(6.4, 6); // REFERENCES.md pack checks (3.2 V/cell × 2)
+    expect(results.fullV).toBeCloseTo(8.4, 6); // 2 × 4.20 V (Wikipedia, "Lithium polymer battery": 4.2 V per cell full)
+    expect(results.nominalV).toBeCloseTo(7.4, 6); // 2 × 3.7 V (Wikipedia, "Lithium polymer battery": 3.7 V nominal)
+    expect(results.cutoffV).toBeCloseTo(6.4, 6); // 2 × 3.2 V (common practice: LiPo cutoff 3.0–3.4 V per cell)
     expect(warnings.map((w) => w.code)).toContain('lithium-care');
   });
 
@@ -168,7 +168,7 @@ describe('POST /api/calc/:name', () => {
   it('throttle: linear curve passes the stick through; 400 %/s takes 250 ms to full', async () => {
     const { results } = await runGood('throttle', { expoPct: 0, punchRatePctPerS: 400, inputPct: 50 });
     expect(results.outputPctAt).toBe(50); // common practice, no source: 0 expo is a straight line
-    expect(results.rampTimeMs).toBe(250); // REFERENCES.md punch relation: 100 % / 400 %/s = 0.25 s
+    expect(results.rampTimeMs).toBe(250); // 100 % / 400 %/s = 0.25 s (common practice, no source: punch as a rate limit)
   });
 
   it('throttle: expo beyond ±100 % is named', async () => {
@@ -178,8 +178,8 @@ describe('POST /api/calc/:name', () => {
 
   it('brake: drag brake at neutral, brake strength at full stick', async () => {
     const { results } = await runGood('brake', { dragBrakePct: 10, initialBrakePct: 15, brakeStrengthPct: 80, brakeStickPct: 100 });
-    expect(results.atNeutralPct).toBe(10); // REFERENCES.md: drag brake is the brake applied at neutral (common practice)
-    expect(results.brakeAtStickPct).toBe(80); // REFERENCES.md: brake strength is the brake at full brake stick
+    expect(results.atNeutralPct).toBe(10); // common practice, no source: drag brake is the brake applied at neutral
+    expect(results.brakeAtStickPct).toBe(80); // common practice, no source: brake strength is the brake at full brake stick
     expect(typeof results.neutralFeel).toBe('string');
   });
 
@@ -203,8 +203,15 @@ describe('POST /api/calc/:name', () => {
     expect(paths(body)).toEqual(['body.unit']);
   });
 
+  it('run-time: 5,000 mAh at 20 A on 80 % is 12 minutes; a missing capacity is named', async () => {
+    const { results } = await runGood('run-time', { capacityMah: 5000, averageCurrentA: 20, raceMin: 5 });
+    expect(results.runTimeMin).toBe(12); // 4 A·h ÷ 20 A = 0.2 h (NIST SP 811: the ampere-hour; 80 % planned, common practice)
+    expect(results.maxAverageCurrentForRaceA).toBe(48); // 4 A·h ÷ (5/60) h
+    expect(paths(await runBad('run-time', { averageCurrentA: 20 }))).toEqual(['body.capacityMah']);
+  });
+
   it('covers every calculator in this file', () => {
     // Guards against a new calculator landing without API checks above.
-    expect(Object.keys(calculators).sort()).toEqual(['brake', 'gearing', 'motor', 'pack', 'temperature', 'throttle', 'timing-curve', 'top-speed']);
+    expect(Object.keys(calculators).sort()).toEqual(['brake', 'gearing', 'motor', 'pack', 'run-time', 'temperature', 'throttle', 'timing-curve', 'top-speed']);
   });
 });

@@ -62,8 +62,8 @@ describe('GET /api/guides/:slug/setup', () => {
     expect(res.status).toBe(200);
     const record: SetupRecord = res.body.data;
     expect(record.format).toBe('tunewright.setup');
-    expect(record.gearing.pinionTeeth).toBe(32); // v2 is live (v3 is in review)
-    expect(record.provenance).toMatchObject({ guideSlug: GUIDE, revisionNumber: 2, authorDisplayName: 'Rosa Kittering' });
+    expect(record.gearing.pinionTeeth).toBe(32); // v3 is live (v4 is in review)
+    expect(record.provenance).toMatchObject({ guideSlug: GUIDE, revisionNumber: 3, authorDisplayName: 'Rosa Kittering' });
     expect(res.body.meta.computed.gearing.finalDriveRatio).toBe(computeSetup(record).gearing!.finalDriveRatio);
   });
 
@@ -78,7 +78,7 @@ describe('GET /api/guides/:slug/setup.json and setup.csv', () => {
     const res = await createClient(t.app).get(`/api/guides/${GUIDE}/setup.json`);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^application\/json/);
-    expect(res.headers['content-disposition']).toBe(`attachment; filename="${GUIDE}-v2.tunewright.json"; filename*=UTF-8''${GUIDE}-v2.tunewright.json`);
+    expect(res.headers['content-disposition']).toBe(`attachment; filename="${GUIDE}-v3.tunewright.json"; filename*=UTF-8''${GUIDE}-v3.tunewright.json`);
   });
 
   it('downloads CSV that csv-parse reads to the same values as the JSON', async () => {
@@ -86,7 +86,7 @@ describe('GET /api/guides/:slug/setup.json and setup.csv', () => {
     const json: SetupRecord = JSON.parse((await client.get(`/api/guides/${GUIDE}/setup.json`)).text);
     const res = await client.get(`/api/guides/${GUIDE}/setup.csv`);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
-    expect(res.headers['content-disposition']).toContain(`filename="${GUIDE}-v2.tunewright.csv"`);
+    expect(res.headers['content-disposition']).toContain(`filename="${GUIDE}-v3.tunewright.csv"`);
     const rows: { path: string; value: string; unit: string; source: string }[] = parse(res.text, { columns: true });
     const value = (p: string) => rows.find((r) => r.path === p)?.value;
     expect(value('gearing.spurTeeth')).toBe(String(json.gearing.spurTeeth));
@@ -105,7 +105,7 @@ describe('POST /api/setups round trip', () => {
   it('export JSON → import gives the same record', async () => {
     const { client } = await signedInClient(t);
     const exported = (await client.get(`/api/guides/${GUIDE}/setup.json`)).text;
-    const res = await upload(client, { name: `${GUIDE}-v2.tunewright.json`, body: exported });
+    const res = await upload(client, { name: `${GUIDE}-v3.tunewright.json`, body: exported });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.data.record).toEqual(JSON.parse(exported));
   });
@@ -235,7 +235,7 @@ describe('GET /api/setups', () => {
     const published = Number((await t.db.dataSource.query("SELECT count(*)::int AS n FROM documents WHERE kind = 'guide' AND published_revision_id IS NOT NULL"))[0].n);
     expect(res.body.data.baselines).toHaveLength(published);
     const stock = res.body.data.baselines.find((b: { guideSlug: string }) => b.guideSlug === GUIDE);
-    expect(stock).toMatchObject({ revisionNumber: 2, summary: { class: 'buggy-2wd-stock', surface: 'clay', finalDriveRatio: 6.825 } });
+    expect(stock).toMatchObject({ revisionNumber: 3, summary: { class: 'buggy-2wd-stock', surface: 'clay', finalDriveRatio: 6.825 } });
   });
 
   it("lists a member's own uploads and nobody else's", async () => {

@@ -24,6 +24,8 @@ import {
 import { defineRoute, type RouteDef } from '../../lib/route';
 import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentReadableRevision, presentReviewItem, presentRevision } from './presenter';
 import { revisionService } from './service';
+import { checkRevisionContent } from './checks';
+import { contentCheckSchema, reviewApprovalSchema } from '../../../shared/schemas/content-check';
 
 const revisionIdParam = z.object({ id: z.uuid({ message: 'Must be a revision id' }) });
 const reviewIdParam = z.object({ revisionId: z.uuid({ message: 'Must be a revision id' }) });
@@ -137,10 +139,11 @@ export const revisionRoutes: RouteDef[] = [
     access: 'member',
     owner: { resource: 'revision', rule: 'owner-or-moderator' },
     params: revisionIdParam,
-    response: revisionEnvelope.extend({ document: documentStatusSchema }),
+    response: revisionEnvelope.extend({ document: documentStatusSchema, checks: z.array(contentCheckSchema) }),
     handler: async ({ params, user, ctx }) => {
       const { view, publishedNumber } = await revisionService(ctx).getRevision(user, params.id);
-      return { data: { revision: presentRevision(view), document: presentDocumentStatus(view.doc, publishedNumber) } };
+      const checks = await checkRevisionContent(ctx.dataSource, view.doc.kind, view.rev.content, view.rev.setup);
+      return { data: { revision: presentRevision(view), document: presentDocumentStatus(view.doc, publishedNumber), checks } };
     },
   }),
   defineRoute({
@@ -153,8 +156,12 @@ export const revisionRoutes: RouteDef[] = [
     params: revisionIdParam,
     // The fields depend on the document kind; the service validates them against its content schema.
     body: z.record(z.string(), z.unknown()),
-    response: revisionEnvelope,
-    handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).updateDraft(user!, params.id, body)) } }),
+    response: revisionEnvelope.extend({ checks: z.array(contentCheckSchema) }),
+    handler: async ({ params, body, user, ctx }) => {
+      // The checks run on every save, so the editor lists them as the author writes.
+      const view = await revisionService(ctx).updateDraft(user!, params.id, body);
+      return { data: { revision: presentRevision(view), checks: await checkRevisionContent(ctx.dataSource, view.doc.kind, view.rev.content, view.rev.setup) } };
+    },
   }),
   defineRoute({
     method: 'post',
@@ -247,6 +254,8 @@ export const revisionRoutes: RouteDef[] = [
           bodyDiff: r.bodyDiff,
           bodyDiffDetail: r.bodyDiffDetail,
           workedExamples: r.workedExamples,
+          checks: r.checks,
+          approval: r.approval,
           setupChanges: r.setupChanges,
           setupWarnings: r.setupWarnings,
           own: r.own,
@@ -258,13 +267,18 @@ export const revisionRoutes: RouteDef[] = [
   defineRoute({
     method: 'post',
     path: '/api/reviews/:revisionId/publish',
-    summary: 'Publish a proposal (not your own); the previous live revision is superseded',
+    summary:
+      'Publish a proposal (not your own); the previous live revision is superseded. A safety-relevant baseline change needs two different moderators: the first call answers 202 with the approval recorded and the revision still in review',
     tags: ['reviews'],
     access: 'moderator',
     owner: { resource: 'revision', rule: 'not-owner' },
     params: reviewIdParam,
-    response: revisionEnvelope,
-    handler: async ({ params, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).publish(user!, params.revisionId)) } }),
+    response: revisionEnvelope.extend({ approval: reviewApprovalSchema.optional() }),
+    handler: async ({ params, user, ctx }) => {
+      const result = await revisionService(ctx).publish(user!, params.revisionId);
+      if (result.approval) return { status: 202, data: { revision: presentRevision(result), approval: result.approval } };
+      return { data: { revision: presentRevision(result) } };
+    },
   }),
   defineRoute({
     method: 'post',

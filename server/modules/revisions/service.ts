@@ -34,6 +34,9 @@ import {
 import { presentRevision, titleOf, type RevisionView } from './presenter';
 import { publishedCache } from './read-cache';
 import { RevisionEntity } from './revision.entity';
+import { hasBlockingChecks } from '../../../shared/content-checks/run';
+import { checkRevisionContent, contentCheckFailed } from './checks';
+import { approvalState, approveOrPublish, clearApprovals, type ApprovalState } from './approvals';
 
 type Content = Record<string, unknown>;
 
@@ -293,8 +296,11 @@ export function revisionService(ctx: AppContext) {
       return inRevisionTx(id, async (m, rev, doc) => {
         check(maySubmit(actor, rev));
         const content = parseContent(doc.kind, rev.content, 'content');
+        const checks = await checkRevisionContent(m, doc.kind, content, rev.setup);
+        if (hasBlockingChecks(checks)) throw contentCheckFailed(checks);
         await assertFreshBase(m, rev, doc);
         const from = rev.state;
+        await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'in_review', note, content, submittedAt: new Date(), reason: null, reviewedBy: null, reviewedAt: null } as QueryDeepPartialEntity<RevisionEntity>);
         await audit(m, { actorId: actor.id, action: 'revision.submit', subjectKind: 'revision', subjectId: id, from, to: 'in_review', meta: revMeta(doc, rev, { note }) });
         const v = await reload(m, id, doc);
@@ -307,17 +313,24 @@ export function revisionService(ctx: AppContext) {
     async withdraw(actor: NonNullable<Actor>, id: string) {
       return inRevisionTx(id, async (m, rev, doc) => {
         check(mayWithdraw(actor, rev));
+        await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'draft', submittedAt: null });
         await audit(m, { actorId: actor.id, action: 'revision.withdraw', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'draft', meta: revMeta(doc, rev) });
         return reload(m, id, doc);
       });
     },
 
-    /** in_review → published by another moderator; the previous live revision becomes archived. */
-    async publish(actor: NonNullable<Actor>, id: string) {
+    /**
+     * in_review → published by another moderator; the previous live revision becomes archived. A
+     * safety-relevant proposal needs two different moderators: the first call records an approval and
+     * leaves it in review (`approval` is then set), the second publishes.
+     */
+    async publish(actor: NonNullable<Actor>, id: string): Promise<RevisionView & { approval: ApprovalState | null }> {
       const v = await inRevisionTx(id, async (m, rev, doc) => {
         check(mayReview(actor, rev));
         await assertFreshBase(m, rev, doc);
+        const gate = await approveOrPublish(m, actor.id, rev, doc);
+        if (!gate.publish) return { ...(await reload(m, id, doc)), approval: gate.state };
         const now = new Date();
         const previousId = doc.publishedRevisionId;
         if (previousId) {
@@ -338,9 +351,9 @@ export function revisionService(ctx: AppContext) {
             m,
           );
         }
-        return fresh;
+        return { ...fresh, approval: null };
       });
-      afterCommit(v.doc);
+      if (!v.approval) afterCommit(v.doc);
       return v;
     },
 
@@ -348,6 +361,7 @@ export function revisionService(ctx: AppContext) {
     async returnRevision(actor: NonNullable<Actor>, id: string, reason: string) {
       return inRevisionTx(id, async (m, rev, doc) => {
         check(mayReview(actor, rev));
+        await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'returned', reason, reviewedBy: actor.id, reviewedAt: new Date() });
         await audit(m, { actorId: actor.id, action: 'revision.return', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'returned', reason, meta: revMeta(doc, rev) });
         const fresh = await reload(m, id, doc);
@@ -549,6 +563,8 @@ export function revisionService(ctx: AppContext) {
         bodyDiff: diff.parts,
         bodyDiffDetail: diff.detail,
         workedExamples: checkWorkedExamples(String(rev.content.body ?? '')),
+        checks: await checkRevisionContent(m, v.doc.kind, rev.content, rev.setup),
+        approval: await approvalState(m, rev, v.doc),
         own: rev.authorId === actor.id,
         stale: (rev.baseRevisionId ?? null) !== (v.doc.publishedRevisionId ?? null) && rev.state === 'in_review',
       };

@@ -2,13 +2,7 @@ import convert from 'convert-units';
 import fc from 'fast-check';
 import { evaluate, unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import {
-  computeGearing,
-  finalDriveRatio,
-  gearingCalculator,
-  gearingInput,
-  type GearingResults,
-} from '../../../shared/calc/gearing';
+import { computeGearing, gearingCalculator, gearingInput, type GearingResults } from '../../../shared/calc/gearing';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
 describe('gearing calculator', () => {
@@ -19,11 +13,11 @@ describe('gearing calculator', () => {
       internalRatio: 1.9,
       tyreDiameterMm: 64,
     });
-    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks; stage ratio relation, Wikipedia "Gear train"
-    expect(results.tyreCircumferenceMm).toBeCloseTo(201.06, 2); // REFERENCES.md gearing checks (π × 64 mm)
+    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // 84/40 × 1.9 (Wikipedia, "Gear train": stage ratios multiply)
+    expect(results.tyreCircumferenceMm).toBeCloseTo(201.06, 2); // π × 64 mm (circumference of a circle)
     expectRelClose(results.tyreCircumferenceMm, evaluate('pi * 64 mm').toNumber('mm'), DISPLAY_REL); // mathjs oracle
-    expect(results.rolloutMm).toBeCloseTo(50.39, 2); // REFERENCES.md gearing checks
-    expect(results.rolloutIn).toBeCloseTo(1.984, 3); // REFERENCES.md gearing checks
+    expect(results.rolloutMm).toBeCloseTo(50.39, 2); // 201.06 mm / 3.99 (rollout = π × tyre / FDR, common practice)
+    expect(results.rolloutIn).toBeCloseTo(1.984, 3); // 50.39 mm / 25.4 (NIST SP 811, Appendix B: 1 in = 25.4 mm)
     expectRelClose(results.rolloutIn, convert(results.rolloutMm).from('mm').to('in'), DISPLAY_REL); // convert-units oracle
     // 1 in = 25.4 mm exactly: NIST SP 811, Appendix B; mathjs as oracle
     expectRelClose(results.rolloutIn, unit(results.rolloutMm, 'mm').toNumber('inch'), DISPLAY_REL);
@@ -33,9 +27,9 @@ describe('gearing calculator', () => {
 
   it('matches the direct-drive 78/40, 44 mm check vector', () => {
     const { results } = run<GearingResults>('gearing', { spur: 78, pinion: 40, internalRatio: 1, tyreDiameterMm: 44 });
-    expect(results.finalDriveRatio).toBeCloseTo(1.95, 6); // REFERENCES.md gearing checks
-    expect(results.rolloutMm).toBeCloseTo(70.89, 2); // REFERENCES.md gearing checks
-    expect(results.rolloutIn).toBeCloseTo(2.791, 3); // REFERENCES.md gearing checks
+    expect(results.finalDriveRatio).toBeCloseTo(1.95, 6); // 78/40 × 1, direct drive (Wikipedia, "Gear train": stage ratios multiply)
+    expect(results.rolloutMm).toBeCloseTo(70.89, 2); // π × 44 mm / 1.95 (rollout relation, common practice)
+    expect(results.rolloutIn).toBeCloseTo(2.791, 3); // 70.89 mm / 25.4 (NIST SP 811, Appendix B)
     expectRelClose(results.rolloutIn, convert(results.rolloutMm).from('mm').to('in'), DISPLAY_REL); // convert-units oracle
   });
 
@@ -46,7 +40,7 @@ describe('gearing calculator', () => {
       internalRatio: '1.9',
       tyreDiameterMm: '64',
     });
-    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks
+    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // 84/40 × 1.9 (Wikipedia, "Gear train": stage ratios multiply)
   });
 
   it('sweeps six pinions either side, with the chosen pinion matching the main result', () => {
@@ -61,8 +55,8 @@ describe('gearing calculator', () => {
 
   it('keeps the sweep inside the pinion limits', () => {
     const { results } = computeGearing({ spur: 40, pinion: 7, internalRatio: 1, tyreDiameterMm: 64 });
-    expect(results.pinionSweep[0].pinion).toBe(5);
-    expect(results.pinionSweep.at(-1)!.pinion).toBe(13);
+    expect(results.pinionSweep[0].pinion).toBe(5); // the input's own lower limit for a pinion (our design, not a physical value)
+    expect(results.pinionSweep.at(-1)!.pinion).toBe(13); // 7 + 6 teeth either side (our design, not a physical value)
   });
 
   it('cautions about motor heat on very tall gearing and defers to the makers', () => {
@@ -108,7 +102,8 @@ describe('gearing calculator', () => {
         (spur, pinion, internalRatio, tyreDiameterMm) => {
           const r = computeGearing({ spur, pinion, internalRatio, tyreDiameterMm }).results;
           expectRelClose(r.rolloutMm * r.finalDriveRatio, Math.PI * tyreDiameterMm, 2 * DISPLAY_REL);
-          expectRelClose(r.finalDriveRatio, finalDriveRatio(spur, pinion, internalRatio), DISPLAY_REL);
+          // mathjs evaluating the gear-train relation (Wikipedia, "Gear train": stage ratios multiply)
+          expectRelClose(r.finalDriveRatio, evaluate('spur / pinion * internalRatio', { spur, pinion, internalRatio }), DISPLAY_REL);
         },
       ),
     );
@@ -120,12 +115,10 @@ describe('gearing calculator', () => {
     expect(issueAt(issues, 'pinion').message).toBe('Pinion must be at least 5 teeth');
     expect(issueAt(issues, 'internalRatio').message).toBe('Internal ratio must be a number (got "two")');
     expect(issueAt(issues, 'tyreSize').message).toMatch(/Unknown field "tyreSize"/);
-    expect(
-      issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
-    ).toBe('Spur must be a whole number');
-    expect(
-      issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
-    ).toBe('Spur is required');
+    expect(issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe(
+      'Spur must be a whole number',
+    );
+    expect(issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe('Spur is required');
   });
 
   it('exposes a schema, fields and defaults that agree', () => {

@@ -44,8 +44,8 @@ describe('motor calculator', () => {
   it('gives electrical rpm as mechanical rpm × pole pairs', () => {
     const { results } = run<MotorResults>('motor', { kv: 4000, volts: 8.4, poles: 4 });
     expect(results.polePairs).toBe(2);
-    expect(results.noLoadRpm).toBe(33_600); // REFERENCES.md gearing checks: 4000 rpm/V × 8.4 V
-    expect(results.electricalRpm).toBe(67_200); // REFERENCES.md "Motor": electrical rpm = mechanical rpm × pole pairs
+    expect(results.noLoadRpm).toBe(33_600); // 4000 rpm/V × 8.4 V (Wikipedia, "Motor constants": no-load rpm ≈ Kv × V)
+    expect(results.electricalRpm).toBe(67_200); // electrical rpm = mechanical rpm × pole pairs (Ohio University EE notes, ch. 14, §14.3: n = 120 f / P)
     // mathjs oracle: electrical rpm / 60 is the electrical frequency in Hz
     expectRelClose(results.electricalHz, evaluate('67200 / minute').toNumber('Hz'), DISPLAY_REL);
   });

@@ -9,7 +9,7 @@ describe('pack calculator', () => {
     const { results } = run<PackResults>('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 3.2 });
     expect(results.fullV).toBeCloseTo(8.4, 9); // Wikipedia, "Lithium polymer battery": 4.2 V per cell full; race rules 8.40 V for 2S
     expect(results.nominalV).toBeCloseTo(7.4, 9); // Wikipedia, "Lithium polymer battery": 3.7 V nominal; 7.4 V 2S, common practice
-    expect(results.cutoffV).toBeCloseTo(6.4, 9); // REFERENCES.md pack checks: 3.2 V/cell cutoff → 6.40 V
+    expect(results.cutoffV).toBeCloseTo(6.4, 9); // 2 × 3.2 V (common practice: a LiPo cutoff of 3.0–3.4 V per cell, set per cell, times cells in series)
     expect(results.storageV).toBeCloseTo(7.6, 9); // Battery University BU-303: storage near 3.8 V per cell
     expect(results.cutoffWindowV.min).toBeCloseTo(6.0, 9); // common practice, no source: 3.0–3.4 V per cell
     expect(results.cutoffWindowV.max).toBeCloseTo(6.8, 9); // common practice, no source

@@ -41,10 +41,11 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
     results: ['atNeutralPct', 'points', 'neutralFeel'],
   },
   temperature: { inputs: ['value', 'unit', 'part'], results: ['c', 'f', 'band'] },
+  'run-time': { inputs: ['capacityMah', 'averageCurrentA', 'usablePct', 'raceMin'], results: ['usableMah', 'runTimeMin', 'runTimeToEmptyMin', 'cRate'] },
 };
 
 describe('calculator registry', () => {
-  it('holds exactly the eight calculators of the content spec', () => {
+  it('holds exactly the calculators of the contract', () => {
     expect([...calculatorNames].sort()).toEqual(Object.keys(contract).sort());
     for (const name of calculatorNames) expect(calculators[name].name).toBe(name);
     expect(getCalculator('gearing')).toBe(calculators.gearing);

@@ -1,5 +1,4 @@
 import fc from 'fast-check';
-import { evaluate } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { computeThrottle, throttleOutputPct, type ThrottleResults } from '../../../shared/calc/throttle';
 import { issueAt, rejected, run } from './helpers';
@@ -11,47 +10,52 @@ describe('throttle calculator', () => {
     for (const p of results.points) expect(p.outputPct).toBeCloseTo(p.inputPct, 9);
   });
 
-  it('follows the documented cubic blend (mathjs evaluating the same expression)', () => {
-    // y = (1 − k)x + k x³ with k = 0.4, x = 0.5 — the curve documented in shared/calc/throttle.ts
-    expect(throttleOutputPct(50, 40)).toBeCloseTo(evaluate('100 * ((1 - 0.4) * 0.5 + 0.4 * 0.5^3)'), 9);
-    expect(throttleOutputPct(50, 100)).toBeCloseTo(12.5, 9);
-    // the negative side is the mirror image: y(−e, x) = 100 − y(e, 100 − x)
-    expect(throttleOutputPct(30, -60)).toBeCloseTo(100 - throttleOutputPct(70, 60), 9);
+  it('softens the bottom end for positive expo and sharpens it for negative, ending at 0 and 100 % (property)', () => {
+    // Our convention (the throttle-curve entry): positive expo is softer near neutral, so the output sits
+    // under the straight line for every stick position strictly between neutral and full; negative sits
+    // over it. Either way the curve starts at 0, ends at 100 % and never falls (common practice, no source).
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 100 }), fc.double({ min: 1, max: 99, noNaN: true }), (expo, stick) => {
+        expect(throttleOutputPct(stick, expo)).toBeLessThan(stick);
+        expect(throttleOutputPct(stick, -expo)).toBeGreaterThan(stick);
+        expect(throttleOutputPct(0, expo)).toBe(0);
+        expect(throttleOutputPct(100, -expo)).toBeCloseTo(100, 9);
+      }),
+    );
+  });
+
+  it('bends further from the straight line as expo grows, and negative expo mirrors positive (property)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 99 }), fc.double({ min: 1, max: 99, noNaN: true }), (expo, stick) => {
+        expect(throttleOutputPct(stick, expo + 1)).toBeLessThan(throttleOutputPct(stick, expo));
+        // the sharp curve is the soft one turned end for end: y(−e, x) = 100 − y(e, 100 − x)
+        expect(throttleOutputPct(stick, -expo)).toBeCloseTo(100 - throttleOutputPct(100 - stick, expo), 9);
+      }),
+    );
   });
 
   it('times the punch ramp from the rate limit out[n+1] ≤ out[n] + rate × Δt', () => {
-    // REFERENCES.md "Throttle and brake" (common practice): 100 % at 400 %/s takes 0.25 s
-    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 400 }).results.rampTimeMs).toBeCloseTo(
-      250,
-      9,
-    );
-    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 1000 }).results.rampTimeMs).toBeCloseTo(
-      100,
-      9,
-    );
+    // common practice, no source: punch as a rate limit, out[n+1] ≤ out[n] + rate × Δt, so 100 % at 400 %/s takes 0.25 s
+    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 400 }).results.rampTimeMs).toBeCloseTo(250, 9);
+    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 1000 }).results.rampTimeMs).toBeCloseTo(100, 9);
     const half = computeThrottle({ expoPct: 0, punchRatePctPerS: 400, inputPct: 50 }).results;
     expect(half.rampTimeToOutputMs).toBeCloseTo(125, 9); // 50 % at 400 %/s
   });
 
   it('never lets the step response rise faster than the punch rate and settles on the target', () => {
     fc.assert(
-      fc.property(
-        fc.integer({ min: -100, max: 100 }),
-        fc.integer({ min: 10, max: 10_000 }),
-        fc.integer({ min: 1, max: 100 }),
-        (expoPct, rate, inputPct) => {
-          const r = computeThrottle({ expoPct, punchRatePctPerS: rate, inputPct }).results;
-          for (let i = 1; i < r.stepResponse.length; i++) {
-            const dt = (r.stepResponse[i].timeMs - r.stepResponse[i - 1].timeMs) / 1000;
-            const rise = r.stepResponse[i].outputPct - r.stepResponse[i - 1].outputPct;
-            // Displayed values carry 5 significant figures (relative error ≤ 5e-5 each), hence the slack.
-            const slack = 1e-4 * 100 + (rate * 1e-4 * r.stepResponse[i].timeMs) / 1000;
-            expect(rise).toBeLessThanOrEqual(rate * dt + slack);
-            expect(rise).toBeGreaterThanOrEqual(0);
-          }
-          expect(r.stepResponse.at(-1)!.outputPct).toBeCloseTo(r.outputPctAt!, 2);
-        },
-      ),
+      fc.property(fc.integer({ min: -100, max: 100 }), fc.integer({ min: 10, max: 10_000 }), fc.integer({ min: 1, max: 100 }), (expoPct, rate, inputPct) => {
+        const r = computeThrottle({ expoPct, punchRatePctPerS: rate, inputPct }).results;
+        for (let i = 1; i < r.stepResponse.length; i++) {
+          const dt = (r.stepResponse[i].timeMs - r.stepResponse[i - 1].timeMs) / 1000;
+          const rise = r.stepResponse[i].outputPct - r.stepResponse[i - 1].outputPct;
+          // Displayed values carry 5 significant figures (relative error ≤ 5e-5 each), hence the slack.
+          const slack = 1e-4 * 100 + (rate * 1e-4 * r.stepResponse[i].timeMs) / 1000;
+          expect(rise).toBeLessThanOrEqual(rate * dt + slack);
+          expect(rise).toBeGreaterThanOrEqual(0);
+        }
+        expect(r.stepResponse.at(-1)!.outputPct).toBeCloseTo(r.outputPctAt!, 2);
+      }),
     );
   });
 
@@ -78,8 +82,7 @@ describe('throttle calculator', () => {
         const { points } = computeThrottle({ expoPct: expo, punchRatePctPerS: 400 }).results;
         expect(points[0].outputPct).toBe(0);
         expect(points.at(-1)!.outputPct).toBeCloseTo(100, 9);
-        for (let i = 1; i < points.length; i++)
-          expect(points[i].outputPct).toBeGreaterThanOrEqual(points[i - 1].outputPct);
+        for (let i = 1; i < points.length; i++) expect(points[i].outputPct).toBeGreaterThanOrEqual(points[i - 1].outputPct);
       }),
     );
   });
@@ -97,8 +100,6 @@ describe('throttle calculator', () => {
     expect(issueAt(issues, 'expoPct').message).toBe('Throttle curve (expo) must be at least -100%');
     expect(issueAt(issues, 'punchRatePctPerS').message).toBe('Punch rate is required');
     expect(issueAt(issues, 'punch').message).toMatch(/Did you mean "punchRatePctPerS"/);
-    expect(
-      issueAt(rejected('throttle', { expoPct: 0, punchRatePctPerS: 400, inputPct: 101 }), 'inputPct').message,
-    ).toBe('Stick position must be at most 100%');
+    expect(issueAt(rejected('throttle', { expoPct: 0, punchRatePctPerS: 400, inputPct: 101 }), 'inputPct').message).toBe('Stick position must be at most 100%');
   });
 });

@@ -19,9 +19,9 @@ describe('top-speed calculator', () => {
   it('matches the 33,600 rpm, 84/40, 1.9, 64 mm check vector', () => {
     const { results } = run<TopSpeedResults>('top-speed', checkVector);
     expect(results.noLoadRpm).toBe(33_600); // Wikipedia, "Motor constants": no-load speed ≈ Kv × V
-    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks
-    expect(results.noLoadKmh).toBeCloseTo(101.59, 2); // REFERENCES.md gearing checks
-    expectRelClose(results.noLoadMph, 63.12, 1e-3); // REFERENCES.md gearing checks (63.12 there is 63.1248… cut to 2 decimals)
+    expect(results.finalDriveRatio).toBeCloseTo(3.99, 6); // 84/40 × 1.9 (Wikipedia, "Gear train": stage ratios multiply)
+    expect(results.noLoadKmh).toBeCloseTo(101.59, 2); // 33,600 rpm × π × 64 mm / 3.99 × 60 / 10⁶ (road speed relation, common practice; no-load)
+    expectRelClose(results.noLoadMph, 63.12, 1e-3); // 101.59 km/h / 1.609344 (NIST SP 811, Appendix B: 1 mph = 1.609344 km/h)
     expectRelClose(results.noLoadMph, unit(101.58918559818784, 'km/h').toNumber('mi/h'), DISPLAY_REL); // NIST SP 811 App. B mile; mathjs oracle
     // mathjs oracle: 33,600 /min × π × 64 mm / 3.99
     expectRelClose(results.noLoadKmh, evaluate('33600 / minute * pi * 64 mm / 3.99').toNumber('km/h'), DISPLAY_REL);
@@ -32,7 +32,7 @@ describe('top-speed calculator', () => {
   it('scales the loaded speed by the load factor', () => {
     const { results } = computeTopSpeed(checkVector);
     expectRelClose(results.loadedKmh, 101.58918559818784 * 0.85, DISPLAY_REL); // mathjs value above × load factor
-    expect(results.loadedRpm).toBe(28_560);
+    expect(results.loadedRpm).toBe(28_560); // 4000 rpm/V × 8.4 V × 0.85 (Wikipedia, "Motor constants": no-load rpm ≈ Kv × V)
   });
 
   it('uses the exact mile: 1 mph = 1.609344 km/h (property)', () => {
@@ -69,8 +69,6 @@ describe('top-speed calculator', () => {
     const issues = rejected('top-speed', { ...checkVector, loadFactor: 0.4, tyreDiameterMm: undefined });
     expect(issueAt(issues, 'loadFactor').message).toBe('Load factor must be at least 0.5');
     expect(issueAt(issues, 'tyreDiameterMm').message).toBe('Tyre diameter is required');
-    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe(
-      'Load factor must be at most 1',
-    );
+    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe('Load factor must be at most 1');
   });
 });

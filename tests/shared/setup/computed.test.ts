@@ -1,9 +1,6 @@
 import fc from 'fast-check';
-import { evaluate } from 'mathjs';
+import { evaluate, unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { computeGearing } from '../../../shared/calc/gearing';
-import { computePack } from '../../../shared/calc/pack';
-import { computeTopSpeed } from '../../../shared/calc/top-speed';
 import { computeSetup, DEFAULT_LOAD_FACTOR } from '../../../shared/setup/computed';
 import { compareSetups, diffSetupFields } from '../../../shared/setup/compare';
 import { buildSetupRecord, contentLibrary, setupRecordArbitrary } from '../../factories/setup-record';
@@ -13,16 +10,16 @@ const library = contentLibrary();
 describe('computeSetup', () => {
   it('gives the final drive ratio and rollout of the 84/40, 1.9, 64 mm check vector', () => {
     const c = computeSetup(buildSetupRecord({ gearing: { spurTeeth: 84, pinionTeeth: 40, internalRatio: 1.9, tyreDiameterMm: 64 } }));
-    expect(c.gearing?.finalDriveRatio).toBeCloseTo(3.99, 6); // REFERENCES.md gearing checks (stage ratio, Wikipedia "Gear train")
-    expect(c.gearing?.rolloutMm).toBeCloseTo(50.39, 2); // REFERENCES.md gearing checks
-    expect(c.gearing?.rolloutIn).toBeCloseTo(1.984, 3); // REFERENCES.md gearing checks
+    expect(c.gearing?.finalDriveRatio).toBeCloseTo(3.99, 6); // 84/40 × 1.9 (Wikipedia, "Gear train": stage ratios multiply)
+    expect(c.gearing?.rolloutMm).toBeCloseTo(50.39, 2); // π × 64 mm / 3.99 (rollout relation, common practice)
+    expect(c.gearing?.rolloutIn).toBeCloseTo(1.984, 3); // 50.39 mm / 25.4 (NIST SP 811, Appendix B)
   });
 
   it('gives 2S LiPo pack voltages and the 3.2 V per cell cutoff as 6.40 V', () => {
     const c = computeSetup(buildSetupRecord());
     expect(c.pack?.fullV).toBeCloseTo(8.4, 6); // Wikipedia "Lithium polymer battery": 4.2 V per cell full
     expect(c.pack?.nominalV).toBeCloseTo(7.4, 6); // same article: 3.7 V nominal
-    expect(c.pack?.cutoffV).toBeCloseTo(6.4, 6); // REFERENCES.md pack checks: 3.2 V/cell on 2S is 6.40 V
+    expect(c.pack?.cutoffV).toBeCloseTo(6.4, 6); // 2 × 3.2 V: the cutoff is set per cell (common practice: LiPo 3.0–3.4 V per cell)
     expect(c.pack?.cutoffCheck).toBe('in-window');
   });
 
@@ -43,19 +40,24 @@ describe('computeSetup', () => {
     const c = computeSetup(
       buildSetupRecord({
         motor: { kvRpmPerV: 2000, poles: 4, sensored: true, endbellTimingDeg: 10 },
-        escSettings: { 'static-timing': { value: 0, unit: 'deg' }, 'ramped-advance': { value: 30, unit: 'deg' }, 'ramp-start-rpm': { value: 10_000, unit: 'rpm' }, 'ramp-end-rpm': { value: 30_000, unit: 'rpm' } },
+        escSettings: {
+          'static-timing': { value: 0, unit: 'deg' },
+          'ramped-advance': { value: 30, unit: 'deg' },
+          'ramp-start-rpm': { value: 10_000, unit: 'rpm' },
+          'ramp-end-rpm': { value: 30_000, unit: 'rpm' },
+        },
       }),
       { atRpm: 20_000 },
     );
-    expect(c.timing?.controllerDeg).toBeCloseTo(15, 6); // REFERENCES.md timing model: 30° over 10k–30k rpm gives 15° at 20k (from memory)
-    expect(c.timing?.endbellElectricalDeg).toBeCloseTo(20, 6); // mechanical degrees × pole pairs (REFERENCES.md, from memory): 10° × 2
-    expect(c.timing?.totalDeg).toBeCloseTo(35, 6);
+    expect(c.timing?.controllerDeg).toBeCloseTo(15, 6); // half of a 30° lead rising linearly over 10k–30k rpm at 20k (from memory; general industrial servo-drive practice)
+    expect(c.timing?.endbellElectricalDeg).toBeCloseTo(20, 6); // mechanical degrees × pole pairs (Ohio University EE notes, ch. 14, §14.3): 10° × 2
+    expect(c.timing?.totalDeg).toBeCloseTo(35, 6); // 15° + 20°: controller and endbell timing add (common practice)
   });
 
   it('counts no electronic timing in zero-timing mode, whatever else is set', () => {
     const c = computeSetup(buildSetupRecord({ escSettings: { 'zero-timing-mode': { value: 1, unit: '' }, 'static-timing': { value: 10, unit: 'deg' } } }));
-    expect(c.timing?.controllerDeg).toBe(0);
-    expect(c.timing?.totalDeg).toBe(30);
+    expect(c.timing?.controllerDeg).toBe(0); // zero-timing spec classes: no electronic advance of any kind (club and national spec-class rulebooks; common practice)
+    expect(c.timing?.totalDeg).toBe(30); // only the endbell: 30° mechanical on the factory's 2-pole motor × 1 pole pair
   });
 
   it('flags a LiPo cutoff under 3.0 V per cell as danger', () => {
@@ -79,22 +81,26 @@ describe('computeSetup', () => {
 
 describe('compareSetups', () => {
   const a = buildSetupRecord();
-  const b = buildSetupRecord({ gearing: { ...a.gearing, pinionTeeth: 34 }, escSettings: { ...a.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } } });
+  const b = buildSetupRecord({
+    gearing: { ...a.gearing, pinionTeeth: 34 },
+    escSettings: { ...a.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } },
+  });
 
-  it("gives deltas equal to the calculators' own results", () => {
+  it('gives the deltas of a two-tooth pinion change and a lower cutoff from outside relations', () => {
     const cmp = compareSetups(a, b);
-    const ga = computeGearing({ spur: 84, pinion: 32, internalRatio: 2.6, tyreDiameterMm: 62 }).results;
-    const gb = computeGearing({ spur: 84, pinion: 34, internalRatio: 2.6, tyreDiameterMm: 62 }).results;
-    const sa = computeTopSpeed({ kv: 2200, volts: 7.4, spur: 84, pinion: 32, internalRatio: 2.6, tyreDiameterMm: 62, loadFactor: DEFAULT_LOAD_FACTOR }).results;
-    const sb = computeTopSpeed({ kv: 2200, volts: 7.4, spur: 84, pinion: 34, internalRatio: 2.6, tyreDiameterMm: 62, loadFactor: DEFAULT_LOAD_FACTOR }).results;
-    const pb = computePack({ chemistry: 'lipo', cells: 2, cutoffPerCellV: 2.9 }).results;
     const d = Object.fromEntries(cmp.deltas.map((x) => [x.key, x]));
-    expect(d.finalDriveRatio).toMatchObject({ a: ga.finalDriveRatio, b: gb.finalDriveRatio });
-    expect(d.finalDriveRatio.delta).toBeCloseTo(gb.finalDriveRatio - ga.finalDriveRatio, 3);
-    expect(d.rolloutMm.delta).toBeCloseTo(gb.rolloutMm - ga.rolloutMm, 3);
-    expect(d.loadedKmh.delta).toBeCloseTo(sb.loadedKmh - sa.loadedKmh, 3);
-    expect(d.cutoffV.b).toBe(pb.cutoffV);
-    expect(d.cutoffPerCellV.delta).toBeCloseTo(-0.3, 6);
+    // 84 spur, 2.6 internal, 62 mm tyres, pinion 32 → 34; mathjs evaluates each relation independently.
+    const fdr = (pinion: number) => evaluate(`84 / ${pinion} * 2.6`); // Wikipedia, "Gear train": stage ratios multiply
+    const rollout = (pinion: number) => evaluate(`pi * 62 / (84 / ${pinion} * 2.6)`); // rollout = π × tyre / FDR (common practice)
+    expect(d.finalDriveRatio.a).toBeCloseTo(6.825, 3); // 84/32 × 2.6
+    expect(d.finalDriveRatio.delta).toBeCloseTo(fdr(34) - fdr(32), 3); // −0.4015
+    expect(d.rolloutMm.delta).toBeCloseTo(rollout(34) - rollout(32), 2); // +1.78 mm
+    // Loaded speed: 2200 rpm/V × 7.4 V (Wikipedia, "Motor constants": no-load rpm ≈ Kv × V) × the record's load
+    // factor, through the rollout; mathjs converts mm per minute to km/h.
+    const kmh = (pinion: number) => unit(2200 * 7.4 * DEFAULT_LOAD_FACTOR * rollout(pinion), 'mm/minute').toNumber('km/hour');
+    expect(d.loadedKmh.delta).toBeCloseTo(kmh(34) - kmh(32), 1);
+    expect(d.cutoffV.b).toBeCloseTo(5.8, 6); // 2 × 2.9 V: the cutoff is set per cell (common practice)
+    expect(d.cutoffPerCellV.delta).toBeCloseTo(-0.3, 6); // 2.9 V − 3.2 V, as entered
   });
 
   it('lists the changed fields and the cutoff danger on the new side', () => {
@@ -108,7 +114,12 @@ describe('compareSetups', () => {
       buildSetupRecord({
         motor: { kvRpmPerV: 5500, poles: 2, sensored: true, endbellTimingDeg: 30 },
         gearing: { spurTeeth: 81, pinionTeeth: pinion, internalRatio: 2.5, tyreDiameterMm: 60 },
-        escSettings: { 'static-timing': { value: 10, unit: 'deg' }, 'ramped-advance': { value: ramp, unit: 'deg' }, 'ramp-start-rpm': { value: 14_000, unit: 'rpm' }, 'ramp-end-rpm': { value: 30_000, unit: 'rpm' } },
+        escSettings: {
+          'static-timing': { value: 10, unit: 'deg' },
+          'ramped-advance': { value: ramp, unit: 'deg' },
+          'ramp-start-rpm': { value: 14_000, unit: 'rpm' },
+          'ramp-end-rpm': { value: 30_000, unit: 'rpm' },
+        },
       });
     expect(compareSetups(timed(23, 16), timed(25, 24)).cautions.map((c) => c.code)).toContain('heat-timing-and-gearing');
     expect(compareSetups(timed(23, 16), timed(21, 24)).cautions.map((c) => c.code)).not.toContain('heat-timing-and-gearing');

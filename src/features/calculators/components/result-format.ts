@@ -138,6 +138,17 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
         },
       ];
     }
+    case 'run-time': {
+      const lines: ResultLine[] = [
+        { key: 'runTimeMin', label: 'Run time', value: `${num(r.runTimeMin, 1)} min`, note: `on ${num(r.usableMah, 0)} mAh of the capacity`, primary: true },
+        { key: 'cRate', label: 'Average draw', value: `${num(r.cRate, 1)} C` },
+        { key: 'runTimeToEmptyMin', label: 'To empty (never plan on this)', value: `${num(r.runTimeToEmptyMin, 1)} min` },
+      ];
+      if (has(r, 'maxAverageCurrentForRaceA')) {
+        lines.push({ key: 'maxAverageCurrentForRaceA', label: 'Most average current that lasts the race', value: `${num(r.maxAverageCurrentForRaceA, 1)} A`, note: r.lastsRace ? 'this pack lasts the race' : 'this pack runs short', primary: true });
+      }
+      return lines;
+    }
   }
 }
 

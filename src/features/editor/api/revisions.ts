@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { DocumentKind } from '@shared/constants';
+import type { ContentCheckItem } from '@shared/schemas/content-check';
 import type { DocumentStatus, MyRevision, RebaseResult, Revision } from '@shared/schemas/revision';
 import { api, ApiError, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
@@ -21,7 +22,7 @@ export const revisionQueries = {
   detail: (id: string) =>
     queryOptions({
       queryKey: [...revisionQueries.all(), 'detail', id] as const,
-      queryFn: async () => (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus }>>(`/api/revisions/${id}`)).data,
+      queryFn: async () => (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus; checks?: ContentCheckItem[] }>>(`/api/revisions/${id}`)).data,
     }),
   /** The live revision a proposal starts from (read through the history, which both kinds share). */
   live: (kind: DocumentKind, slug: string) =>
@@ -50,8 +51,13 @@ export async function createProposal(kind: DocumentKind, slug: string, baseRevis
 
 /** Autosave: replaces the draft's content (own drafts only). */
 export async function patchRevision(id: string, patch: Partial<EditableContent> & { baseRevisionId?: string }) {
-  const res = await api.patch<Envelope<{ revision: Revision } | Revision>>(`/api/revisions/${id}`, patch);
-  return 'revision' in res.data ? res.data.revision : res.data;
+  return (await patchRevisionWithChecks(id, patch)).revision;
+}
+
+/** Autosave that also returns what the content checks find in the saved draft (they run on every save). */
+export async function patchRevisionWithChecks(id: string, patch: Partial<EditableContent> & { baseRevisionId?: string }) {
+  const res = await api.patch<Envelope<{ revision: Revision; checks?: ContentCheckItem[] }>>(`/api/revisions/${id}`, patch);
+  return { revision: res.data.revision, checks: res.data.checks ?? [] };
 }
 
 function useInvalidateRevisions() {

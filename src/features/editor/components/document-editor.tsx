@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
-import { useQueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { toast } from 'sonner';
 import type { DocumentKind } from '@shared/constants';
 import { REVISION_STATE_LABELS } from '@shared/constants';
@@ -8,11 +8,12 @@ import { parameterContentSchema, type ParameterSummary } from '@shared/schemas/p
 import type { Revision } from '@shared/schemas/revision';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { ContentChecks } from '@/components/ui/content-checks';
 import { Dialog } from '@/components/ui/dialog';
 import { TextAreaField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
-import { createGuide, createProposal, patchRevision, revisionQueries, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
+import { createGuide, createProposal, patchRevisionWithChecks, revisionQueries, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
 import { useAutosave } from '../hooks/use-autosave';
 import { clearLocalDraft, localDraftKey, readLocalDraft, shouldOfferRestore, type LocalDraft } from '../lib/autosave';
 import { AutosaveStatus } from './autosave-status';
@@ -106,7 +107,8 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           onCreated(rev, slugRef.current);
         }
       } else {
-        await patchRevision(revisionId, c as unknown as EditableContent);
+        const { checks: found } = await patchRevisionWithChecks(revisionId, c as unknown as EditableContent);
+        qc.setQueryData(revisionQueries.detail(revisionId).queryKey, (old) => (old ? { ...old, checks: found } : old));
       }
       setErrors({});
     } catch (err) {
@@ -129,6 +131,9 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
   useEffect(() => {
     if (draft?.state) setState(draft.state);
   }, [draft?.state]);
+
+  const detail = useQuery({ ...revisionQueries.detail(revisionId ?? ''), enabled: !!revisionId });
+  const checks = detail.data?.checks ?? [];
 
   const update = (patch: Partial<Content>) => setContent((c) => ({ ...c, ...patch }) as Content);
   const staleBase = !!(revisionId && live && baseRevisionId && live.id !== baseRevisionId);
@@ -165,6 +170,11 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
         if (current && slugRef.current) qc.setQueryData(revisionQueries.live(kind, slugRef.current).queryKey, current);
         setSubmitOpen(false);
         setMode('merge');
+        return;
+      }
+      if (err instanceof ApiError && err.code === 'content_check_failed') {
+        void qc.invalidateQueries({ queryKey: revisionQueries.detail(revisionId).queryKey });
+        setNoteError('The automatic checks found errors to fix first; they are listed under "Automatic checks".');
         return;
       }
       if (err instanceof ApiError && err.fieldErrors.note) setNoteError(err.fieldErrors.note);
@@ -281,6 +291,15 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
         </div>
       </fieldset>
       {kind === 'guide' && renderBaseline && renderBaseline(revisionId, editable)}
+      {revisionId && (
+        <section aria-labelledby="editor-checks" className="flex flex-col gap-2">
+          <h2 id="editor-checks" className="text-lg font-semibold">
+            Automatic checks
+          </h2>
+          <p className="text-sm text-ink-soft">Run on every save against the calculators and the parameter library. Errors must be fixed before you submit; warnings go to the moderator with your proposal.</p>
+          <ContentChecks checks={checks} audience="author" />
+        </section>
+      )}
       <Dialog
         open={submitOpen}
         onClose={() => setSubmitOpen(false)}

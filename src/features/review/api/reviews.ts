@@ -49,7 +49,8 @@ function useInvalidateAfterDecision(revisionId: string) {
 export function usePublishRevision(revisionId: string) {
   const invalidate = useInvalidateAfterDecision(revisionId);
   return useMutation({
-    mutationFn: async () => (await api.post<Envelope<{ revision: Revision }>>(`/api/reviews/${revisionId}/publish`)).data,
+    // 202 with `approval` when a safety-relevant change needs a second moderator: recorded, still in review.
+    mutationFn: async () => (await api.post<Envelope<{ revision: Revision; approval?: ReviewDetail['approval'] }>>(`/api/reviews/${revisionId}/publish`)).data,
     onSuccess: invalidate,
   });
 }

@@ -13,6 +13,7 @@ import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
 import { Markdown } from '@/lib/markdown';
 import { reviewQueries, usePublishRevision, useReturnRevision, type ReviewDetail as Detail, type SetupChange } from '../api/reviews';
+import { ContentChecks } from '@/components/ui/content-checks';
 
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
@@ -88,10 +89,15 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   const [conflict, setConflict] = useState<string | null>(null);
   const own = detail.own || revision.author.id === currentUserId;
   const waiting = revision.state === 'in_review';
+  const approvedByMe = !!detail.approval?.approvals.some((a) => a.moderator.id === currentUserId) && waiting;
 
   const handlePublish = async () => {
     try {
-      await publish.mutateAsync();
+      const res = await publish.mutateAsync();
+      if (res.approval) {
+        toast.success('Approval recorded: a second moderator has to publish it');
+        return;
+      }
       toast.success('Published: it is live now');
       navigate('/review');
     } catch (err) {
@@ -133,9 +139,11 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
           {conflict ?? 'The live version changed after this proposal was written, so it cannot be published as it is. Send it back so the author can merge their edit with the new live text; nothing they wrote is lost.'}
         </Notice>
       )}
+      <SecondApproval approval={detail.approval} />
       <div className="flex flex-wrap gap-2">
-        <Button onClick={handlePublish} pending={publish.isPending} disabled={own || !waiting || detail.stale} aria-describedby={own ? 'own-revision-why' : undefined}>
-          Publish
+        <Button onClick={handlePublish} pending={publish.isPending} disabled={own || !waiting || detail.stale || approvedByMe} aria-describedby={own ? 'own-revision-why' : undefined}>
+          {detail.approval?.needed === 2 && (approvedByMe ? 'Approved: waiting for a second moderator' : detail.approval.approvals.length === 0 ? 'Approve (1 of 2)' : 'Approve and publish (2 of 2)')}
+          {detail.approval?.needed !== 2 && 'Publish'}
         </Button>
         <Button variant="secondary" onClick={() => setReturning(true)} disabled={own || !waiting}>
           Send back with a reason
@@ -175,6 +183,26 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
         />
       </Dialog>
     </Card>
+  );
+}
+
+/** Why a proposal needs two moderators and who has approved it (safety-relevant baseline changes). */
+function SecondApproval({ approval }: { approval?: Detail['approval'] }) {
+  if (!approval || approval.needed !== 2) return null;
+  return (
+    <Notice tone="caution" title="Needs two moderators" className="text-sm">
+      <p>This proposal changes the baseline in a way that can damage equipment, so two different moderators must approve it:</p>
+      <ul className="my-1 list-disc pl-5" aria-label="Why two moderators">
+        {approval.rules.map((r) => (
+          <li key={`${r.rule}-${r.path}`}>{r.message}</li>
+        ))}
+      </ul>
+      <p data-testid="approvals">
+        {approval.approvals.length === 0
+          ? 'No approvals yet.'
+          : `Approved by ${approval.approvals.map((a) => `${a.moderator.displayName} (${when.format(new Date(a.at))})`).join(', ')}.`}
+      </p>
+    </Notice>
   );
 }
 
@@ -222,6 +250,9 @@ export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExampl
           </Section>
           <Section id="review-text" title="Changed text">
             <WordDiffView changes={d.bodyDiff ?? []} detail={d.bodyDiffDetail} fromLabel={liveLabel} toLabel={proposedLabel} />
+          </Section>
+          <Section id="review-checks" title="Automatic checks">
+            <ContentChecks checks={d.checks ?? []} audience="moderator" />
           </Section>
           <Section id="review-warnings" title="Calculator warnings">
             {warningCount === 0 ? (
