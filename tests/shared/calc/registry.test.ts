@@ -17,18 +17,7 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
     results: ['noLoadRpm', 'finalDriveRatio', 'noLoadKmh', 'noLoadMph', 'loadedKmh', 'loadedMph'],
   },
   'timing-curve': {
-    inputs: [
-      'baseDeg',
-      'rampDeg',
-      'rampStartRpm',
-      'rampEndRpm',
-      'atRpm',
-      'endbellDeg',
-      'poles',
-      'stepDeg',
-      'stepDelayS',
-      'maxRpm',
-    ],
+    inputs: ['baseDeg', 'rampDeg', 'rampStartRpm', 'rampEndRpm', 'atRpm', 'endbellDeg', 'poles', 'stepDeg', 'stepDelayS', 'maxRpm'],
     results: ['points', 'maxTotalDeg'],
   },
   pack: {
@@ -41,10 +30,14 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
     results: ['atNeutralPct', 'points', 'neutralFeel'],
   },
   temperature: { inputs: ['value', 'unit', 'part'], results: ['c', 'f', 'band'] },
+  'measured-kv': { inputs: ['noLoadRpm', 'testVoltageV'], results: ['measuredKv', 'ktNmPerA'] },
+  'winding-resistance': { inputs: ['direction', 'resistanceOhm', 'tempC'], results: ['r20Ohm', 'rAtTempOhm', 'changePct'] },
+  'electrical-degrees': { inputs: ['degrees', 'from', 'poles'], results: ['mechanicalDeg', 'electricalDeg', 'polePairs'] },
+  'bench-verdict': { inputs: ['reference', 'measured', 'tolerance', 'spread'], results: ['delta', 'deltaPct', 'verdict', 'label'] },
 };
 
 describe('calculator registry', () => {
-  it('holds exactly the eight calculators of the content spec', () => {
+  it('holds exactly the calculators of the content spec and the bench ones', () => {
     expect([...calculatorNames].sort()).toEqual(Object.keys(contract).sort());
     for (const name of calculatorNames) expect(calculators[name].name).toBe(name);
     expect(getCalculator('gearing')).toBe(calculators.gearing);
@@ -79,10 +72,7 @@ describe('calculator registry', () => {
     it('names every missing required field', () => {
       const required = calculator.fields.filter((f) => !f.optional);
       const issues = rejected(name, {});
-      for (const field of required)
-        expect(issueAt(issues, field.key).message).toMatch(
-          new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`),
-        );
+      for (const field of required) expect(issueAt(issues, field.key).message).toMatch(new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`));
     });
 
     it('names every number field that is out of range', () => {
@@ -109,8 +99,6 @@ describe('calculator registry', () => {
   });
 
   it('keeps a boolean from being read as a number', () => {
-    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe(
-      'Motor kV must be a number (got true)',
-    );
+    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe('Motor kV must be a number (got true)');
   });
 });

@@ -5,8 +5,7 @@ export type ResultLine = { key: string; label: string; value: string; note?: str
 
 type R = Record<string, unknown>;
 
-const num = (v: unknown, digits = 2) =>
-  typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—';
+const num = (v: unknown, digits = 2) => (typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—');
 /** Volts read to the hundredth, as chargers and checkers show them (8.40 V, not 8.4 V). */
 const volts = (v: unknown) =>
   typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 }) : '—';
@@ -138,6 +137,28 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
         },
       ];
     }
+    case 'measured-kv':
+      return [
+        { key: 'measuredKv', label: 'Measured kV', value: `${num(r.measuredKv, 0)} rpm/V`, primary: true },
+        { key: 'ktNmPerA', label: 'Torque constant', value: `${num(r.ktNmPerA, 6)} N·m/A` },
+      ];
+    case 'winding-resistance':
+      return [
+        { key: 'r20Ohm', label: 'At 20 °C', value: `${num(r.r20Ohm, 5)} Ω`, primary: true },
+        { key: 'rAtTempOhm', label: `At ${num(Number(inputs.tempC), 1)} °C`, value: `${num(r.rAtTempOhm, 5)} Ω`, primary: true },
+        { key: 'changePct', label: 'Change from 20 °C', value: `${num(r.changePct, 2)} %` },
+      ];
+    case 'electrical-degrees':
+      return [
+        { key: 'electricalDeg', label: 'Electrical', value: `${num(r.electricalDeg, 2)}°`, primary: true },
+        { key: 'mechanicalDeg', label: 'Mechanical', value: `${num(r.mechanicalDeg, 2)}°`, primary: true },
+        { key: 'polePairs', label: 'Pole pairs', value: num(r.polePairs, 0) },
+      ];
+    case 'bench-verdict':
+      return [
+        { key: 'verdict', label: 'Verdict', value: String(r.label ?? r.verdict), primary: true },
+        { key: 'delta', label: 'Change', value: num(r.delta, 4), note: r.deltaPct === null ? undefined : `${num(r.deltaPct, 2)} % of the reference` },
+      ];
   }
 }
 
