@@ -45,8 +45,8 @@ export const QUANTITY_INFO: Readonly<Record<BenchReading | ComparedQuantity, Qua
   timingDeg: { label: 'Timing reading', unit: '° el.', digits: 1, tolerance: { kind: 'abs', value: 3 } },
   rotorSymmetryPct: { label: 'Rotor symmetry', unit: '%', digits: 1, tolerance: { kind: 'abs', value: 1 } },
   sensorDeviationPct: { label: 'Sensor-signal deviation', unit: '%', digits: 1, tolerance: { kind: 'abs', value: 2 } },
-  phaseResistanceOhm: { label: 'Phase resistance', unit: 'Ω', digits: 4, tolerance: { kind: 'pct', value: 5 } },
-  resistanceAt20COhm: { label: 'Resistance at 20 °C', unit: 'Ω', digits: 4, tolerance: { kind: 'pct', value: 5 } },
+  phaseResistanceOhm: { label: 'Phase resistance', unit: 'Ω', digits: 5, tolerance: { kind: 'pct', value: 5 } },
+  resistanceAt20COhm: { label: 'Resistance at 20 °C', unit: 'Ω', digits: 5, tolerance: { kind: 'pct', value: 5 } },
 };
 
 /** The tolerance in the quantity's unit for a reference value. */

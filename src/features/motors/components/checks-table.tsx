@@ -34,7 +34,7 @@ export function ChecksTable({
   const rows = [...checks].reverse();
   return (
     <div className="overflow-x-auto rounded-lg border border-paper-line bg-paper-card">
-      <table className="w-full min-w-[56rem] border-collapse text-sm">
+      <table className="w-full min-w-[50rem] border-collapse text-sm">
         <caption className="sr-only">Bench checks, newest first</caption>
         <thead>
           <tr className="border-b border-paper-line text-left text-xs tracking-wide text-ink-muted uppercase">
@@ -72,7 +72,7 @@ export function ChecksTable({
               ))}
               <td className="px-3 py-2 text-right font-medium tabular-nums">{fmt('measuredKv', c.computed.measuredKv, false)}</td>
               <td className="px-3 py-2 text-right tabular-nums">{fmt('resistanceAt20COhm', c.computed.resistanceAt20COhm, false)}</td>
-              <td className="px-3 py-2 text-right whitespace-nowrap">
+              <td className="flex flex-col items-end px-3 py-2 whitespace-nowrap">
                 {!c.isReference && (
                   <Button size="sm" variant="ghost" disabled={busy} onClick={() => onMakeReference(c.id)}>
                     Make reference

@@ -13,9 +13,13 @@ const checkLabel = (c: Check) => `${fmtDate(c.testedAt)}${c.isReference ? ' (ref
 
 /** Two checks side by side: what moved against its tolerance, and what that usually means. */
 export function CompareView({ motorId, checks }: { motorId: string; checks: Check[] }) {
-  const ref = checks.find((c) => c.isReference) ?? checks[0];
-  const [from, setFrom] = useState(ref.id);
-  const [to, setTo] = useState(checks[checks.length - 1].id);
+  // Until the member picks, "before" follows the reference and "after" the newest check (a new check moves it).
+  const [picked, setPicked] = useState<{ from?: string; to?: string }>({});
+  const has = (id?: string) => !!id && checks.some((c) => c.id === id);
+  const from = has(picked.from) ? picked.from! : (checks.find((c) => c.isReference) ?? checks[0]).id;
+  const to = has(picked.to) ? picked.to! : checks[checks.length - 1].id;
+  const setFrom = (id: string) => setPicked({ ...picked, from: id });
+  const setTo = (id: string) => setPicked({ ...picked, to: id });
   const q = useQuery(motorQueries.compare(motorId, from, to));
   return (
     <div className="flex flex-col gap-4">
@@ -39,7 +43,37 @@ export function CompareView({ motorId, checks }: { motorId: string; checks: Chec
       {q.error && <Notice tone="danger">The comparison could not be loaded: {q.error.message}</Notice>}
       {q.data && (
         <>
-          <div className="overflow-x-auto rounded-lg border border-paper-line bg-paper-card">
+          {/* On a phone each quantity is a short block, so the verdict never sits off-screen. */}
+          <ul
+            className="flex flex-col divide-y divide-paper-line rounded-lg border border-paper-line bg-paper-card sm:hidden"
+            aria-label="Comparison of two checks"
+          >
+            {q.data.quantities.map((r) => (
+              <li
+                key={r.name}
+                data-quantity={r.name}
+                data-verdict={r.verdict ?? 'none'}
+                className={`px-3 py-2 text-sm ${r.verdict === 'clearly_outside' ? 'bg-danger-wash/60' : ''}`}
+              >
+                <div className="flex items-baseline justify-between gap-2">
+                  <span className="font-medium">{r.label}</span>
+                  {r.verdict ? (
+                    <span className={`rounded-full border px-2 py-0.5 text-xs whitespace-nowrap ${VERDICT_TONE[r.verdict]}`}>
+                      {BENCH_VERDICT_LABELS[r.verdict]}
+                    </span>
+                  ) : (
+                    <span className="text-xs text-ink-faint">not in both</span>
+                  )}
+                </div>
+                {r.delta !== null && (
+                  <p className="text-ink-soft tabular-nums">
+                    {fmt(r.name, r.from)} → {fmt(r.name, r.to)} ({fmtDelta(r.name, r.delta)}, tolerance ± {fmt(r.name, r.tolerance)})
+                  </p>
+                )}
+              </li>
+            ))}
+          </ul>
+          <div className="hidden overflow-x-auto rounded-lg border border-paper-line bg-paper-card sm:block">
             <table className="w-full min-w-[36rem] border-collapse text-sm" aria-label="Comparison of two checks">
               <thead>
                 <tr className="border-b border-paper-line text-left text-xs tracking-wide text-ink-muted uppercase">
