@@ -30,6 +30,13 @@ export const SLUGS_WITH_OWN_FIELD: Readonly<Record<string, string>> = {
   rollout: 'gearing (it is computed from the gearing and tyre diameter)',
   'cell-count': 'battery.cells',
   'pack-chemistry': 'battery.chemistry',
+  // Bench readings of a motor, not controller settings: they belong in a bench check of a registered motor.
+  'bench-no-load-speed': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'bench-no-load-current': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'bench-timing-reading': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'rotor-symmetry': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'sensor-signal-deviation': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'phase-resistance': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
 };
 
 const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v));
