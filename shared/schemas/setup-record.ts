@@ -2,7 +2,8 @@ import { z } from 'zod';
 import { CLASS_SLUGS, SURFACE_SLUGS } from '../constants';
 import { packChemistries } from '../calc/chemistry';
 
-// Our own document type for a baseline setup: `tunewright.setup`, schema version 1.
+// Our own document type for a baseline setup: `tunewright.setup`, schema version 2 (version 1 records,
+// which cannot name a registered motor, are still read).
 // Every number carries its unit in its field name (tyreDiameterMm, capacityMah, ambientTempC …);
 // ESC settings carry their unit beside the value, because the parameter library owns those units.
 // The structure below contains no transforms or defaults, so input and output types are the same
@@ -10,10 +11,15 @@ import { packChemistries } from '../calc/chemistry';
 
 /** The `format` every setup record carries. */
 export const SETUP_FORMAT = 'tunewright.setup';
-/** The one schema version this build reads and writes. */
-export const SETUP_SCHEMA_VERSION = 1;
-/** Where the JSON Schema of version 1 is served. */
-export const SETUP_SCHEMA_PATH = '/schemas/setup-record.v1.json';
+/** The schema version this build writes. */
+export const SETUP_SCHEMA_VERSION = 2;
+/** Every schema version this build reads: version 2 only adds `motor.registeredMotorId`. */
+export const SETUP_SCHEMA_VERSIONS = [1, 2] as const;
+export type SetupSchemaVersion = (typeof SETUP_SCHEMA_VERSIONS)[number];
+/** Where the JSON Schema of each version is served. */
+export const SETUP_SCHEMA_PATHS: Readonly<Record<SetupSchemaVersion, string>> = { 1: '/schemas/setup-record.v1.json', 2: '/schemas/setup-record.v2.json' };
+/** Where the JSON Schema of the current version is served. */
+export const SETUP_SCHEMA_PATH = SETUP_SCHEMA_PATHS[SETUP_SCHEMA_VERSION];
 
 /** Drivetrain layouts a record can name. */
 export const DRIVETRAINS = ['2wd', '4wd'] as const;
@@ -31,12 +37,12 @@ export const SLUGS_WITH_OWN_FIELD: Readonly<Record<string, string>> = {
   'cell-count': 'battery.cells',
   'pack-chemistry': 'battery.chemistry',
   // Bench readings of a motor, not controller settings: they belong in a bench check of a registered motor.
-  'bench-no-load-speed': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
-  'bench-no-load-current': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
-  'bench-timing-reading': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
-  'rotor-symmetry': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
-  'sensor-signal-deviation': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
-  'phase-resistance': "a bench check of a registered motor (it is a bench reading, not a controller setting)",
+  'bench-no-load-speed': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'bench-no-load-current': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'bench-timing-reading': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'rotor-symmetry': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'sensor-signal-deviation': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'phase-resistance': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
 };
 
 const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v));
@@ -45,9 +51,7 @@ const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v)
 function num(label: string, unit: string, min: number, max: number, opts: { int?: boolean; even?: boolean } = {}) {
   let n = z.number({ error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be a number`) });
   if (opts.int) n = n.int({ error: `${label} must be a whole number` });
-  n = n
-    .min(min, { error: `${label} must be at least ${withUnit(min, unit)}` })
-    .max(max, { error: `${label} must be at most ${withUnit(max, unit)}` });
+  n = n.min(min, { error: `${label} must be at least ${withUnit(min, unit)}` }).max(max, { error: `${label} must be at most ${withUnit(max, unit)}` });
   if (opts.even) n = n.multipleOf(2, { error: `${label} must be an even number (magnet poles come in pairs)` });
   return n.meta({ title: label, ...(unit ? { description: `In ${unit}` } : {}) });
 }
@@ -60,12 +64,18 @@ function text(label: string, max: number) {
 }
 
 function choice<const T extends readonly [string, ...string[]]>(label: string, options: T) {
-  return z.enum(options, { error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be one of: ${options.join(', ')}`) }).meta({ title: label });
+  return z
+    .enum(options, { error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be one of: ${options.join(', ')}`) })
+    .meta({ title: label });
 }
 
 const unknownKeys = (where: string) => ({
   error: (issue: { code?: string; keys?: string[] }) =>
-    issue.code === 'unrecognized_keys' ? `Unknown field${(issue.keys?.length ?? 0) > 1 ? 's' : ''} in ${where}: ${issue.keys?.join(', ')}` : issue.code === 'invalid_type' ? `${where} must be an object` : undefined,
+    issue.code === 'unrecognized_keys'
+      ? `Unknown field${(issue.keys?.length ?? 0) > 1 ? 's' : ''} in ${where}: ${issue.keys?.join(', ')}`
+      : issue.code === 'invalid_type'
+        ? `${where} must be an object`
+        : undefined,
 });
 
 const vehicleSchema = z.strictObject(
@@ -84,6 +94,11 @@ const motorShape = {
   sensored: z.boolean({ error: 'Sensored must be true or false' }),
   endbellTimingDeg: num('Endbell timing', 'deg', 0, 60).optional(),
 };
+
+/** Version 2: the member's registered motor this setup used (an id from their motor register, private to them). */
+const registeredMotorId = z
+  .uuid({ error: 'Registered motor must be a motor id from your motor register' })
+  .meta({ title: 'Registered motor', description: 'Id of a motor in the owner’s motor register (schema version 2)' });
 
 const gearingSchema = z.strictObject(
   {
@@ -116,7 +131,11 @@ const conditionsSchema = z.strictObject(
 
 const provenanceSchema = z.strictObject(
   {
-    guideSlug: z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Guide slug: lowercase letters, digits and single hyphens').max(120).optional(),
+    guideSlug: z
+      .string()
+      .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Guide slug: lowercase letters, digits and single hyphens')
+      .max(120)
+      .optional(),
     guideTitle: text('Guide title', 140).optional(),
     revisionNumber: num('Revision number', '', 1, 100_000, { int: true }).optional(),
     authorDisplayName: text("Author's name", 60).optional(),
@@ -140,28 +159,43 @@ const escSettingsStructure = z
   })
   .meta({ title: 'ESC settings', description: 'Parameter slug → { value, unit }; slugs and units come from the parameter library.' });
 
-function structure(escSettings: z.ZodType<Record<string, z.infer<typeof escSettingSchema>>>, motorRefined: boolean) {
-  const motorBase = z.strictObject(motorShape, unknownKeys('motor'));
+function structure(
+  escSettings: z.ZodType<Record<string, z.infer<typeof escSettingSchema>>>,
+  motorRefined: boolean,
+  versions: readonly SetupSchemaVersion[] = SETUP_SCHEMA_VERSIONS,
+) {
+  const motorBase = z.strictObject(
+    { ...motorShape, ...(versions.includes(2) ? { registeredMotorId: registeredMotorId.optional() } : {}) },
+    unknownKeys('motor'),
+  );
   const motor = motorRefined
     ? motorBase.superRefine((m, ctx) => {
-        if (m.kvRpmPerV === undefined && m.windTurns === undefined) ctx.addIssue({ code: 'custom', path: ['kvRpmPerV'], message: 'Give the motor kV (rpm/V) or its wind (turns), or both' });
+        if (m.kvRpmPerV === undefined && m.windTurns === undefined)
+          ctx.addIssue({ code: 'custom', path: ['kvRpmPerV'], message: 'Give the motor kV (rpm/V) or its wind (turns), or both' });
       })
     : motorBase;
-  return z.strictObject(
-    {
-      format: z.literal(SETUP_FORMAT, { error: `format must be "${SETUP_FORMAT}"` }),
-      schemaVersion: z.literal(SETUP_SCHEMA_VERSION, { error: `schemaVersion must be ${SETUP_SCHEMA_VERSION}` }),
-      vehicle: vehicleSchema,
-      motor,
-      escSettings,
-      gearing: gearingSchema,
-      battery: batterySchema,
-      conditions: conditionsSchema,
-      notes: text('Notes', 4000).optional(),
-      provenance: provenanceSchema.optional(),
-    },
-    unknownKeys('the setup record'),
-  );
+  return z
+    .strictObject(
+      {
+        format: z.literal(SETUP_FORMAT, { error: `format must be "${SETUP_FORMAT}"` }),
+        schemaVersion: z.literal(versions, { error: `schemaVersion must be ${versions.join(' or ')}` }),
+        vehicle: vehicleSchema,
+        motor,
+        escSettings,
+        gearing: gearingSchema,
+        battery: batterySchema,
+        conditions: conditionsSchema,
+        notes: text('Notes', 4000).optional(),
+        provenance: provenanceSchema.optional(),
+      },
+      unknownKeys('the setup record'),
+    )
+    .superRefine((r, ctx) => {
+      const motor = r.motor as { registeredMotorId?: string };
+      if (r.schemaVersion === 1 && motor.registeredMotorId !== undefined) {
+        ctx.addIssue({ code: 'custom', path: ['motor', 'registeredMotorId'], message: 'A registered motor needs schemaVersion 2' });
+      }
+    });
 }
 
 /**
@@ -217,7 +251,11 @@ function checkEscSettings(library: readonly SettingDefinition[]) {
       const def = bySlug.get(slug);
       if (!def) {
         const hint = closest(slug, known);
-        ctx.addIssue({ code: 'custom', path: [slug], message: `Unknown setting "${slug}": it is not in the parameter library.${hint ? ` Did you mean "${hint}"?` : ''}` });
+        ctx.addIssue({
+          code: 'custom',
+          path: [slug],
+          message: `Unknown setting "${slug}": it is not in the parameter library.${hint ? ` Did you mean "${hint}"?` : ''}`,
+        });
         continue;
       }
       if (setting.unit !== def.unit) {
@@ -225,7 +263,11 @@ function checkEscSettings(library: readonly SettingDefinition[]) {
       }
       const { min, max } = def.range;
       if (setting.value < min || setting.value > max) {
-        ctx.addIssue({ code: 'custom', path: [slug, 'value'], message: `${def.name} must be between ${withUnit(min, def.unit)} and ${withUnit(max, def.unit)} (got ${withUnit(setting.value, def.unit)})` });
+        ctx.addIssue({
+          code: 'custom',
+          path: [slug, 'value'],
+          message: `${def.name} must be between ${withUnit(min, def.unit)} and ${withUnit(max, def.unit)} (got ${withUnit(setting.value, def.unit)})`,
+        });
       } else if (def.unit === '' && def.range.step === 1 && !Number.isInteger(setting.value)) {
         ctx.addIssue({ code: 'custom', path: [slug, 'value'], message: `${def.name} is a choice or a count: use a whole number from ${min} to ${max}` });
       }
@@ -241,13 +283,13 @@ export function setupRecordSchema(library: readonly SettingDefinition[]) {
   return structure(escSettingsStructure.superRefine(checkEscSettings(library)), true);
 }
 
-/** The JSON Schema (2020-12) of version 1, generated from the structure schema. */
-export function setupRecordJsonSchema(id?: string): Record<string, unknown> {
-  const generated = z.toJSONSchema(setupRecordStructureSchema, { target: 'draft-2020-12' }) as Record<string, unknown>;
+/** The JSON Schema (2020-12) of one version (the current one by default), generated from the structure schema. */
+export function setupRecordJsonSchema(id?: string, version: SetupSchemaVersion = SETUP_SCHEMA_VERSION): Record<string, unknown> {
+  const generated = z.toJSONSchema(structure(escSettingsStructure, false, [version]), { target: 'draft-2020-12' }) as Record<string, unknown>;
   return {
     $schema: 'https://json-schema.org/draft/2020-12/schema',
     ...(id ? { $id: id } : {}),
-    title: 'Tunewright setup record, version 1',
+    title: `Tunewright setup record, version ${version}`,
     description:
       'A baseline setup for a radio-controlled car: vehicle, motor, ESC settings keyed by parameter slug, gearing, battery, conditions, notes and provenance. ' +
       'Units are in the field names. The server also checks ESC settings against the parameter library (known slugs, units and ranges) and that the motor gives kV or wind.',

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { CLASS_SLUGS, SURFACE_SLUGS } from '../../shared/constants';
-import type { SettingDefinition, SetupRecord } from '../../shared/schemas/setup-record';
+import { SLUGS_WITH_OWN_FIELD, type SettingDefinition, type SetupRecord } from '../../shared/schemas/setup-record';
 import { readParameterFiles } from '../../server/db/seed-content';
 
 /** The parameter library as the content files define it (what the seeded database holds). */
@@ -33,10 +33,19 @@ const decimal = (min: number, max: number, step = 0.5) => fc.integer({ min: Math
 
 /** Arbitrary valid records, for property checks (values inside the schema's and the library's bounds). */
 export function setupRecordArbitrary(library: SettingDefinition[]): fc.Arbitrary<SetupRecord> {
-  const usable = library.filter((d) => !['endbell-timing', 'motor-kv', 'pole-count', 'final-drive-ratio', 'rollout', 'cell-count', 'pack-chemistry'].includes(d.slug));
-  const esc = fc.subarray(usable, { maxLength: 8 }).chain((defs) =>
-    fc.tuple(...defs.map((d) => fc.integer({ min: 0, max: Math.round((d.range.max - d.range.min) / d.range.step) }).map((k) => ({ slug: d.slug, unit: d.unit, value: Number((d.range.min + k * d.range.step).toFixed(4)) })))),
-  );
+  // Slugs with a field of their own (or bench readings) are refused inside escSettings.
+  const usable = library.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD));
+  const esc = fc
+    .subarray(usable, { maxLength: 8 })
+    .chain((defs) =>
+      fc.tuple(
+        ...defs.map((d) =>
+          fc
+            .integer({ min: 0, max: Math.round((d.range.max - d.range.min) / d.range.step) })
+            .map((k) => ({ slug: d.slug, unit: d.unit, value: Number((d.range.min + k * d.range.step).toFixed(4)) })),
+        ),
+      ),
+    );
   return fc
     .record({
       cls: fc.constantFrom(...CLASS_SLUGS),
@@ -73,7 +82,11 @@ export function setupRecordArbitrary(library: SettingDefinition[]): fc.Arbitrary
         escSettings: Object.fromEntries(r.esc.map((e) => [e.slug, { value: e.value, unit: e.unit }])),
         gearing: { spurTeeth: r.spur, pinionTeeth: r.pinion, internalRatio: Number(r.internal.toFixed(2)), tyreDiameterMm: Number(r.tyre.toFixed(1)) },
         battery: { chemistry: r.chemistry, cells: r.cells, ...(r.capacity !== undefined ? { capacityMah: r.capacity } : {}) },
-        conditions: { surface: r.surface, ...(r.layout !== undefined ? { layout: r.layout } : {}), ...(r.ambient !== undefined ? { ambientTempC: r.ambient } : {}) },
+        conditions: {
+          surface: r.surface,
+          ...(r.layout !== undefined ? { layout: r.layout } : {}),
+          ...(r.ambient !== undefined ? { ambientTempC: r.ambient } : {}),
+        },
       };
       if (r.notes !== undefined) record.notes = r.notes;
       return record;

@@ -40,6 +40,11 @@ export async function getMotor(db: Db, user: { id: string } | null, id: string):
   return row;
 }
 
+/** True when the motor exists and belongs to this member (setup records may name one of their own). */
+export async function ownsMotor(db: Db, ownerId: string, motorId: string): Promise<boolean> {
+  return db.getRepository(MotorEntity).existsBy({ id: motorId, ownerId });
+}
+
 export async function createMotor(db: Db, ownerId: string, body: MotorCreate): Promise<MotorEntity> {
   const repo = db.getRepository(MotorEntity);
   return repo.save(

@@ -12,6 +12,7 @@ import { UserEntity } from '../auth/user.entity';
 import { SetupEntity } from './setup.entity';
 import { checkFileContent, checkFileName, invalidSetup } from './upload';
 import { canReadUpload, mayChangeBaseline } from './policy';
+import { ownsMotor } from '../motors/service';
 import type { Actor } from '../revisions/policy';
 
 type Db = DataSource | EntityManager;
@@ -71,13 +72,21 @@ export async function guideBaseline(db: Db, slug: string): Promise<{ record: Set
 
 /** Published baselines of every visible guide, newest first. */
 export async function listBaselines(db: Db) {
-  const rows: { slug: string; number: number; content: Record<string, unknown>; setup: SetupRecord; published_at: Date | null; display_name: string | null }[] = await db.query(
-    `SELECT d.slug, r.number, r.content, r.setup, r.published_at, u.display_name
+  const rows: { slug: string; number: number; content: Record<string, unknown>; setup: SetupRecord; published_at: Date | null; display_name: string | null }[] =
+    await db.query(
+      `SELECT d.slug, r.number, r.content, r.setup, r.published_at, u.display_name
        FROM documents d JOIN revisions r ON r.id = d.published_revision_id LEFT JOIN users u ON u.id = r.author_id
       WHERE d.kind = 'guide' AND d.hidden_at IS NULL AND r.setup IS NOT NULL
       ORDER BY r.published_at DESC NULLS LAST, d.slug`,
-  );
-  return rows.map((r) => ({ slug: r.slug, number: r.number, title: String(r.content.title ?? r.slug), record: r.setup, publishedAt: r.published_at, authorDisplayName: r.display_name ?? 'Unknown author' }));
+    );
+  return rows.map((r) => ({
+    slug: r.slug,
+    number: r.number,
+    title: String(r.content.title ?? r.slug),
+    record: r.setup,
+    publishedAt: r.published_at,
+    authorDisplayName: r.display_name ?? 'Unknown author',
+  }));
 }
 
 /**
@@ -92,9 +101,15 @@ export async function createUpload(ctx: AppContext, ownerId: string, file: Expre
   if ('issue' in content) throw invalidSetup(content.status, 'That file is not a setup record.', [content.issue]);
   const library = await loadSettingLibrary(ctx.dataSource);
   const result = parseSetupText(content.text, name.kind, library);
-  if (!result.ok) throw invalidSetup(result.status, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
+  if (!result.ok)
+    throw invalidSetup(result.status, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
 
   const record = canonicalRecord(result.record);
+  const motorId = (record.motor as { registeredMotorId?: string }).registeredMotorId;
+  // Someone else's motor and a motor that does not exist get the same answer: nothing about other members leaks.
+  if (motorId && !(await ownsMotor(ctx.dataSource, ownerId, motorId))) {
+    throw invalidSetup(400, 'The setup record has a problem.', [{ path: 'motor.registeredMotorId', message: 'That is not a motor in your motor register' }]);
+  }
   const key = newStorageKey('setups', name.kind);
   await ctx.storage.put(key, file.buffer, name.kind === 'json' ? 'application/json' : 'text/csv; charset=utf-8');
   try {
@@ -162,9 +177,16 @@ export async function attachToRevision(ctx: AppContext, user: Actor, revisionId:
   return ctx.dataSource.transaction(async (m) => {
     const revision = await ownDraft(m, user, revisionId);
     const result = validateSetupObject(body, await loadSettingLibrary(m));
-    if (!result.ok) throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
+    if (!result.ok)
+      throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
     // Provenance is stamped on export from the revision itself; whatever came in is not kept.
     const { provenance: _ignored, ...record } = canonicalRecord(result.record);
+    // A baseline is public once live; motors are private, so a guide's baseline never names one.
+    if ((record.motor as { registeredMotorId?: string }).registeredMotorId !== undefined) {
+      throw invalidSetup(400, 'The setup record has a problem.', [
+        { path: 'motor.registeredMotorId', message: 'A guide’s baseline is public: remove the registered motor (it is private to you)' },
+      ]);
+    }
     await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: record });
     return record as SetupRecord;
   });
