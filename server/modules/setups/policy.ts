@@ -9,12 +9,6 @@ export function canReadUpload(user: { id: string } | null, row: { ownerId: strin
 export function mayChangeBaseline(actor: Actor, rev: RevisionFacts): Decision {
   const who = authorOnly(actor, rev);
   if (!who.ok) return who;
-  if (rev.state !== 'draft')
-    return {
-      ok: false,
-      status: 409,
-      code: 'not_draft',
-      message: 'The baseline can only change while the revision is a draft; start a new draft to change it.',
-    };
+  if (rev.state !== 'draft') return { ok: false, status: 409, code: 'not_draft', message: 'The baseline can only change while the revision is a draft; start a new draft to change it.' };
   return ALLOW;
 }

@@ -14,7 +14,6 @@ const NAV: NavItem[] = [
   { to: '/setups', label: 'Setups' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/me/revisions', label: 'Workbench', min: 'member' },
-  { to: '/motors', label: 'Motors', min: 'member' },
   { to: '/review', label: 'Review', min: 'moderator' },
   { to: '/admin/users', label: 'Admin', min: 'admin' },
 ];

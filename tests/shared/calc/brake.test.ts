@@ -19,7 +19,8 @@ describe('brake calculator', () => {
   });
 
   it('describes the off-throttle feel by drag brake', () => {
-    const feel = (drag: number) => computeBrake({ dragBrakePct: drag, initialBrakePct: 0, brakeStrengthPct: 100 }).results.neutralFeel;
+    const feel = (drag: number) =>
+      computeBrake({ dragBrakePct: drag, initialBrakePct: 0, brakeStrengthPct: 100 }).results.neutralFeel;
     expect(feel(0)).toMatch(/^Free-rolling/);
     expect(feel(8)).toMatch(/^Light drag/);
     expect(feel(25)).toMatch(/^Firm drag/);
@@ -34,10 +35,14 @@ describe('brake calculator', () => {
   });
 
   it('cautions about heavy drag brake heat, deferring to the makers', () => {
-    const heavy = computeBrake({ dragBrakePct: 50, initialBrakePct: 50, brakeStrengthPct: 100 }).warnings.find((w) => w.code === 'heavy-drag-brake');
+    const heavy = computeBrake({ dragBrakePct: 50, initialBrakePct: 50, brakeStrengthPct: 100 }).warnings.find(
+      (w) => w.code === 'heavy-drag-brake',
+    );
     expect(heavy?.level).toBe('caution');
     expect(heavy?.message).toMatch(/makers' limits/);
-    expect(computeBrake({ dragBrakePct: 60, initialBrakePct: 0, brakeStrengthPct: 40 }).warnings.map((w) => w.code)).toContain('drag-above-strength');
+    expect(
+      computeBrake({ dragBrakePct: 60, initialBrakePct: 0, brakeStrengthPct: 40 }).warnings.map((w) => w.code),
+    ).toContain('drag-above-strength');
     expect(computeBrake({ dragBrakePct: 5, initialBrakePct: 10, brakeStrengthPct: 80 }).warnings).toEqual([]);
   });
 
@@ -66,8 +71,11 @@ describe('brake calculator', () => {
     expect(issueAt(issues, 'dragBrakePct').message).toBe('Drag brake must be at most 100%');
     expect(issueAt(issues, 'initialBrakePct').message).toBe('Initial brake must be at least 0%');
     expect(issueAt(issues, 'brakeStrengthPct').message).toBe('Brake strength is required');
-    expect(issueAt(rejected('brake', { dragBrakePct: 10, initialBrakePct: 15, brakeStrengthPct: 80, dragBreak: 5 }), 'dragBreak').message).toMatch(
-      /Did you mean "dragBrakePct"/,
-    );
+    expect(
+      issueAt(
+        rejected('brake', { dragBrakePct: 10, initialBrakePct: 15, brakeStrengthPct: 80, dragBreak: 5 }),
+        'dragBreak',
+      ).message,
+    ).toMatch(/Did you mean "dragBrakePct"/);
   });
 });

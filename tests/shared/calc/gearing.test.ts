@@ -2,7 +2,13 @@ import convert from 'convert-units';
 import fc from 'fast-check';
 import { evaluate, unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { computeGearing, finalDriveRatio, gearingCalculator, gearingInput, type GearingResults } from '../../../shared/calc/gearing';
+import {
+  computeGearing,
+  finalDriveRatio,
+  gearingCalculator,
+  gearingInput,
+  type GearingResults,
+} from '../../../shared/calc/gearing';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
 describe('gearing calculator', () => {
@@ -114,10 +120,12 @@ describe('gearing calculator', () => {
     expect(issueAt(issues, 'pinion').message).toBe('Pinion must be at least 5 teeth');
     expect(issueAt(issues, 'internalRatio').message).toBe('Internal ratio must be a number (got "two")');
     expect(issueAt(issues, 'tyreSize').message).toMatch(/Unknown field "tyreSize"/);
-    expect(issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe(
-      'Spur must be a whole number',
-    );
-    expect(issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message).toBe('Spur is required');
+    expect(
+      issueAt(rejected('gearing', { spur: 84.5, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
+    ).toBe('Spur must be a whole number');
+    expect(
+      issueAt(rejected('gearing', { spur: '', pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 }), 'spur').message,
+    ).toBe('Spur is required');
   });
 
   it('exposes a schema, fields and defaults that agree', () => {

@@ -21,9 +21,13 @@ describe('temperature calculator', () => {
     fc.assert(
       fc.property(fc.double({ min: -60, max: 300, noNaN: true }), (value) => {
         const fromC = computeTemperature({ value, unit: 'C', part: 'motor' }).results;
-        expect(Math.abs(fromC.f - convert(value).from('C').to('F'))).toBeLessThanOrEqual(1e-4 * Math.max(1, Math.abs(fromC.f))); // convert-units oracle
+        expect(Math.abs(fromC.f - convert(value).from('C').to('F'))).toBeLessThanOrEqual(
+          1e-4 * Math.max(1, Math.abs(fromC.f)),
+        ); // convert-units oracle
         const fromF = computeTemperature({ value, unit: 'F', part: 'motor' }).results;
-        expect(Math.abs(fromF.c - unit(value, 'degF').toNumber('degC'))).toBeLessThanOrEqual(1e-4 * Math.max(1, Math.abs(fromF.c))); // mathjs oracle
+        expect(Math.abs(fromF.c - unit(value, 'degF').toNumber('degC'))).toBeLessThanOrEqual(
+          1e-4 * Math.max(1, Math.abs(fromF.c)),
+        ); // mathjs oracle
       }),
     );
   });
@@ -70,7 +74,9 @@ describe('temperature calculator', () => {
         fc.double({ min: -60, max: 300, noNaN: true }),
         (part, a, b) => {
           const [low, high] = a <= b ? [a, b] : [b, a];
-          expect(order.indexOf(temperatureBand(high, part))).toBeGreaterThanOrEqual(order.indexOf(temperatureBand(low, part)));
+          expect(order.indexOf(temperatureBand(high, part))).toBeGreaterThanOrEqual(
+            order.indexOf(temperatureBand(low, part)),
+          );
         },
       ),
     );
@@ -89,6 +95,8 @@ describe('temperature calculator', () => {
     expect(issueAt(issues, 'value').message).toBe('Temperature is required');
     expect(issueAt(issues, 'unit').message).toBe('Unit must be one of: °C, °F (got "K")');
     expect(issueAt(issues, 'part').message).toMatch(/Part must be one of: Motor, Speed controller \(ESC\), Pack/);
-    expect(issueAt(rejected('temperature', { value: 400, unit: 'C' }), 'value').message).toBe('Temperature must be at most 300');
+    expect(issueAt(rejected('temperature', { value: 400, unit: 'C' }), 'value').message).toBe(
+      'Temperature must be at most 300',
+    );
   });
 });

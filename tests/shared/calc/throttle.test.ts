@@ -21,26 +21,37 @@ describe('throttle calculator', () => {
 
   it('times the punch ramp from the rate limit out[n+1] ≤ out[n] + rate × Δt', () => {
     // REFERENCES.md "Throttle and brake" (common practice): 100 % at 400 %/s takes 0.25 s
-    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 400 }).results.rampTimeMs).toBeCloseTo(250, 9);
-    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 1000 }).results.rampTimeMs).toBeCloseTo(100, 9);
+    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 400 }).results.rampTimeMs).toBeCloseTo(
+      250,
+      9,
+    );
+    expect(run<ThrottleResults>('throttle', { expoPct: 0, punchRatePctPerS: 1000 }).results.rampTimeMs).toBeCloseTo(
+      100,
+      9,
+    );
     const half = computeThrottle({ expoPct: 0, punchRatePctPerS: 400, inputPct: 50 }).results;
     expect(half.rampTimeToOutputMs).toBeCloseTo(125, 9); // 50 % at 400 %/s
   });
 
   it('never lets the step response rise faster than the punch rate and settles on the target', () => {
     fc.assert(
-      fc.property(fc.integer({ min: -100, max: 100 }), fc.integer({ min: 10, max: 10_000 }), fc.integer({ min: 1, max: 100 }), (expoPct, rate, inputPct) => {
-        const r = computeThrottle({ expoPct, punchRatePctPerS: rate, inputPct }).results;
-        for (let i = 1; i < r.stepResponse.length; i++) {
-          const dt = (r.stepResponse[i].timeMs - r.stepResponse[i - 1].timeMs) / 1000;
-          const rise = r.stepResponse[i].outputPct - r.stepResponse[i - 1].outputPct;
-          // Displayed values carry 5 significant figures (relative error ≤ 5e-5 each), hence the slack.
-          const slack = 1e-4 * 100 + (rate * 1e-4 * r.stepResponse[i].timeMs) / 1000;
-          expect(rise).toBeLessThanOrEqual(rate * dt + slack);
-          expect(rise).toBeGreaterThanOrEqual(0);
-        }
-        expect(r.stepResponse.at(-1)!.outputPct).toBeCloseTo(r.outputPctAt!, 2);
-      }),
+      fc.property(
+        fc.integer({ min: -100, max: 100 }),
+        fc.integer({ min: 10, max: 10_000 }),
+        fc.integer({ min: 1, max: 100 }),
+        (expoPct, rate, inputPct) => {
+          const r = computeThrottle({ expoPct, punchRatePctPerS: rate, inputPct }).results;
+          for (let i = 1; i < r.stepResponse.length; i++) {
+            const dt = (r.stepResponse[i].timeMs - r.stepResponse[i - 1].timeMs) / 1000;
+            const rise = r.stepResponse[i].outputPct - r.stepResponse[i - 1].outputPct;
+            // Displayed values carry 5 significant figures (relative error ≤ 5e-5 each), hence the slack.
+            const slack = 1e-4 * 100 + (rate * 1e-4 * r.stepResponse[i].timeMs) / 1000;
+            expect(rise).toBeLessThanOrEqual(rate * dt + slack);
+            expect(rise).toBeGreaterThanOrEqual(0);
+          }
+          expect(r.stepResponse.at(-1)!.outputPct).toBeCloseTo(r.outputPctAt!, 2);
+        },
+      ),
     );
   });
 
@@ -67,7 +78,8 @@ describe('throttle calculator', () => {
         const { points } = computeThrottle({ expoPct: expo, punchRatePctPerS: 400 }).results;
         expect(points[0].outputPct).toBe(0);
         expect(points.at(-1)!.outputPct).toBeCloseTo(100, 9);
-        for (let i = 1; i < points.length; i++) expect(points[i].outputPct).toBeGreaterThanOrEqual(points[i - 1].outputPct);
+        for (let i = 1; i < points.length; i++)
+          expect(points[i].outputPct).toBeGreaterThanOrEqual(points[i - 1].outputPct);
       }),
     );
   });
@@ -85,6 +97,8 @@ describe('throttle calculator', () => {
     expect(issueAt(issues, 'expoPct').message).toBe('Throttle curve (expo) must be at least -100%');
     expect(issueAt(issues, 'punchRatePctPerS').message).toBe('Punch rate is required');
     expect(issueAt(issues, 'punch').message).toMatch(/Did you mean "punchRatePctPerS"/);
-    expect(issueAt(rejected('throttle', { expoPct: 0, punchRatePctPerS: 400, inputPct: 101 }), 'inputPct').message).toBe('Stick position must be at most 100%');
+    expect(
+      issueAt(rejected('throttle', { expoPct: 0, punchRatePctPerS: 400, inputPct: 101 }), 'inputPct').message,
+    ).toBe('Stick position must be at most 100%');
   });
 });

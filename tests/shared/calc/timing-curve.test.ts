@@ -1,6 +1,11 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { computeTimingCurve, timingAt, type TimingCurveInput, type TimingCurveResults } from '../../../shared/calc/timing-curve';
+import {
+  computeTimingCurve,
+  timingAt,
+  type TimingCurveInput,
+  type TimingCurveResults,
+} from '../../../shared/calc/timing-curve';
 import { issueAt, rejected, run } from './helpers';
 
 const ramp30 = { baseDeg: 0, rampDeg: 30, rampStartRpm: 10_000, rampEndRpm: 30_000 };
@@ -109,7 +114,9 @@ describe('timing-curve calculator', () => {
   it('rejects a ramp end at or below the start on the rampEndRpm field', () => {
     const issue = issueAt(rejected('timing-curve', { ...ramp30, rampEndRpm: 10_000 }), 'rampEndRpm');
     expect(issue.message).toBe('Ramp end must be above the ramp start (10000 rpm)');
-    expect(issueAt(rejected('timing-curve', { ...ramp30, rampEndRpm: 5_000 }), 'rampEndRpm').message).toMatch(/above the ramp start/);
+    expect(issueAt(rejected('timing-curve', { ...ramp30, rampEndRpm: 5_000 }), 'rampEndRpm').message).toMatch(
+      /above the ramp start/,
+    );
   });
 
   it('rejects out-of-range, odd-pole and unknown fields, naming each', () => {
@@ -117,6 +124,8 @@ describe('timing-curve calculator', () => {
     expect(issueAt(issues, 'baseDeg').message).toBe('Base timing must be at most 60°');
     expect(issueAt(issues, 'poles').message).toMatch(/even/);
     expect(issueAt(issues, 'boostDeg').message).toMatch(/Unknown field "boostDeg"/);
-    expect(issueAt(rejected('timing-curve', { ...ramp30, atRpm: 'fast' }), 'atRpm').message).toBe('Read at must be a number (got "fast")');
+    expect(issueAt(rejected('timing-curve', { ...ramp30, atRpm: 'fast' }), 'atRpm').message).toBe(
+      'Read at must be a number (got "fast")',
+    );
   });
 });

@@ -69,6 +69,8 @@ describe('top-speed calculator', () => {
     const issues = rejected('top-speed', { ...checkVector, loadFactor: 0.4, tyreDiameterMm: undefined });
     expect(issueAt(issues, 'loadFactor').message).toBe('Load factor must be at least 0.5');
     expect(issueAt(issues, 'tyreDiameterMm').message).toBe('Tyre diameter is required');
-    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe('Load factor must be at most 1');
+    expect(issueAt(rejected('top-speed', { ...checkVector, loadFactor: 1.2 }), 'loadFactor').message).toBe(
+      'Load factor must be at most 1',
+    );
   });
 });

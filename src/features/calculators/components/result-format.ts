@@ -5,7 +5,8 @@ export type ResultLine = { key: string; label: string; value: string; note?: str
 
 type R = Record<string, unknown>;
 
-const num = (v: unknown, digits = 2) => (typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—');
+const num = (v: unknown, digits = 2) =>
+  typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—';
 /** Volts read to the hundredth, as chargers and checkers show them (8.40 V, not 8.4 V). */
 const volts = (v: unknown) =>
   typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 }) : '—';
