@@ -85,7 +85,7 @@ describe('motor bench journey in Chromium', () => {
         testedAt: '2026-11-08T19:30',
         notes: 'After rebuild, new bearings',
       });
-      await expect.poll(() => page.locator('tbody tr[data-check-id]').count()).toBe(2);
+      await expect.poll(() => page.locator('tbody tr[data-check-id]').count(), { timeout: 20_000 }).toBe(2);
       await page.getByText('(3×)').waitFor();
 
       // Compare: the timing row is clearly outside and highlighted; the finding says what it usually means.
@@ -104,7 +104,7 @@ describe('motor bench journey in Chromium', () => {
       expect(await chart.getAttribute('data-limits')).toBe('none');
       await addChecksByApi(page, motorId, [17_010, 17_050, 16_990, 17_030, 17_000, 17_040]);
       await page.reload();
-      await expect.poll(() => page.locator('tbody tr[data-check-id]').count()).toBe(8);
+      await expect.poll(() => page.locator('tbody tr[data-check-id]').count(), { timeout: 20_000 }).toBe(8);
       await page.locator('[data-chart="motor-history"][data-limits="shown"]').waitFor();
       await page.getByText('upper limit').waitFor();
       await page.locator('[data-chart="motor-history"]').scrollIntoViewIfNeeded();
