@@ -8,5 +8,8 @@ import { RevisionEntity } from '../modules/revisions/revision.entity';
 import { SetupEntity } from '../modules/setups/setup.entity';
 import { ReviewApprovalEntity } from '../modules/revisions/review-approval.entity';
 
+import { MotorEntity } from '../modules/motors/motor.entity';
+import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
+
 /** Every entity the data source knows; modules add theirs here. */
-export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity, ReviewApprovalEntity];
+export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity, ReviewApprovalEntity, MotorEntity, BenchCheckEntity];

@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 import { DEMO_ACCOUNTS } from './demo-accounts';
+import { seedDemoMotor } from '../modules/motors/demo';
 import { seedGuideBaselines, seedGuides, seedParameters } from './seed-content';
 
 export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
@@ -33,5 +34,7 @@ export async function seed(ds: DataSource, opts: SeedOptions) {
     log(`demo guides ready (${guides} new)`);
     const baselines = await seedGuideBaselines(ds);
     log(`guide baselines ready (${baselines} attached)`);
+    const benchChecks = await seedDemoMotor(ds, users.get('rosa'));
+    log(`demo motor bench ready (${benchChecks} new checks)`);
   }
 }

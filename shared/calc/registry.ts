@@ -1,4 +1,8 @@
+import { benchVerdictCalculator } from './bench-verdict';
 import { brakeCalculator } from './brake';
+import { electricalDegreesCalculator } from './electrical-degrees';
+import { measuredKvCalculator } from './measured-kv';
+import { windingResistanceCalculator } from './winding-resistance';
 import { gearingCalculator } from './gearing';
 import { toCalcIssues } from './inputs';
 import { motorCalculator } from './motor';
@@ -21,6 +25,10 @@ export const calculators = {
   brake: brakeCalculator,
   temperature: temperatureCalculator,
   'run-time': runTimeCalculator,
+  'measured-kv': measuredKvCalculator,
+  'winding-resistance': windingResistanceCalculator,
+  'electrical-degrees': electricalDegreesCalculator,
+  'bench-verdict': benchVerdictCalculator,
 } as const;
 
 /** A calculator's name. */

@@ -3,7 +3,8 @@ import { z } from 'zod';
 import { CLASS_SLUGS, SURFACE_SLUGS } from '../constants';
 import { packChemistries } from '../calc/chemistry';
 
-// Our own document type for a baseline setup: `tunewright.setup`, schema version 1.
+// Our own document type for a baseline setup: `tunewright.setup`, schema version 2 (version 1 records,
+// which cannot name a registered motor, are still read).
 // Every number carries its unit in its field name (tyreDiameterMm, capacityMah, ambientTempC …);
 // ESC settings carry their unit beside the value, because the parameter library owns those units.
 // The structure below contains no transforms or defaults, so input and output types are the same
@@ -11,10 +12,15 @@ import { packChemistries } from '../calc/chemistry';
 
 /** The `format` every setup record carries. */
 export const SETUP_FORMAT = 'tunewright.setup';
-/** The one schema version this build reads and writes. */
-export const SETUP_SCHEMA_VERSION = 1;
-/** Where the JSON Schema of version 1 is served. */
-export const SETUP_SCHEMA_PATH = '/schemas/setup-record.v1.json';
+/** The schema version this build writes. */
+export const SETUP_SCHEMA_VERSION = 2;
+/** Every schema version this build reads: version 2 only adds `motor.registeredMotorId`. */
+export const SETUP_SCHEMA_VERSIONS = [1, 2] as const;
+export type SetupSchemaVersion = (typeof SETUP_SCHEMA_VERSIONS)[number];
+/** Where the JSON Schema of each version is served. */
+export const SETUP_SCHEMA_PATHS: Readonly<Record<SetupSchemaVersion, string>> = { 1: '/schemas/setup-record.v1.json', 2: '/schemas/setup-record.v2.json' };
+/** Where the JSON Schema of the current version is served. */
+export const SETUP_SCHEMA_PATH = SETUP_SCHEMA_PATHS[SETUP_SCHEMA_VERSION];
 
 /** Drivetrain layouts a record can name. */
 export const DRIVETRAINS = ['2wd', '4wd'] as const;
@@ -31,6 +37,13 @@ export const SLUGS_WITH_OWN_FIELD: Readonly<Record<string, string>> = {
   rollout: 'gearing (it is computed from the gearing and tyre diameter)',
   'cell-count': 'battery.cells',
   'pack-chemistry': 'battery.chemistry',
+  // Bench readings of a motor, not controller settings: they belong in a bench check of a registered motor.
+  'bench-no-load-speed': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'bench-no-load-current': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'bench-timing-reading': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'rotor-symmetry': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'sensor-signal-deviation': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
+  'phase-resistance': 'a bench check of a registered motor (it is a bench reading, not a controller setting)',
 };
 
 const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v));
@@ -78,6 +91,11 @@ const motorShape = {
   sensored: z.boolean({ error: 'Sensored must be true or false' }),
   endbellTimingDeg: num('Endbell timing', 'deg', 0, 60).optional(),
 };
+
+/** Version 2: the member's registered motor this setup used (an id from their motor register, private to them). */
+const registeredMotorId = z
+  .uuid({ error: 'Registered motor must be a motor id from your motor register' })
+  .meta({ title: 'Registered motor', description: 'Id of a motor in the owner’s motor register (schema version 2)' });
 
 const gearingSchema = z.strictObject(
   {
@@ -134,28 +152,42 @@ const escSettingsStructure = z
   })
   .meta({ title: 'ESC settings', description: 'Parameter slug → { value, unit }; slugs and units come from the parameter library.' });
 
-function structure(escSettings: z.ZodType<Record<string, z.infer<typeof escSettingSchema>>>, motorRefined: boolean) {
-  const motorBase = z.strictObject(motorShape, unknownKeys('motor'));
+function structure(
+  escSettings: z.ZodType<Record<string, z.infer<typeof escSettingSchema>>>,
+  motorRefined: boolean,
+  versions: readonly SetupSchemaVersion[] = SETUP_SCHEMA_VERSIONS,
+) {
+  const motorBase = z.strictObject(
+    { ...motorShape, ...(versions.includes(2) ? { registeredMotorId: registeredMotorId.optional() } : {}) },
+    unknownKeys('motor'),
+  );
   const motor = motorRefined
     ? motorBase.superRefine((m, ctx) => {
         if (m.kvRpmPerV === undefined && m.windTurns === undefined) ctx.addIssue({ code: 'custom', path: ['kvRpmPerV'], message: 'Give the motor kV (rpm/V) or its wind (turns), or both' });
       })
     : motorBase;
-  return z.strictObject(
-    {
-      format: z.literal(SETUP_FORMAT, { error: `format must be "${SETUP_FORMAT}"` }),
-      schemaVersion: z.literal(SETUP_SCHEMA_VERSION, { error: `schemaVersion must be ${SETUP_SCHEMA_VERSION}` }),
-      vehicle: vehicleSchema,
-      motor,
-      escSettings,
-      gearing: gearingSchema,
-      battery: batterySchema,
-      conditions: conditionsSchema,
-      notes: text('Notes', 4000).optional(),
-      provenance: provenanceSchema.optional(),
-    },
-    unknownKeys('the setup record'),
-  );
+  return z
+    .strictObject(
+      {
+        format: z.literal(SETUP_FORMAT, { error: `format must be "${SETUP_FORMAT}"` }),
+        schemaVersion: z.literal(versions, { error: `schemaVersion must be ${versions.join(' or ')}` }),
+        vehicle: vehicleSchema,
+        motor,
+        escSettings,
+        gearing: gearingSchema,
+        battery: batterySchema,
+        conditions: conditionsSchema,
+        notes: text('Notes', 4000).optional(),
+        provenance: provenanceSchema.optional(),
+      },
+      unknownKeys('the setup record'),
+    )
+    .superRefine((r, ctx) => {
+      const motor = r.motor as { registeredMotorId?: string };
+      if (r.schemaVersion === 1 && motor.registeredMotorId !== undefined) {
+        ctx.addIssue({ code: 'custom', path: ['motor', 'registeredMotorId'], message: 'A registered motor needs schemaVersion 2' });
+      }
+    });
 }
 
 /**
@@ -226,13 +258,13 @@ export function setupRecordSchema(library: readonly SettingDefinition[]) {
   return structure(escSettingsStructure.superRefine(checkEscSettings(library)), true);
 }
 
-/** The JSON Schema (2020-12) of version 1, generated from the structure schema. */
-export function setupRecordJsonSchema(id?: string): Record<string, unknown> {
-  const generated = z.toJSONSchema(setupRecordStructureSchema, { target: 'draft-2020-12' }) as Record<string, unknown>;
+/** The JSON Schema (2020-12) of one version (the current one by default), generated from the structure schema. */
+export function setupRecordJsonSchema(id?: string, version: SetupSchemaVersion = SETUP_SCHEMA_VERSION): Record<string, unknown> {
+  const generated = z.toJSONSchema(structure(escSettingsStructure, false, [version]), { target: 'draft-2020-12' }) as Record<string, unknown>;
   return {
     $schema: 'https://json-schema.org/draft/2020-12/schema',
     ...(id ? { $id: id } : {}),
-    title: 'Tunewright setup record, version 1',
+    title: `Tunewright setup record, version ${version}`,
     description:
       'A baseline setup for a radio-controlled car: vehicle, motor, ESC settings keyed by parameter slug, gearing, battery, conditions, notes and provenance. ' +
       'Units are in the field names. The server also checks ESC settings against the parameter library (known slugs, units and ranges) and that the motor gives kV or wind.',

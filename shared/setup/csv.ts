@@ -19,7 +19,8 @@ type Row = [path: string, value: string, unit: string, source: 'record' | 'compu
 // Text that already starts with apostrophes before such a character gets one more, so the
 // escape is lossless both ways.
 const NEEDS_ESCAPE = /^'*[=+\-@\t\r]/;
-const escapeText = (s: string) => (NEEDS_ESCAPE.test(s) ? `'${s}` : s);
+/** Prefixes text a spreadsheet would run as a formula with an apostrophe (lossless; import removes it). */
+export const escapeText = (s: string) => (NEEDS_ESCAPE.test(s) ? `'${s}` : s);
 const unescapeText = (s: string) => (s.startsWith("'") && NEEDS_ESCAPE.test(s.slice(1)) ? s.slice(1) : s);
 
 function cell(value: SetupLeafValue, textField: boolean): string {

@@ -30,6 +30,7 @@ export const SETUP_FIELDS: readonly SetupFieldDef[] = [
   { path: 'motor.poles', label: 'Rotor poles', unit: 'poles', type: 'integer', section: 'motor' },
   { path: 'motor.sensored', label: 'Sensored', unit: '', type: 'boolean', section: 'motor' },
   { path: 'motor.endbellTimingDeg', label: 'Endbell timing', unit: 'deg', type: 'number', section: 'motor' },
+  { path: 'motor.registeredMotorId', label: 'Registered motor', unit: '', type: 'string', section: 'motor' },
   { path: 'gearing.spurTeeth', label: 'Spur', unit: 'teeth', type: 'integer', section: 'gearing' },
   { path: 'gearing.pinionTeeth', label: 'Pinion', unit: 'teeth', type: 'integer', section: 'gearing' },
   { path: 'gearing.internalRatio', label: 'Internal ratio', unit: ':1', type: 'number', section: 'gearing' },

@@ -1,5 +1,12 @@
 import type { z } from 'zod';
-import { SETUP_FORMAT, SETUP_SCHEMA_VERSION, setupRecordSchema, type SettingDefinition, type SetupRecord } from '../schemas/setup-record';
+import {
+  SETUP_FORMAT,
+  SETUP_SCHEMA_VERSION,
+  SETUP_SCHEMA_VERSIONS,
+  setupRecordSchema,
+  type SettingDefinition,
+  type SetupRecord,
+} from '../schemas/setup-record';
 import { looksLikeSetupCsv, setupFromCsv } from './csv';
 
 /** One problem with an imported setup, addressed by its path in the record. */
@@ -17,7 +24,7 @@ export function setupIssuesFromZod(error: z.ZodError): SetupIssue[] {
   });
 }
 
-/** Validates an already-parsed object as a version-1 setup record against the parameter library. */
+/** Validates an already-parsed object as a setup record (version 1 or 2) against the parameter library. */
 export function validateSetupObject(value: unknown, library: readonly SettingDefinition[]): SetupImportResult {
   if (value === null || typeof value !== 'object' || Array.isArray(value)) {
     return { ok: false, status: 400, issues: [{ path: '(record)', message: 'A setup record is a JSON object with format, schemaVersion, vehicle, motor, escSettings, gearing, battery and conditions' }] };
@@ -26,11 +33,11 @@ export function validateSetupObject(value: unknown, library: readonly SettingDef
   if (v.format !== undefined && v.format !== SETUP_FORMAT) {
     return { ok: false, status: 400, issues: [{ path: 'format', message: `This is not a Tunewright setup record (format is ${JSON.stringify(v.format)}, expected "${SETUP_FORMAT}")` }] };
   }
-  if (v.schemaVersion !== undefined && v.schemaVersion !== SETUP_SCHEMA_VERSION) {
+  if (v.schemaVersion !== undefined && !(SETUP_SCHEMA_VERSIONS as readonly unknown[]).includes(v.schemaVersion)) {
     return {
       ok: false,
       status: 400,
-      issues: [{ path: 'schemaVersion', message: `This file uses schema version ${JSON.stringify(v.schemaVersion)}; Tunewright reads version ${SETUP_SCHEMA_VERSION}. Export it again as version ${SETUP_SCHEMA_VERSION}.` }],
+      issues: [{ path: 'schemaVersion', message: `This file uses schema version ${JSON.stringify(v.schemaVersion)}; Tunewright reads versions ${SETUP_SCHEMA_VERSIONS.join(' and ')}. Export it again as version ${SETUP_SCHEMA_VERSION}.` }],
     };
   }
   const parsed = setupRecordSchema(library).safeParse(value);
@@ -54,7 +61,8 @@ export function parseSetupText(text: string, kind: 'json' | 'csv', library: read
     return { ok: false, status: 415, issues: [{ path: '(file)', message: 'This CSV is not in the Tunewright layout: the first row must be path,value,unit,source' }] };
   }
   const { record, issues } = setupFromCsv(body);
-  if (record.schemaVersion !== undefined && record.schemaVersion !== SETUP_SCHEMA_VERSION) return validateSetupObject(record, library);
+  if (record.schemaVersion !== undefined && !(SETUP_SCHEMA_VERSIONS as readonly unknown[]).includes(record.schemaVersion))
+    return validateSetupObject(record, library);
   const checked = validateSetupObject(record, library);
   if (issues.length) return { ok: false, status: 400, issues: [...issues, ...(checked.ok ? [] : checked.issues.filter((i) => !issues.some((x) => x.path === i.path)))] };
   return checked;

@@ -29,6 +29,11 @@ export const router = createBrowserRouter([
     lazy: () => import('./routes/guide-setup-print').then((m) => ({ Component: m.GuideSetupPrintPage })),
   },
   {
+    path: 'motors/:id/print',
+    errorElement: <RouteError />,
+    lazy: () => import('./routes/motor-print').then((m) => ({ Component: m.MotorPrintPage })),
+  },
+  {
     element: <AppLayout />,
     errorElement: <RouteError />,
     HydrateFallback,
@@ -58,6 +63,8 @@ export const router = createBrowserRouter([
       { path: 'me/revisions', lazy: () => import('./routes/workbench').then((m) => ({ Component: m.WorkbenchPage })) },
       { path: 'review', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewQueuePage })) },
       { path: 'review/:revisionId', lazy: () => import('./routes/review').then((m) => ({ Component: m.ReviewDetailPage })) },
+      { path: 'motors', lazy: () => import('./routes/motors').then((m) => ({ Component: m.MotorsPage })) },
+      { path: 'motors/:id', lazy: () => import('./routes/motor').then((m) => ({ Component: m.MotorPage })) },
       { path: 'search', lazy: () => import('./routes/search').then((m) => ({ Component: m.SearchPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },

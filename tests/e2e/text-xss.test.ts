@@ -156,6 +156,20 @@ beforeAll(async () => {
     uploads.push({ id: saved.id, label: saved.originalName, ...fields });
   }
 
+  // Registered motors: label, rotor notes and bench-check notes (private, so only their owner's pages show them).
+  const motorLabels = packCorpus(T, 80).map((x) => x.trim());
+  const rotorNotes = packCorpus(T, 500).map((x) => x.trim());
+  const checkNotes = packCorpus(T, 2000);
+  const motors: Array<{ id: string; label: string; rotorNotes: string; notes: string }> = [];
+  // Every label shows on the register; only as many motor pages as the longer fields need are visited.
+  for (let m = 0; m < motorLabels.length; m++) {
+    const fields = { label: motorLabels[m], rotorNotes: rotorNotes[m % rotorNotes.length], notes: checkNotes[m % checkNotes.length] };
+    const motor = await ok(rosa.post('/api/motors', { label: fields.label, poles: 2, sensored: true, rotorNotes: fields.rotorNotes }), 201);
+    await ok(rosa.post(`/api/motors/${motor.data.id}/checks`, { testVoltageV: 7.4, noLoadRpm: 17_020, notes: fields.notes }), 201);
+    motors.push({ id: String(motor.data.id), ...fields });
+  }
+  const motorPages = motors.slice(0, Math.max(rotorNotes.length, checkNotes.length));
+
   // The pages, with the text each must show as written (proof the corpus reached it).
   const anon = null;
   const allTitles = guides.map((g) => g.title);
@@ -179,6 +193,9 @@ beforeAll(async () => {
     const b = uploads[u + 1] ?? uploads[0];
     addVisit({ place: 'setup chassis/layout/notes/file name: compare page', who: demo('rosa'), path: `/setups/compare?a=${a.id}&b=${b.id}`, expectText: [a.chassis, b.chassis, a.layout, b.layout, a.notes, b.notes, a.label, b.label], pieces: piecesIn([...chassis, ...layouts, ...setupNotes]), fullLoad: true });
   }
+  addVisit({ place: 'motor label: motor register', who: demo('rosa'), path: '/motors', expectText: motors.map((m) => m.label), pieces: piecesIn(motorLabels) });
+  for (const m of motorPages) addVisit({ place: 'motor label/rotor notes/check notes: motor page', who: demo('rosa'), path: `/motors/${m.id}`, expectText: [m.label, m.rotorNotes, m.notes], pieces: piecesIn([...motorLabels, ...rotorNotes, ...checkNotes]), fullLoad: true });
+  for (const m of motors.slice(0, checkNotes.length)) addVisit({ place: 'motor label/check notes: bench sheet', who: demo('rosa'), path: `/motors/${m.id}/print`, expectText: [m.label, m.notes], pieces: piecesIn([...motorLabels, ...checkNotes]), fullLoad: true });
 }, 120_000);
 
 /** One browser context per account, signed in through the API (the context shares its cookies). */

@@ -11,6 +11,7 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../s
 import { createUser, signedInClient } from '../factories/user';
 import { createDraftGuide, createPublishedGuide, proposeEdit } from '../factories/guide';
 import { buildSetupRecord } from '../factories/setup-record';
+import { motorScenarios } from './authorization-matrix-motors';
 
 // Generated from the route table: every guarded route × every role, then every route that declares an
 // ownership rule × owner / another member / moderator / admin / visitor.
@@ -131,6 +132,7 @@ function refusals(route: RouteDef): Partial<Record<Who, Expect>> {
     'revision:not-owner': { owner: err(403, 'own_revision') },
     'setup-upload:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
     'account:not-owner': { owner: err(409, 'cannot_change_self') },
+    'motor:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found') },
   };
   return { ...signIn, ...(byRule[key] ?? {}), ...below };
 }
@@ -230,6 +232,7 @@ function documentScenarios(kind: 'guides' | 'parameters'): Record<string, Scenar
 }
 
 const scenarios: Record<string, Scenario[]> = {
+  ...motorScenarios,
   ...documentScenarios('guides'),
   ...documentScenarios('parameters'),
   'GET /api/revisions/:id': [

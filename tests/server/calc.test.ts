@@ -210,8 +210,48 @@ describe('POST /api/calc/:name', () => {
     expect(paths(await runBad('run-time', { averageCurrentA: 20 }))).toEqual(['body.capacityMah']);
   });
 
+  it('measured-kv: 63,270 rpm at 11.1 V is 5,700 rpm/V; a zero voltage is named', async () => {
+    const { results } = await runGood('measured-kv', { noLoadRpm: 63270, testVoltageV: 11.1 });
+    expect(results.measuredKv).toBeCloseTo(5700, 6); // Wikipedia, "Motor constants": 5,700 rpm/V × 11.1 V = 63,270 rpm
+    expect(paths(await runBad('measured-kv', { noLoadRpm: 63270, testVoltageV: 0 }))).toEqual(['body.testVoltageV']);
+  });
+
+  it('winding-resistance: 0.1 Ω at 20 °C is 0.11179 Ω at 50 °C and back; 250 °C is named', async () => {
+    const up = await runGood('winding-resistance', { direction: 'from-20c', resistanceOhm: 0.1, tempC: 50 });
+    expect(up.results.rAtTempOhm).toBeCloseTo(0.11179, 5); // IEC 60028: α20 = 0.00393 /K, 0.1 Ω → 0.11179 Ω at 50 °C
+    const down = await runGood('winding-resistance', { direction: 'to-20c', resistanceOhm: 0.11179, tempC: 50 });
+    expect(down.results.r20Ohm).toBeCloseTo(0.1, 5); // IEC 60028, the same vector backwards
+    expect(paths(await runBad('winding-resistance', { direction: 'to-20c', resistanceOhm: 0.1, tempC: 250 }))).toEqual(['body.tempC']);
+  });
+
+  it('electrical-degrees: 15 mechanical degrees on a 4-pole rotor are 30 electrical', async () => {
+    const { results } = await runGood('electrical-degrees', { degrees: 15, from: 'mechanical', poles: 4 });
+    expect(results.electricalDeg).toBe(30); // electrical = mechanical × pole pairs (common practice; n = 120·f/P, Ohio Univ. basic EE notes §14.3)
+    expect(paths(await runBad('electrical-degrees', { degrees: 15, from: 'mechanical', poles: 5 }))).toEqual(['body.poles']);
+  });
+
+  it('bench-verdict: a change past the tolerance plus the spread is clearly outside', async () => {
+    const { results } = await runGood('bench-verdict', { reference: 30, measured: 38, tolerance: 3, spread: 1 });
+    expect(results.verdict).toBe('clearly_outside'); // 8 > 3 + 1 (our rule after ILAC-G8:09/2019 guard bands)
+    expect(paths(await runBad('bench-verdict', { reference: 30, measured: 38, tolerance: 0 }))).toEqual(['body.tolerance']);
+  });
+
   it('covers every calculator in this file', () => {
     // Guards against a new calculator landing without API checks above.
-    expect(Object.keys(calculators).sort()).toEqual(['brake', 'gearing', 'motor', 'pack', 'run-time', 'temperature', 'throttle', 'timing-curve', 'top-speed']);
+    expect(Object.keys(calculators).sort()).toEqual([
+      'bench-verdict',
+      'brake',
+      'electrical-degrees',
+      'gearing',
+      'measured-kv',
+      'motor',
+      'pack',
+      'run-time',
+      'temperature',
+      'throttle',
+      'timing-curve',
+      'top-speed',
+      'winding-resistance',
+    ]);
   });
 });

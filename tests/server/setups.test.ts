@@ -56,6 +56,35 @@ describe('GET /schemas/setup-record.v1.json', () => {
   });
 });
 
+describe('GET /schemas/setup-record.v2.json', () => {
+  it('serves version 2: a registered motor may be named, and version 1 stays published beside it', async () => {
+    const res = await createClient(t.app).get('/schemas/setup-record.v2.json');
+    expect(res.status).toBe(200);
+    const validate = new Ajv2020({ allErrors: true, strict: false, validateFormats: false }).compile(JSON.parse(res.text));
+    const exported = JSON.parse((await createClient(t.app).get(`/api/guides/${GUIDE}/setup.json`)).text);
+    const v2 = { ...exported, schemaVersion: 2, motor: { ...exported.motor, registeredMotorId: '3f0c9a52-8d0e-4a51-9a51-2a7f0e0d1c11' } };
+    expect(validate(v2), JSON.stringify(validate.errors)).toBe(true);
+    expect(validate({ ...v2, schemaVersion: 1 })).toBe(false);
+  });
+});
+
+describe('POST /api/setups naming a registered motor', () => {
+  it("accepts the uploader's own motor and refuses anyone else's exactly like a missing one", async () => {
+    const { client: owner } = await signedInClient(t);
+    const { client: other } = await signedInClient(t);
+    const motor = (await owner.post('/api/motors', { label: 'Blue can', poles: 2, sensored: true })).body.data as { id: string };
+    const record = (id: string) => JSON.stringify({ ...buildSetupRecord(), schemaVersion: 2, motor: { ...buildSetupRecord().motor, registeredMotorId: id } });
+    const mine = await upload(owner, { name: 'mine.json', body: record(motor.id) });
+    expect(mine.status, JSON.stringify(mine.body)).toBe(201);
+    expect(mine.body.data.record.motor.registeredMotorId).toBe(motor.id);
+    const theirs = await upload(other, { name: 'theirs.json', body: record(motor.id) });
+    const missing = await upload(other, { name: 'theirs.json', body: record('00000000-0000-4000-8000-000000000000') });
+    expect(theirs.status).toBe(400);
+    expect(theirs.body).toEqual(missing.body);
+    expect(theirs.body.error.details).toEqual([{ path: 'motor.registeredMotorId', message: 'That is not a motor in your motor register' }]);
+  });
+});
+
 describe('GET /api/guides/:slug/setup', () => {
   it("returns the live revision's baseline with provenance and computed values", async () => {
     const res = await createClient(t.app).get(`/api/guides/${GUIDE}/setup`);
@@ -131,7 +160,7 @@ describe('POST /api/setups refuses bad uploads and stores nothing', () => {
     { why: 'binary bytes', file: { name: 'setup.json', body: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]) }, status: 415, path: 'file', message: /binary/ },
     { why: 'not UTF-8', file: { name: 'setup.json', body: Buffer.from([0x7b, 0xff, 0xfe, 0x7d]) }, status: 415, path: 'file', message: /UTF-8/ },
     { why: 'bad JSON', file: { name: 'setup.json', body: '{"format": "tunewright.setup", "schemaVersion": 1,' }, status: 400, path: '(file)', message: /Not valid JSON/ },
-    { why: 'schema version 2', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, schemaVersion: 2 })) }, status: 400, path: 'schemaVersion', message: /version 2/ },
+    { why: 'schema version 3', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, schemaVersion: 3 })) }, status: 400, path: 'schemaVersion', message: /version 3/ },
     { why: 'unknown slug', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brak': { value: 8, unit: '%' } } })) }, status: 400, path: 'escSettings.drag-brak', message: /Did you mean "drag-brake"/ },
     { why: 'out-of-range value', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brake': { value: 140, unit: '%' } } })) }, status: 400, path: 'escSettings.drag-brake.value', message: /between 0 % and 100 %/ },
     { why: '300 KB file', file: { name: 'setup.json', body: good + ' '.repeat(300 * 1024) }, status: 413, path: 'file', message: /256 KB/ },

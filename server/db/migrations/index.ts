@@ -3,5 +3,7 @@ import { Setups1796166650149 } from './1796166650149-setups';
 import { SignInAttempts1796175945183 } from './1796175945183-sign-in-attempts';
 import { ReviewApprovals1796190000000 } from './1796190000000-review-approvals';
 
+import { Motors1796408207857 } from './1796408207857-motors';
+
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
-export const migrations = [InitialSchema1764633600000, Setups1796166650149, SignInAttempts1796175945183, ReviewApprovals1796190000000];
+export const migrations = [InitialSchema1764633600000, Setups1796166650149, SignInAttempts1796175945183, ReviewApprovals1796190000000, Motors1796408207857];

@@ -1,6 +1,6 @@
 import type { Response } from 'express';
 import { z } from 'zod';
-import { SETUP_SCHEMA_PATH, setupRecordJsonSchema, setupRecordStructureSchema } from '../../../shared/schemas/setup-record';
+import { SETUP_SCHEMA_PATHS, SETUP_SCHEMA_VERSIONS, setupRecordJsonSchema, setupRecordStructureSchema } from '../../../shared/schemas/setup-record';
 import { compareSideSchema, setupLibrarySchema, setupRefSchema, setupUploadSchema, settingDefinitionSchema } from '../../../shared/schemas/setup';
 import { slugParam, uuidParam } from '../../../shared/schemas/common';
 import { computeSetup } from '../../../shared/setup/computed';
@@ -43,19 +43,22 @@ const compareQuery = z.object({
 const recordBody = z.record(z.string(), z.unknown(), { error: 'Send the setup record as a JSON object' });
 
 export const setupRoutes: RouteDef[] = [
-  defineRoute({
-    method: 'get',
-    path: SETUP_SCHEMA_PATH,
-    summary: 'JSON Schema (2020-12) of the tunewright.setup record, version 1',
-    tags: ['setups'],
-    access: 'public',
-    download: true,
-    handler: ({ res, ctx }) => {
-      const schema = setupRecordJsonSchema(`${ctx.config.appUrl}${SETUP_SCHEMA_PATH}`);
-      res.setHeader('Cache-Control', 'public, max-age=3600');
-      res.type('application/schema+json').status(200).send(JSON.stringify(schema, null, 2));
-    },
-  }),
+  // One JSON Schema per version the server reads (version 1 stays published for files written before version 2).
+  ...SETUP_SCHEMA_VERSIONS.map((version) =>
+    defineRoute({
+      method: 'get',
+      path: SETUP_SCHEMA_PATHS[version],
+      summary: `JSON Schema (2020-12) of the tunewright.setup record, version ${version}`,
+      tags: ['setups'],
+      access: 'public',
+      download: true,
+      handler: ({ res, ctx }) => {
+        const schema = setupRecordJsonSchema(`${ctx.config.appUrl}${SETUP_SCHEMA_PATHS[version]}`, version);
+        res.setHeader('Cache-Control', 'public, max-age=3600');
+        res.type('application/schema+json').status(200).send(JSON.stringify(schema, null, 2));
+      },
+    }),
+  ),
   defineRoute({
     method: 'get',
     path: '/api/setups',

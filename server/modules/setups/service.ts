@@ -13,6 +13,7 @@ import { UserEntity } from '../auth/user.entity';
 import { SetupEntity } from './setup.entity';
 import { checkFileContent, checkFileName, invalidSetup } from './upload';
 import { canReadUpload, mayChangeBaseline } from './policy';
+import { ownsMotor } from '../motors/service';
 import type { Actor } from '../revisions/policy';
 
 type Db = DataSource | EntityManager;
@@ -96,6 +97,11 @@ export async function createUpload(ctx: AppContext, ownerId: string, file: Expre
   if (!result.ok) throw invalidSetup(result.status, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
 
   const record = canonicalRecord(result.record);
+  const motorId = (record.motor as { registeredMotorId?: string }).registeredMotorId;
+  // Someone else's motor and a motor that does not exist get the same answer: nothing about other members leaks.
+  if (motorId && !(await ownsMotor(ctx.dataSource, ownerId, motorId))) {
+    throw invalidSetup(400, 'The setup record has a problem.', [{ path: 'motor.registeredMotorId', message: 'That is not a motor in your motor register' }]);
+  }
   const key = newStorageKey('setups', name.kind);
   await ctx.storage.put(key, file.buffer, name.kind === 'json' ? 'application/json' : 'text/csv; charset=utf-8');
   try {
@@ -166,6 +172,12 @@ export async function attachToRevision(ctx: AppContext, user: Actor, revisionId:
     if (!result.ok) throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
     // Provenance is stamped on export from the revision itself; whatever came in is not kept.
     const { provenance: _ignored, ...record } = canonicalRecord(result.record);
+    // A baseline is public once live; motors are private, so a guide's baseline never names one.
+    if ((record.motor as { registeredMotorId?: string }).registeredMotorId !== undefined) {
+      throw invalidSetup(400, 'The setup record has a problem.', [
+        { path: 'motor.registeredMotorId', message: 'A guide’s baseline is public: remove the registered motor (it is private to you)' },
+      ]);
+    }
     await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: record });
     await reopenIfReturned(m, user!.id, revision, doc);
     return record as SetupRecord;

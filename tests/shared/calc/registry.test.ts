@@ -42,10 +42,14 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
   },
   temperature: { inputs: ['value', 'unit', 'part'], results: ['c', 'f', 'band'] },
   'run-time': { inputs: ['capacityMah', 'averageCurrentA', 'usablePct', 'raceMin'], results: ['usableMah', 'runTimeMin', 'runTimeToEmptyMin', 'cRate'] },
+  'measured-kv': { inputs: ['noLoadRpm', 'testVoltageV'], results: ['measuredKv', 'ktNmPerA'] },
+  'winding-resistance': { inputs: ['direction', 'resistanceOhm', 'tempC'], results: ['r20Ohm', 'rAtTempOhm', 'changePct'] },
+  'electrical-degrees': { inputs: ['degrees', 'from', 'poles'], results: ['mechanicalDeg', 'electricalDeg', 'polePairs'] },
+  'bench-verdict': { inputs: ['reference', 'measured', 'tolerance', 'spread'], results: ['delta', 'deltaPct', 'verdict', 'label'] },
 };
 
 describe('calculator registry', () => {
-  it('holds exactly the calculators of the contract', () => {
+  it('holds exactly the calculators of the content spec and the bench ones', () => {
     expect([...calculatorNames].sort()).toEqual(Object.keys(contract).sort());
     for (const name of calculatorNames) expect(calculators[name].name).toBe(name);
     expect(getCalculator('gearing')).toBe(calculators.gearing);

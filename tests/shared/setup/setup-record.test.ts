@@ -41,9 +41,25 @@ describe('setupRecordSchema(library)', () => {
     expect(paths).toEqual(expect.arrayContaining(['gearing.pinionTeeth', 'escSettings.nonsense', 'motor.poles', 'motor.kvRpmPerV', '']));
   });
 
-  it('reports a schema version other than 1 on its own, plainly', () => {
-    const result = validateSetupObject({ ...buildSetupRecord(), schemaVersion: 2 }, library);
-    expect(result).toEqual({ ok: false, status: 400, issues: [{ path: 'schemaVersion', message: expect.stringContaining('schema version 2') }] });
+  it('reports a schema version other than 1 or 2 on its own, plainly', () => {
+    const result = validateSetupObject({ ...buildSetupRecord(), schemaVersion: 3 }, library);
+    expect(result).toEqual({ ok: false, status: 400, issues: [{ path: 'schemaVersion', message: expect.stringContaining('schema version 3') }] });
+  });
+
+  it('version 2 may name a registered motor; version 1 may not', () => {
+    const motorId = '3f0c9a52-8d0e-4a51-9a51-2a7f0e0d1c11';
+    const v2 = { ...buildSetupRecord(), schemaVersion: 2, motor: { ...buildSetupRecord().motor, registeredMotorId: motorId } };
+    expect(validateSetupObject(v2, library)).toMatchObject({ ok: true, record: { schemaVersion: 2, motor: { registeredMotorId: motorId } } });
+    expect(validateSetupObject({ ...v2, schemaVersion: 1 }, library)).toEqual({
+      ok: false,
+      status: 400,
+      issues: [{ path: 'motor.registeredMotorId', message: 'A registered motor needs schemaVersion 2' }],
+    });
+    expect(validateSetupObject({ ...v2, motor: { ...v2.motor, registeredMotorId: 'blue-can' } }, library)).toMatchObject({
+      ok: false,
+      issues: [{ path: 'motor.registeredMotorId' }],
+    });
+    expect(validateSetupObject(buildSetupRecord(), library).ok).toBe(true); // version 1 records are still read
   });
 
   it('says where JSON is broken', () => {
@@ -66,7 +82,7 @@ describe('setupRecordSchema(library)', () => {
 
 describe('JSON Schema of the setup record', () => {
   const ajv = new Ajv2020({ allErrors: true, strict: false, validateFormats: false });
-  const validate = ajv.compile(setupRecordJsonSchema('https://tunewright.test/schemas/setup-record.v1.json'));
+  const validate = ajv.compile(setupRecordJsonSchema('https://tunewright.test/schemas/setup-record.v1.json', 1));
 
   it('is a 2020-12 schema that ajv compiles', () => {
     const s = setupRecordJsonSchema();
@@ -89,7 +105,7 @@ describe('JSON Schema of the setup record', () => {
     expect(validate(good)).toBe(true);
     for (const bad of [
       { ...good, colour: 'red' },
-      { ...good, schemaVersion: 2 },
+      { ...good, schemaVersion: 3 },
       { ...good, gearing: { ...good.gearing, pinionTeeth: 32.5 } },
       { ...good, gearing: { ...good.gearing, tyreDiameterMm: '62' } },
       { ...good, motor: { ...good.motor, poles: 3 } },

@@ -149,6 +149,28 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
       }
       return lines;
     }
+    case 'measured-kv':
+      return [
+        { key: 'measuredKv', label: 'Measured kV', value: `${num(r.measuredKv, 0)} rpm/V`, primary: true },
+        { key: 'ktNmPerA', label: 'Torque constant', value: `${num(r.ktNmPerA, 6)} N·m/A` },
+      ];
+    case 'winding-resistance':
+      return [
+        { key: 'r20Ohm', label: 'At 20 °C', value: `${num(r.r20Ohm, 5)} Ω`, primary: true },
+        { key: 'rAtTempOhm', label: `At ${num(Number(inputs.tempC), 1)} °C`, value: `${num(r.rAtTempOhm, 5)} Ω`, primary: true },
+        { key: 'changePct', label: 'Change from 20 °C', value: `${num(r.changePct, 2)} %` },
+      ];
+    case 'electrical-degrees':
+      return [
+        { key: 'electricalDeg', label: 'Electrical', value: `${num(r.electricalDeg, 2)}°`, primary: true },
+        { key: 'mechanicalDeg', label: 'Mechanical', value: `${num(r.mechanicalDeg, 2)}°`, primary: true },
+        { key: 'polePairs', label: 'Pole pairs', value: num(r.polePairs, 0) },
+      ];
+    case 'bench-verdict':
+      return [
+        { key: 'verdict', label: 'Verdict', value: String(r.label ?? r.verdict), primary: true },
+        { key: 'delta', label: 'Change', value: num(r.delta, 4), note: r.deltaPct === null ? undefined : `${num(r.deltaPct, 2)} % of the reference` },
+      ];
   }
 }
 

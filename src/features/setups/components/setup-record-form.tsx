@@ -4,7 +4,7 @@ import { useMemo, useState, type ChangeEvent, type ReactNode } from 'react';
 import { get, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { CLASSES, SURFACES } from '@shared/constants';
 import { packChemistries, chemistryVoltages } from '@shared/calc/chemistry';
-import { canonicalRecord, DRIVETRAINS, setupRecordSchema, SLUGS_WITH_OWN_FIELD, type SetupRecord } from '@shared/schemas/setup-record';
+import { canonicalRecord, DRIVETRAINS, SETUP_SCHEMA_VERSION, setupRecordSchema, SLUGS_WITH_OWN_FIELD, type SetupRecord } from '@shared/schemas/setup-record';
 import type { SettingDefinitionRow } from '@shared/schemas/setup';
 import { computeSetup } from '@shared/setup/computed';
 import { parseSetupText, type SetupIssue } from '@shared/setup/import';
@@ -19,7 +19,7 @@ import { ComputedValues } from './computed-values';
 /** A new record's starting values: the required choices filled, the numbers left for the author. */
 const EMPTY: SetupRecord = {
   format: 'tunewright.setup',
-  schemaVersion: 1,
+  schemaVersion: SETUP_SCHEMA_VERSION,
   vehicle: { class: 'buggy-2wd-stock', chassis: '', drivetrain: '2wd' },
   motor: { poles: 2, sensored: true },
   escSettings: {},
