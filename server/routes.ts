@@ -9,6 +9,7 @@ import { calcRoutes } from './modules/calc/routes';
 import { setupRoutes } from './modules/setups/routes';
 import { guideRoutes } from './modules/guides/routes';
 import { revisionRoutes } from './modules/revisions/routes';
+import { runRoutes } from './modules/runs/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
-export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes];
+export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes, ...runRoutes];

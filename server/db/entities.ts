@@ -6,6 +6,17 @@ import { AuditLogEntity } from '../modules/audit/audit-log.entity';
 import { DocumentEntity } from '../modules/revisions/document.entity';
 import { RevisionEntity } from '../modules/revisions/revision.entity';
 import { SetupEntity } from '../modules/setups/setup.entity';
+import { RunEntity } from '../modules/runs/run.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
-export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity];
+export const entities = [
+  UserEntity,
+  UserTokenEntity,
+  OutboxMessageEntity,
+  CapturedMailEntity,
+  AuditLogEntity,
+  DocumentEntity,
+  RevisionEntity,
+  SetupEntity,
+  RunEntity,
+];
