@@ -489,6 +489,41 @@ const scenarios: Record<string, Scenario[]> = {
       expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/runs/${a.id}`)).status).toBe(404) } },
     },
   ],
+  'GET /api/revisions/:id/runs': [
+    {
+      label: "runs on the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        expect((await w.owner.client.put(`/api/revisions/${revision.id}/runs/${run}`)).status).toBe(200);
+        return { method: 'get', url: `/api/revisions/${revision.id}/runs`, id: revision.id };
+      },
+      expect: Object.fromEntries((['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res) => expect(res.body.data.length, who).toBe(1))])),
+    },
+  ],
+  'PUT /api/revisions/:id/runs/:runId': [
+    {
+      label: "the owner's run offered on the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        return { method: 'put', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+      },
+      expect: { owner: ok((res) => expect(res.body.data.length).toBe(1)) },
+    },
+  ],
+  'DELETE /api/revisions/:id/runs/:runId': [
+    {
+      label: "a run taken off the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        expect((await w.owner.client.put(`/api/revisions/${revision.id}/runs/${run}`)).status).toBe(200);
+        return { method: 'delete', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+      },
+      expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}/runs`)).body.data).toEqual([]) } },
+    },
+  ],
   'GET /api/auth/me': [
     {
       label: 'each caller sees their own account',

@@ -8,6 +8,7 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../s
 import { signedInClient } from '../factories/user';
 import { buildSetupRecord } from '../factories/setup-record';
 import { buildRunCsv, sendRun, uploadRun } from '../factories/run';
+import { createDraftGuide } from '../factories/guide';
 
 let t: TestApp;
 let rosa: TestClient;
@@ -269,5 +270,39 @@ describe('DELETE /api/runs/:id', () => {
     expect((await rosa.delete(`/api/runs/${id}`)).status).toBe(204);
     expect((await rosa.get(`/api/runs/${id}`)).status).toBe(404);
     expect(storedFiles().length).toBe(files - 2);
+  });
+});
+
+describe('PUT /api/revisions/:id/runs/:runId and GET /api/guides/:slug/evidence', () => {
+  it('a run offered on a draft stays private, the moderator sees its figures in review, and it is public once live', async () => {
+    const moderator = (await signedInClient(t, 'moderator')).client;
+    const { slug, revision } = await createDraftGuide(rosa);
+    const runId = await uploadRun(rosa, { fields: { title: 'Evidence: heat 3' } });
+    const attached = await rosa.put(`/api/revisions/${revision.id}/runs/${runId}`);
+    expect(attached.status, JSON.stringify(attached.body)).toBe(200);
+    expect(attached.body.data.map((r: { id: string }) => r.id)).toEqual([runId]);
+    // Someone else's run cannot be offered on your draft; nobody else can change your draft's evidence.
+    const jonahsRun = await uploadRun(jonah);
+    expect((await rosa.put(`/api/revisions/${revision.id}/runs/${jonahsRun}`)).status).toBe(404);
+    expect((await jonah.put(`/api/revisions/${revision.id}/runs/${jonahsRun}`)).status).toBe(404);
+    // Private while a draft and while in review.
+    expect((await createClient(t.app).get(`/api/runs/${runId}`)).status).toBe(404);
+    expect((await rosa.post(`/api/revisions/${revision.id}/submit`, { note: 'With a logged run' })).status).toBe(200);
+    expect((await jonah.get(`/api/runs/${runId}`)).status).toBe(404);
+    expect((await jonah.get(`/api/revisions/${revision.id}/runs`)).status).toBe(404);
+    const review = await moderator.get(`/api/revisions/${revision.id}/runs`);
+    expect(review.status).toBe(200);
+    expect(review.body.data[0].summary.peakRpm).toBeGreaterThan(0);
+    // Reviewed evidence cannot be pulled out from under the review.
+    expect((await rosa.delete(`/api/runs/${runId}`)).status).toBe(409);
+    expect((await moderator.post(`/api/reviews/${revision.id}/publish`)).status).toBe(200);
+    const visitor = createClient(t.app);
+    const evidence = await visitor.get(`/api/guides/${slug}/evidence`);
+    expect(evidence.status).toBe(200);
+    expect(evidence.body.data).toEqual([expect.objectContaining({ id: runId, title: 'Evidence: heat 3', isOwn: false, setupId: null })]);
+    expect((await visitor.get(`/api/runs/${runId}`)).status).toBe(200);
+    expect((await visitor.get(`/api/runs/${runId}/series?points=50`)).status).toBe(200);
+    expect((await visitor.delete(`/api/runs/${runId}`)).status).toBe(401);
+    expect((await jonah.delete(`/api/runs/${runId}`)).status).toBe(404);
   });
 });

@@ -8,6 +8,7 @@ import { compareRuns } from './compare';
 import { presentRun, presentRunListItem } from './presenter';
 import { createRun, deleteRun, getRun, listRuns, previewRun, runSeries, setupLabels } from './service';
 import { parseRunUpload } from './upload';
+import { evidenceRoutes } from './evidence-routes';
 
 /** The text fields sent beside the file; `mapping` is a JSON string (multipart fields are text). */
 export const runFieldsSchema = z.strictObject({
@@ -153,4 +154,5 @@ export const runRoutes: RouteDef[] = [
       await deleteRun(ctx, user!, params.id);
     },
   }),
+  ...evidenceRoutes,
 ];

@@ -9,7 +9,7 @@ import { RUNLOG_LIMITS, VALUE_CHANNELS } from '../../../shared/runlog/vocabulary
 import type { SetupRecord } from '../../../shared/schemas/setup-record';
 import type { RunPreview } from '../../../shared/schemas/run';
 import type { AppContext } from '../../context';
-import { notFound, validationFailed } from '../../lib/errors';
+import { AppError, notFound, validationFailed } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
 import { SetupEntity } from '../setups/setup.entity';
 import { canReadRun } from './policy';
@@ -145,6 +145,12 @@ export async function setupLabels(db: Db, runs: RunEntity[]): Promise<Map<string
 export async function deleteRun(ctx: AppContext, user: { id: string }, id: string) {
   const row = await getRun(ctx.dataSource, user, id);
   if (row.ownerId !== user.id) throw notFound('That run');
+  const [offered] = await ctx.dataSource.query(
+    `SELECT 1 FROM run_evidence e JOIN revisions r ON r.id = e.revision_id WHERE e.run_id = $1 AND r.state NOT IN ('draft', 'returned') LIMIT 1`,
+    [row.id],
+  );
+  // A guide's reviewed or live version keeps the evidence it was judged on.
+  if (offered) throw new AppError(409, 'run_is_evidence', 'This run is evidence on a guide version under review or published; it cannot be deleted.');
   await ctx.dataSource.getRepository(RunEntity).delete({ id: row.id });
   for (const key of [row.rawKey, row.dataKey])
     await ctx.storage.delete(key).catch((err) => ctx.logger.error({ err, key }, 'could not remove a deleted run object'));
