@@ -6,7 +6,9 @@ import type { Page } from 'playwright-core';
 import { screenshot, watchPageErrors } from '../setup/browser';
 import { createUser } from '../factories/user';
 import { browserSuite } from '../setup/browser-suite';
-import { buildRunCsv } from '../factories/run';
+import { buildRunCsv, uploadRun } from '../factories/run';
+import { createDraftGuide } from '../factories/guide';
+import { createClient } from '../setup/test-app';
 
 const suite = browserSuite();
 let work: string;
@@ -106,7 +108,62 @@ describe('run log journey in Chromium', () => {
     await page.getByRole('button', { name: '+0.1 s' }).click();
     await expect.poll(() => page.getByTestId('alignment').textContent()).toMatch(/shifted by 1\.(0|1)\d s/);
     await screenshot(page, 'runs-compare-desktop');
+
     expect(errors).toEqual([]);
     await context.close();
-  });
+  }, 120_000);
+
+  it('a run offered on a guide draft: the moderator sees its figures in review, readers see the evidence card once live', async () => {
+    const { user, password } = await createUser(suite.server.t, { displayName: 'Harbour Author' });
+    const api = createClient(suite.server.t.app);
+    expect((await api.post('/api/auth/sign-in', { email: user.email, password })).status).toBe(200);
+    api.resetCsrf();
+    await uploadRun(api, { fields: { title: 'Heat 1, 32-tooth pinion' } });
+    const context = await suite.browser.newContext({ viewport: { width: 1366, height: 900 } });
+    const page = await context.newPage();
+    const errors = watchPageErrors(page);
+    await page.goto(`${suite.server.baseUrl}/sign-in?next=%2Fruns`);
+    await page.getByLabel('E-mail').fill(user.email);
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL('**/runs');
+    // Evidence: the racer offers the first run on a guide draft in the editor.
+    const { slug, revision } = await createDraftGuide(api, { title: 'Stock buggy gearing, backed by a logged run' });
+    await page.goto(`${suite.server.baseUrl}/guides/new?draft=${revision.id}`);
+    const picker = page.getByTestId('evidence-picker');
+    await picker.getByLabel('Heat 1, 32-tooth pinion').click();
+    await expect.poll(async () => (await api.get(`/api/revisions/${revision.id}/runs`)).body.data?.length).toBe(1);
+    await expect.poll(() => picker.getByLabel('Heat 1, 32-tooth pinion').isChecked()).toBe(true);
+    expect((await api.post(`/api/revisions/${revision.id}/submit`, { note: 'Gearing backed by heat 1' })).status).toBe(200);
+
+    // The moderator sees the run's figures in review, then publishes; readers see the evidence card.
+    const mod = await createUser(suite.server.t, { role: 'moderator', displayName: 'Harbour Marshal' });
+    const modContext = await suite.browser.newContext({ viewport: { width: 1366, height: 900 } });
+    const modPage = await modContext.newPage();
+    await modPage.goto(`${suite.server.baseUrl}/sign-in?next=%2Freview%2F${revision.id}`);
+    await modPage.getByLabel('E-mail').fill(mod.user.email);
+    await modPage.getByLabel('Password').fill(mod.password);
+    await modPage.getByRole('button', { name: 'Sign in' }).click();
+    await modPage.getByTestId('review-evidence').getByText('Peak motor speed').waitFor();
+    await screenshot(modPage, 'review-evidence');
+    const modApi = createClient(suite.server.t.app);
+    expect((await modApi.post('/api/auth/sign-in', { email: mod.user.email, password: mod.password })).status).toBe(200);
+    modApi.resetCsrf();
+    expect((await modApi.post(`/api/reviews/${revision.id}/publish`)).status).toBe(200);
+    await modContext.close();
+
+    const reader = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
+    const readerPage = await reader.newPage();
+    await readerPage.goto(`${suite.server.baseUrl}/guides/${slug}`);
+    const card = readerPage.getByTestId('guide-evidence');
+    await card.getByRole('link', { name: 'Heat 1, 32-tooth pinion' }).waitFor();
+    await card.locator('canvas').first().waitFor();
+    await readerPage.getByTestId('guide-evidence').scrollIntoViewIfNeeded();
+    await screenshot(readerPage, 'guide-evidence-phone');
+    await card.getByRole('link', { name: 'Heat 1, 32-tooth pinion' }).click();
+    await readerPage.getByTestId('run-figures').waitFor();
+    await reader.close();
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 120_000);
 });

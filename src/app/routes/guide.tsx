@@ -11,6 +11,7 @@ import { GuideArticle } from '@/features/guides/components/guide-article';
 import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
 import { SetupSheet } from '@/features/setups/components/setup-sheet';
+import { GuideEvidence } from '@/features/runs/components/evidence';
 import { renderWorkedExample } from '../worked-example';
 
 function Missing({ error }: { error: Error }) {
@@ -79,6 +80,7 @@ export function GuidePage() {
             </Notice>
           )
         )}
+        {revision.number === liveNumber && <GuideEvidence slug={slug} />}
         <section id="history" aria-labelledby="history-title" className="mt-14 border-t border-paper-line pt-6">
           <h2 id="history-title" className="mb-3 text-xl font-semibold">
             History

@@ -19,6 +19,16 @@ export const runQueries = {
       queryFn: async () => (await api.get<Envelope<RunSeries>>(`/api/runs/${encodeURIComponent(id)}/series`, { query: { points } })).data,
       staleTime: Infinity,
     }),
+  evidence: (revisionId: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'evidence', revisionId] as const,
+      queryFn: async () => (await api.get<Envelope<RunListItem[]>>(`/api/revisions/${encodeURIComponent(revisionId)}/runs`)).data,
+    }),
+  guideEvidence: (slug: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'guide-evidence', slug] as const,
+      queryFn: async () => (await api.get<Envelope<RunListItem[]>>(`/api/guides/${encodeURIComponent(slug)}/evidence`)).data,
+    }),
   compare: (a: string, b: string) =>
     queryOptions({
       queryKey: [...runQueries.all(), 'compare', a, b] as const,
@@ -75,5 +85,17 @@ export function useDeleteRun() {
   return useMutation({
     mutationFn: (id: string) => api.delete<void>(`/api/runs/${encodeURIComponent(id)}`),
     onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.all() }),
+  });
+}
+
+/** Offers a run on (or takes it off) the author's own draft. */
+export function useToggleEvidence(revisionId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async ({ runId, attach }: { runId: string; attach: boolean }) =>
+      attach
+        ? api.put<Envelope<RunListItem[]>>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`)
+        : api.delete<void>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`),
+    onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.evidence(revisionId).queryKey }),
   });
 }
