@@ -3,8 +3,17 @@ import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword } from '../lib/passwords';
 import { DEMO_ACCOUNTS } from './demo-accounts';
 import { seedGuideBaselines, seedGuides, seedParameters } from './seed-content';
+import type { Storage } from '../lib/storage';
+import type { Logger } from '../lib/logger';
+import { seedDemoRuns } from '../modules/runs/demo-seed';
 
-export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
+export type SeedOptions = {
+  demo: boolean;
+  bcryptCost: number;
+  log?: (msg: string) => void;
+  /** Where the demo guides' invented runs are stored; without it no demo runs are made. */
+  runs?: { storage: Storage; logger: Logger };
+};
 
 /** Seeds the demo accounts idempotently (by e-mail); existing rows are left as they are. */
 export async function seedDemoAccounts(ds: DataSource, bcryptCost: number) {
@@ -33,5 +42,6 @@ export async function seed(ds: DataSource, opts: SeedOptions) {
     log(`demo guides ready (${guides} new)`);
     const baselines = await seedGuideBaselines(ds);
     log(`guide baselines ready (${baselines} attached)`);
+    if (opts.runs) log(`demo runs ready (${await seedDemoRuns(ds, opts.runs.storage, opts.runs.logger)} new, invented by the simulator)`);
   }
 }

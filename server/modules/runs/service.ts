@@ -105,7 +105,7 @@ type NewRun = Omit<RunEntity, 'id' | 'createdAt' | 'rawKey' | 'dataKey' | 'dataB
 };
 
 /** Objects first, row second (see createRun); the demo seed passes its own transaction's manager. */
-export async function storeRun(ctx: AppContext, r: NewRun, manager?: EntityManager) {
+export async function storeRun(ctx: Pick<AppContext, 'storage' | 'dataSource' | 'logger'>, r: NewRun, manager?: EntityManager) {
   const rawKey = newStorageKey('runs', 'csv');
   const dataKey = newStorageKey('runs', 'bin');
   const { raw, data, ...fields } = r;
