@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useParams } from 'react-router-dom';
 import { ROLE_RANK } from '@shared/constants';
@@ -11,7 +11,6 @@ import { GuideArticle } from '@/features/guides/components/guide-article';
 import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
 import { SetupSheet } from '@/features/setups/components/setup-sheet';
-import { GuideEvidence } from '@/features/runs/components/evidence';
 import { renderWorkedExample } from '../worked-example';
 
 function Missing({ error }: { error: Error }) {
@@ -80,7 +79,7 @@ export function GuidePage() {
             </Notice>
           )
         )}
-        {revision.number === liveNumber && <GuideEvidence slug={slug} />}
+        {revision.number === liveNumber && <LazyGuideEvidence slug={slug} />}
         <section id="history" aria-labelledby="history-title" className="mt-14 border-t border-paper-line pt-6">
           <h2 id="history-title" className="mb-3 text-xl font-semibold">
             History
@@ -98,5 +97,19 @@ export function GuidePage() {
         </Card>
       </aside>
     </div>
+  );
+}
+
+// The evidence card (uPlot and its stylesheet) loads only in the browser, after the page is up: the server's
+// page drawing imports this module and must never load chart code or CSS.
+const GuideEvidence = lazy(() => import('@/features/runs/components/evidence').then((m) => ({ default: m.GuideEvidence })));
+function LazyGuideEvidence({ slug }: { slug: string }) {
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
+  if (!mounted) return null;
+  return (
+    <Suspense fallback={null}>
+      <GuideEvidence slug={slug} />
+    </Suspense>
   );
 }

@@ -12,7 +12,6 @@ const NAV: NavItem[] = [
   { to: '/parameters', label: 'Parameters' },
   { to: '/guides', label: 'Guides' },
   { to: '/setups', label: 'Setups' },
-  { to: '/runs', label: 'Runs', min: 'member' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/me/revisions', label: 'Workbench', min: 'member' },
   { to: '/review', label: 'Review', min: 'moderator' },
