@@ -11,6 +11,10 @@ import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
 import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
 
+// Every key a row still points at: uploaded setups, and run logs' raw files and columns.
+const REFERENCED_KEYS_SQL =
+  'SELECT storage_key FROM setups WHERE storage_key = ANY($1) UNION SELECT raw_key FROM runs WHERE raw_key = ANY($1) UNION SELECT data_key FROM runs WHERE data_key = ANY($1)';
+
 async function main() {
   const config = loadConfig();
   const logger = createLogger(config.logLevel);
@@ -21,7 +25,7 @@ async function main() {
     // The grace keeps a write still in flight in another instance safe (see SWEEP_GRACE_MS).
     const swept = await storage.sweep({
       olderThan: new Date(Date.now() - SWEEP_GRACE_MS[storage.driver]),
-      referenced: async (keys) => new Set((await dataSource.query('SELECT storage_key FROM setups WHERE storage_key = ANY($1)', [keys])).map((r: { storage_key: string }) => r.storage_key)),
+      referenced: async (keys) => new Set((await dataSource.query(REFERENCED_KEYS_SQL, [keys])).map((r: { storage_key: string }) => r.storage_key)),
     });
     if (swept.temp.length || swept.orphans.length) logger.warn({ driver: storage.driver, temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
   } catch (err) {

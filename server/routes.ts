@@ -10,6 +10,7 @@ import { setupRoutes } from './modules/setups/routes';
 import { guideRoutes } from './modules/guides/routes';
 import { revisionRoutes } from './modules/revisions/routes';
 import { motorRoutes } from './modules/motors/routes';
+import { runRoutes } from './modules/runs/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
-export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes, ...motorRoutes];
+export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes, ...motorRoutes, ...runRoutes];

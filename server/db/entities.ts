@@ -10,6 +10,7 @@ import { ReviewApprovalEntity } from '../modules/revisions/review-approval.entit
 
 import { MotorEntity } from '../modules/motors/motor.entity';
 import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
+import { RunEntity } from '../modules/runs/run.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
-export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity, ReviewApprovalEntity, MotorEntity, BenchCheckEntity];
+export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity, ReviewApprovalEntity, MotorEntity, BenchCheckEntity, RunEntity];

@@ -3,6 +3,8 @@ import 'reflect-metadata';
 import { loadConfig } from '../config/env';
 import { createDataSource } from './data-source';
 import { seed } from './seed';
+import { createStorage } from '../lib/storage';
+import { createLogger } from '../lib/logger';
 
 const config = loadConfig();
 const ds = createDataSource(config.databaseUrl, { poolMax: 2, applicationName: 'tunewright-prepare' });
@@ -13,5 +15,5 @@ if (process.argv.includes('--migrate-only')) {
   await ds.destroy();
   process.exit(0);
 }
-await seed(ds, { demo: process.env.SEED_DEMO !== 'false', bcryptCost: config.bcryptCost, log: (m) => console.log(`[tunewright] ${m}`) });
+await seed(ds, { demo: process.env.SEED_DEMO !== 'false', bcryptCost: config.bcryptCost, log: (m) => console.log(`[tunewright] ${m}`), runs: { storage: createStorage(config.storage), logger: createLogger(config.logLevel) } });
 await ds.destroy();

@@ -4,8 +4,17 @@ import { hashPassword } from '../lib/passwords';
 import { DEMO_ACCOUNTS } from './demo-accounts';
 import { seedDemoMotor } from '../modules/motors/demo';
 import { seedGuideBaselines, seedGuides, seedParameters } from './seed-content';
+import type { Storage } from '../lib/storage';
+import type { Logger } from '../lib/logger';
+import { seedDemoRuns } from '../modules/runs/demo-seed';
 
-export type SeedOptions = { demo: boolean; bcryptCost: number; log?: (msg: string) => void };
+export type SeedOptions = {
+  demo: boolean;
+  bcryptCost: number;
+  log?: (msg: string) => void;
+  /** Where the demo guides' invented runs are stored; without it no demo runs are made. */
+  runs?: { storage: Storage; logger: Logger };
+};
 
 /** Seeds the demo accounts idempotently (by e-mail); existing rows are left as they are. */
 export async function seedDemoAccounts(ds: DataSource, bcryptCost: number) {
@@ -36,5 +45,6 @@ export async function seed(ds: DataSource, opts: SeedOptions) {
     log(`guide baselines ready (${baselines} attached)`);
     const benchChecks = await seedDemoMotor(ds, users.get('rosa'));
     log(`demo motor bench ready (${benchChecks} new checks)`);
+    if (opts.runs) log(`demo runs ready (${await seedDemoRuns(ds, opts.runs.storage, opts.runs.logger)} new, invented by the simulator)`);
   }
 }

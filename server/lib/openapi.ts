@@ -18,7 +18,7 @@ const ERROR_STATUSES: Record<string, string> = {
   '503': 'Database unavailable',
 };
 
-const RESOURCE_WORDS: Record<OwnedResource, string> = { revision: "the revision's author", 'setup-upload': "the upload's owner", account: 'the account holder', motor: "the motor's owner" };
+const RESOURCE_WORDS: Record<OwnedResource, string> = { revision: "the revision's author", 'setup-upload': "the upload's owner", account: 'the account holder', motor: "the motor's owner", run: "the run's owner" };
 const OWNERSHIP_WORDS: Record<OwnershipRule, (r: OwnedResource) => string> = {
   owner: (r) => `${RESOURCE_WORDS[r]} only`,
   'owner-or-moderator': (r) => `${RESOURCE_WORDS[r]} and moderators`,

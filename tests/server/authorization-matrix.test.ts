@@ -12,6 +12,7 @@ import { createUser, signedInClient } from '../factories/user';
 import { createDraftGuide, createPublishedGuide, proposeEdit } from '../factories/guide';
 import { buildSetupRecord } from '../factories/setup-record';
 import { motorScenarios } from './authorization-matrix-motors';
+import { uploadRun } from '../factories/run';
 
 // Generated from the route table: every guarded route × every role, then every route that declares an
 // ownership rule × owner / another member / moderator / admin / visitor.
@@ -131,6 +132,7 @@ function refusals(route: RouteDef): Partial<Record<Who, Expect>> {
     'revision:owner-or-moderator': { stranger: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
     'revision:not-owner': { owner: err(403, 'own_revision') },
     'setup-upload:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
+    'run:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
     'account:not-owner': { owner: err(409, 'cannot_change_self') },
     'motor:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found') },
   };
@@ -442,6 +444,91 @@ const scenarios: Record<string, Scenario[]> = {
         return { method: 'delete', url: `/api/setups/${id}`, id, snapshot: uploadOf(w, id) };
       },
       expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/setups/${a.id}`)).status).toBe(404) } },
+    },
+  ],
+  'GET /api/runs': [
+    {
+      label: "each caller's own runs only",
+      arrange: async (w) => ({ method: 'get', url: '/api/runs', id: await uploadRun(w.owner.client, { name: 'owner-list.csv' }) }),
+      expect: {
+        ...Object.fromEntries((['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [who, ok((res, a) => expect((res.body.data as Array<{ id: string }>).some((r) => r.id === a.id), who).toBe(who === 'owner'))])),
+        visitor: err(401, 'unauthenticated'),
+      },
+    },
+  ],
+  'GET /api/runs/compare': [
+    {
+      label: "two of the owner's runs",
+      arrange: async (w) => {
+        const [one, two] = [await uploadRun(w.owner.client), await uploadRun(w.owner.client)];
+        return { method: 'get', url: `/api/runs/compare?a=${one}&b=${two}`, id: one };
+      },
+      expect: { owner: ok((res, a) => expect(res.body.data.a.id).toBe(a.id)) },
+    },
+  ],
+  'GET /api/runs/:id': [
+    {
+      label: "the owner's private run",
+      arrange: async (w) => {
+        const id = await uploadRun(w.owner.client);
+        return { method: 'get', url: `/api/runs/${id}`, id };
+      },
+      expect: { owner: ok((res, a) => expect(res.body.data).toMatchObject({ id: a.id, isOwn: true })) },
+    },
+  ],
+  'GET /api/runs/:id/series': [
+    {
+      label: "the owner's private run's chart data",
+      arrange: async (w) => {
+        const id = await uploadRun(w.owner.client);
+        return { method: 'get', url: `/api/runs/${id}/series?points=50`, id };
+      },
+      expect: { owner: ok((res) => expect(res.body.data.t.length).toBeGreaterThan(0)) },
+    },
+  ],
+  'DELETE /api/runs/:id': [
+    {
+      label: "the owner's run deleted",
+      arrange: async (w) => {
+        const id = await uploadRun(w.owner.client);
+        return { method: 'delete', url: `/api/runs/${id}`, id, snapshot: async () => (await w.owner.client.get(`/api/runs/${id}`)).body };
+      },
+      expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/runs/${a.id}`)).status).toBe(404) } },
+    },
+  ],
+  'GET /api/revisions/:id/runs': [
+    {
+      label: "runs on the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        expect((await w.owner.client.put(`/api/revisions/${revision.id}/runs/${run}`)).status).toBe(200);
+        return { method: 'get', url: `/api/revisions/${revision.id}/runs`, id: revision.id };
+      },
+      expect: Object.fromEntries((['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res) => expect(res.body.data.length, who).toBe(1))])),
+    },
+  ],
+  'PUT /api/revisions/:id/runs/:runId': [
+    {
+      label: "the owner's run offered on the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        return { method: 'put', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+      },
+      expect: { owner: ok((res) => expect(res.body.data.length).toBe(1)) },
+    },
+  ],
+  'DELETE /api/revisions/:id/runs/:runId': [
+    {
+      label: "a run taken off the owner's draft",
+      arrange: async (w) => {
+        const { revision } = await createDraftGuide(w.owner.client);
+        const run = await uploadRun(w.owner.client);
+        expect((await w.owner.client.put(`/api/revisions/${revision.id}/runs/${run}`)).status).toBe(200);
+        return { method: 'delete', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+      },
+      expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}/runs`)).body.data).toEqual([]) } },
     },
   ],
   'GET /api/auth/me': [

@@ -14,6 +14,7 @@ import type { SetupRecord } from '@shared/schemas/setup-record';
 import { Button } from '@/components/ui/button';
 import { SetupRecordForm } from '@/features/setups/components/setup-record-form';
 import { useAttachSetup } from '@/features/setups/api/setups';
+import { EvidencePicker } from '@/features/runs/components/evidence';
 
 /** The draft's baseline setup record: it belongs to this revision, so every version keeps its own. */
 function BaselineSection({ revisionId, editable, initial }: { revisionId: string | null; editable: boolean; initial: SetupRecord | null }) {
@@ -104,7 +105,12 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
         renderWorkedExample={renderWorkedExample}
         onCreated={handleCreated}
         onSubmitted={() => navigate('/me/revisions')}
-        renderBaseline={(revisionId, editable) => <BaselineSection key={revisionId ?? 'new'} revisionId={revisionId} editable={editable} initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null} />}
+        renderBaseline={(revisionId, editable) => (
+          <>
+            <BaselineSection key={revisionId ?? 'new'} revisionId={revisionId} editable={editable} initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null} />
+            {kind === 'guide' && <EvidencePicker revisionId={revisionId} editable={editable} />}
+          </>
+        )}
       />
     </div>
   );

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useParams } from 'react-router-dom';
 import { ROLE_RANK } from '@shared/constants';
@@ -79,6 +79,7 @@ export function GuidePage() {
             </Notice>
           )
         )}
+        {revision.number === liveNumber && <LazyGuideEvidence slug={slug} />}
         <section id="history" aria-labelledby="history-title" className="mt-14 border-t border-paper-line pt-6">
           <h2 id="history-title" className="mb-3 text-xl font-semibold">
             History
@@ -96,5 +97,19 @@ export function GuidePage() {
         </Card>
       </aside>
     </div>
+  );
+}
+
+// The evidence card (uPlot and its stylesheet) loads only in the browser, after the page is up: the server's
+// page drawing imports this module and must never load chart code or CSS.
+const GuideEvidence = lazy(() => import('@/features/runs/components/evidence').then((m) => ({ default: m.GuideEvidence })));
+function LazyGuideEvidence({ slug }: { slug: string }) {
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
+  if (!mounted) return null;
+  return (
+    <Suspense fallback={null}>
+      <GuideEvidence slug={slug} />
+    </Suspense>
   );
 }

@@ -4,6 +4,7 @@ import { RequireRole } from '@/components/layout/guards';
 import { ReviewDetailView } from '@/features/review/components/review-detail';
 import { ReviewQueue } from '@/features/review/components/review-queue';
 import { renderWorkedExample } from '../worked-example';
+import { EvidenceReview } from '@/features/runs/components/evidence';
 
 export function ReviewQueuePage() {
   return (
@@ -22,5 +23,14 @@ export function ReviewQueuePage() {
 
 export function ReviewDetailPage() {
   const { revisionId = '' } = useParams();
-  return <RequireRole role="moderator">{(user) => <ReviewDetailView revisionId={revisionId} currentUserId={user.id} renderWorkedExample={renderWorkedExample} />}</RequireRole>;
+  return (
+    <RequireRole role="moderator">
+      {(user) => (
+        <>
+          <ReviewDetailView revisionId={revisionId} currentUserId={user.id} renderWorkedExample={renderWorkedExample} />
+          <EvidenceReview revisionId={revisionId} />
+        </>
+      )}
+    </RequireRole>
+  );
 }

@@ -18,6 +18,9 @@ export function SetupsPage() {
         title="Baseline setups"
         actions={
           <>
+            <Link to="/runs" className="rounded-md border border-ink/25 bg-paper-card px-4 py-2 font-medium text-ink no-underline hover:bg-paper-deep">
+              Run logs
+            </Link>
             <Link to="/setups/compare" className="rounded-md border border-ink/25 bg-paper-card px-4 py-2 font-medium text-ink no-underline hover:bg-paper-deep">
               Compare two setups
             </Link>

@@ -1,0 +1,101 @@
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Run, RunCompare, RunListItem, RunSeries } from '@shared/schemas/run';
+import type { RunMapping } from '@shared/runlog/mapping';
+import { api, ApiError, type Envelope } from '@/lib/api-client';
+
+/** Query-option factories for runs (keys general → specific). */
+export const runQueries = {
+  all: () => ['runs'] as const,
+  list: () =>
+    queryOptions({ queryKey: [...runQueries.all(), 'list'] as const, queryFn: async () => (await api.get<Envelope<RunListItem[]>>('/api/runs')).data }),
+  detail: (id: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'detail', id] as const,
+      queryFn: async () => (await api.get<Envelope<Run>>(`/api/runs/${encodeURIComponent(id)}`)).data,
+    }),
+  series: (id: string, points: number) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'series', id, points] as const,
+      queryFn: async () => (await api.get<Envelope<RunSeries>>(`/api/runs/${encodeURIComponent(id)}/series`, { query: { points } })).data,
+      staleTime: Infinity,
+    }),
+  evidence: (revisionId: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'evidence', revisionId] as const,
+      queryFn: async () => (await api.get<Envelope<RunListItem[]>>(`/api/revisions/${encodeURIComponent(revisionId)}/runs`)).data,
+    }),
+  guideEvidence: (slug: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'guide-evidence', slug] as const,
+      queryFn: async () => (await api.get<Envelope<RunListItem[]>>(`/api/guides/${encodeURIComponent(slug)}/evidence`)).data,
+    }),
+  compare: (a: string, b: string) =>
+    queryOptions({
+      queryKey: [...runQueries.all(), 'compare', a, b] as const,
+      queryFn: async () => (await api.get<Envelope<RunCompare>>('/api/runs/compare', { query: { a, b } })).data,
+    }),
+};
+
+async function csrfToken(): Promise<string> {
+  const res = await fetch('/api/csrf', { credentials: 'same-origin' });
+  return ((await res.json()) as { data: { token: string } }).data.token;
+}
+
+export type RunUploadInput = { file: File; title?: string; setupId?: string; mapping?: RunMapping; onProgress: (fraction: number) => void };
+
+/** Uploads a run log with XMLHttpRequest (fetch reports no upload progress); rejects with the API's error. */
+export async function uploadRunFile({ file, title, setupId, mapping, onProgress }: RunUploadInput): Promise<Run> {
+  const token = await csrfToken();
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', '/api/runs');
+    xhr.setRequestHeader('x-csrf-token', token);
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.withCredentials = true;
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection and try again; nothing was stored.'));
+    xhr.onload = () => {
+      let body: { data?: Run; error?: { code: string; message: string; details?: unknown } } = {};
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        /* not JSON */
+      }
+      if (xhr.status === 201 && body.data) resolve(body.data);
+      else reject(new ApiError(xhr.status, body.error?.code ?? 'http_error', body.error?.message ?? `Upload failed (${xhr.status})`, body.error?.details));
+    };
+    const form = new FormData();
+    if (title) form.append('title', title);
+    if (setupId) form.append('setupId', setupId);
+    if (mapping) form.append('mapping', JSON.stringify(mapping));
+    form.append('file', file, file.name);
+    xhr.send(form);
+  });
+}
+
+export function useUploadRun() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: uploadRunFile, onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.all() }) });
+}
+
+export function useDeleteRun() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => api.delete<void>(`/api/runs/${encodeURIComponent(id)}`),
+    onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.all() }),
+  });
+}
+
+/** Offers a run on (or takes it off) the author's own draft. */
+export function useToggleEvidence(revisionId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async ({ runId, attach }: { runId: string; attach: boolean }) =>
+      attach
+        ? api.put<Envelope<RunListItem[]>>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`)
+        : api.delete<void>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`),
+    onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.evidence(revisionId).queryKey }),
+  });
+}

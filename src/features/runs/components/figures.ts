@@ -1,0 +1,33 @@
+import type { RunSummary } from '@shared/schemas/run';
+
+/** How each figure is shown: label, unit, digits, and how to turn the stored value into the shown one. */
+export const FIGURE_ROWS: Array<{ key: keyof RunSummary; label: string; unit: string; digits: number; scale?: number; note?: string }> = [
+  { key: 'durationS', label: 'Duration', unit: 's', digits: 1 },
+  { key: 'sampleRateHz', label: 'Sample rate', unit: 'Hz', digits: 1 },
+  { key: 'peakRpm', label: 'Peak motor speed', unit: 'rpm', digits: 0 },
+  { key: 'peakRpmAtS', label: '… reached at', unit: 's', digits: 1 },
+  {
+    key: 'topSpeedKmh',
+    label: 'Estimated top speed',
+    unit: 'km/h',
+    digits: 1,
+    note: 'from the peak motor speed through the setup’s gearing; no tyre growth or slip',
+  },
+  { key: 'fullThrottleShare', label: 'Time at full throttle', unit: '%', digits: 0, scale: 100 },
+  { key: 'peakCurrentA', label: 'Peak current', unit: 'A', digits: 1 },
+  { key: 'meanCurrentA', label: 'Mean current', unit: 'A', digits: 1 },
+  { key: 'energyMah', label: 'Charge used', unit: 'mAh', digits: 0, note: 'estimate: trapezoidal rule over the samples, gaps left out' },
+  { key: 'energyWh', label: 'Energy used', unit: 'Wh', digits: 2, note: 'estimate' },
+  { key: 'maxMotorTempC', label: 'Hottest motor reading', unit: '°C', digits: 1 },
+  { key: 'maxEscTempC', label: 'Hottest controller reading', unit: '°C', digits: 1 },
+  { key: 'restPackV', label: 'Pack at rest', unit: 'V', digits: 2 },
+  { key: 'minPackV', label: 'Lowest pack voltage under load', unit: 'V', digits: 2 },
+  { key: 'minCellV', label: 'Lowest per cell', unit: 'V', digits: 2 },
+];
+
+/** A figure as shown, or a dash where the run has no such channel. */
+export function showFigure(summary: RunSummary, key: keyof RunSummary, digits: number, scale = 1): string {
+  const v = summary[key];
+  if (typeof v !== 'number') return '–';
+  return (v * scale).toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: digits > 0 && v * scale < 100 ? Math.min(digits, 2) : 0 });
+}

@@ -1,0 +1,241 @@
+import { useCallback, useMemo, useRef, useState } from 'react';
+import type uPlot from 'uplot';
+import type { RunSeries } from '@shared/schemas/run';
+import { CHANNEL_LABELS, type ValueChannel } from '@shared/runlog/vocabulary';
+import { Button } from '@/components/ui/button';
+import { UPlotChart } from './uplot-chart';
+
+type Panel = { title: string; unit: string; channels: ValueChannel[] };
+const PANELS: Panel[] = [
+  { title: 'Throttle', unit: '%', channels: ['throttle_pct'] },
+  { title: 'Motor speed', unit: 'rpm', channels: ['motor_rpm'] },
+  { title: 'Temperatures', unit: '°C', channels: ['motor_temp_c', 'esc_temp_c'] },
+  { title: 'Current', unit: 'A', channels: ['current_a'] },
+  { title: 'Pack voltage', unit: 'V', channels: ['pack_v'] },
+];
+const COLOURS: Record<ValueChannel, string> = {
+  throttle_pct: '#1d2a44',
+  motor_rpm: '#b8693a',
+  motor_temp_c: '#a12d2d',
+  esc_temp_c: '#5a6b8c',
+  current_a: '#2f6b4f',
+  pack_v: '#6b4f8c',
+};
+const OTHER = '#8a8f99';
+
+export type ChartRun = { label: string; series: RunSeries; offsetS?: number };
+
+const fmt = (v: number | null | undefined, digits = 1) =>
+  v === null || v === undefined || Number.isNaN(v) ? '–' : v.toLocaleString('en-GB', { maximumFractionDigits: digits });
+
+/**
+ * Stacked charts on one time axis: each bucket's high and low drawn as a band (so no peak is lost), one cursor
+ * across all panels with the values under it, drag to zoom, buttons to zoom and pan. A second run (compare)
+ * is drawn in grey, shifted by its offset.
+ */
+export function RunCharts({ runs, kmhPerRpm }: { runs: ChartRun[]; kmhPerRpm?: number | null }) {
+  const charts = useRef<uPlot[]>([]);
+  const syncing = useRef(false);
+  const [cursor, setCursor] = useState<{ t: number; values: Array<Partial<Record<ValueChannel, [number | null, number | null]>>> } | null>(null);
+  const syncKey = useMemo(() => `run-${Math.random().toString(36).slice(2)}`, []);
+
+  // One x axis for all runs: the union of bucket times, each run's values looked up at the nearest bucket.
+  const base = useMemo(() => {
+    const xs = runs.map((r) => r.series.t.map((t) => t - (r.offsetS ?? 0)));
+    const all = Float64Array.from(new Set(xs.flat())).sort();
+    const lookups = xs.map((x) => Array.from(all, (t) => nearest(x, t)));
+    return { x: Array.from(all), lookups };
+  }, [runs]);
+
+  const panels = PANELS.filter((p) => p.channels.some((c) => runs.some((r) => r.series.channels[c])));
+  const span = base.x.length ? [base.x[0], base.x[base.x.length - 1]] : [0, 1];
+
+  const built = useMemo(
+    () =>
+      panels.map((panel) => {
+        const series: uPlot.Series[] = [{ label: 'Time (s)' }];
+        const data: Array<Array<number | null>> = [base.x];
+        const bands: uPlot.Band[] = [];
+        runs.forEach((run, k) => {
+          for (const c of panel.channels) {
+            const ch = run.series.channels[c];
+            if (!ch) continue;
+            const stroke = k === 0 ? COLOURS[c] : OTHER;
+            const pick = (arr: Array<number | null>) => base.lookups[k].map((i) => (i < 0 ? null : arr[i]));
+            data.push(pick(ch.max), pick(ch.min));
+            const hi = data.length - 2;
+            series.push(
+              { label: `${run.label}: ${CHANNEL_LABELS[c].label} high`, stroke, width: 1.25, spanGaps: true },
+              { label: `${run.label}: ${CHANNEL_LABELS[c].label} low`, stroke, width: 1, spanGaps: true },
+            );
+            bands.push({ series: [hi, hi + 1], fill: `${stroke}33` });
+          }
+        });
+        return { panel, data: data as uPlot.AlignedData, series, bands };
+      }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- panels derive from runs
+    [runs, base],
+  );
+
+  const register = useCallback(
+    (u: uPlot) => {
+      charts.current.push(u);
+      return () => {
+        charts.current = charts.current.filter((c) => c !== u);
+      };
+    },
+    [charts],
+  );
+
+  const setX = (min: number, max: number) => {
+    syncing.current = true;
+    for (const c of charts.current) c.setScale('x', { min, max });
+    syncing.current = false;
+  };
+  const view = () => {
+    const s = charts.current[0]?.scales.x;
+    return s && s.min !== undefined && s.max !== undefined ? [s.min, s.max] : span;
+  };
+  const zoom = (f: number) => {
+    const [a, b] = view();
+    const mid = (a + b) / 2;
+    const half = Math.max(0.25, ((b - a) * f) / 2);
+    setX(Math.max(span[0], mid - half), Math.min(span[1], mid + half));
+  };
+  const pan = (f: number) => {
+    const [a, b] = view();
+    const w = b - a;
+    const shift = Math.max(span[0] - a, Math.min(span[1] - b, w * f));
+    setX(a + shift, b + shift);
+  };
+
+  const options = useMemo(
+    () =>
+      built.map(({ panel, series, bands }) => {
+        const opts: Omit<uPlot.Options, 'width'> = {
+          height: 130,
+          series,
+          bands,
+          legend: { show: false },
+          scales: { x: { time: false } },
+          axes: [
+            { stroke: '#3b4660', grid: { stroke: '#1d2a4415' }, size: 28, values: (_u, v) => v.map((s) => `${s}s`) },
+            {
+              stroke: '#3b4660',
+              grid: { stroke: '#1d2a4415' },
+              size: 52,
+              values: (_u, v) => v.map((n) => (Math.abs(n) >= 10_000 ? `${n / 1000}k` : String(n))),
+              label: `${panel.title} (${panel.unit})`,
+              labelSize: 14,
+              labelFont: '11px Inter, sans-serif',
+              font: '11px Inter, sans-serif',
+            },
+          ],
+          cursor: { sync: { key: syncKey }, drag: { x: true, y: false } },
+          hooks: {
+            setScale: [
+              (u, key) => {
+                if (key !== 'x' || syncing.current) return;
+                const { min, max } = u.scales.x;
+                if (min === undefined || max === undefined) return;
+                syncing.current = true;
+                for (const c of charts.current) if (c !== u) c.setScale('x', { min, max });
+                syncing.current = false;
+              },
+            ],
+            setCursor: [
+              (u) => {
+                const idx = u.cursor.idx;
+                if (idx === null || idx === undefined) return;
+                const t = base.x[idx];
+                setCursor({
+                  t,
+                  values: runs.map((run, k) => {
+                    const i = base.lookups[k][idx];
+                    const out: Partial<Record<ValueChannel, [number | null, number | null]>> = {};
+                    if (i < 0) return out;
+                    for (const [c, mm] of Object.entries(run.series.channels) as Array<
+                      [ValueChannel, { min: Array<number | null>; max: Array<number | null> }]
+                    >)
+                      out[c] = [mm.min[i], mm.max[i]];
+                    return out;
+                  }),
+                });
+              },
+            ],
+          },
+        };
+        return opts;
+      }),
+    [built, syncKey, base, runs],
+  );
+
+  return (
+    <div className="flex flex-col gap-2" data-testid="run-charts">
+      <div className="flex flex-wrap items-center gap-2">
+        <Button size="sm" variant="secondary" type="button" onClick={() => zoom(0.5)}>
+          Zoom in
+        </Button>
+        <Button size="sm" variant="secondary" type="button" onClick={() => zoom(2)}>
+          Zoom out
+        </Button>
+        <Button size="sm" variant="secondary" type="button" onClick={() => pan(-0.5)} aria-label="Pan earlier">
+          ◀
+        </Button>
+        <Button size="sm" variant="secondary" type="button" onClick={() => pan(0.5)} aria-label="Pan later">
+          ▶
+        </Button>
+        <Button size="sm" variant="ghost" type="button" onClick={() => setX(span[0], span[1])}>
+          Whole run
+        </Button>
+        <span className="text-xs text-ink-muted">Drag across a chart to zoom to that stretch.</span>
+      </div>
+      <div
+        className="sticky top-0 z-10 rounded-md border border-ink/15 bg-paper-card px-3 py-2 text-xs tabular-nums"
+        aria-live="polite"
+        data-testid="cursor-readout"
+      >
+        {cursor ? (
+          <div className="flex flex-col gap-1">
+            <span className="font-medium">at {fmt(cursor.t, 2)} s</span>
+            {cursor.values.map((vals, k) => (
+              <span key={k} className="flex flex-wrap gap-x-3">
+                {runs.length > 1 && <span className="font-medium">{runs[k].label}:</span>}
+                {(Object.keys(vals) as ValueChannel[]).map((c) => (
+                  <span key={c}>
+                    {CHANNEL_LABELS[c].label} {vals[c]![0] === vals[c]![1] ? fmt(vals[c]![1]) : `${fmt(vals[c]![0])}–${fmt(vals[c]![1])}`}{' '}
+                    {CHANNEL_LABELS[c].unit}
+                    {c === 'motor_rpm' && kmhPerRpm && k === 0 && vals[c]![1] !== null ? ` (≈ ${fmt(vals[c]![1]! * kmhPerRpm)} km/h)` : ''}
+                  </span>
+                ))}
+              </span>
+            ))}
+          </div>
+        ) : (
+          'Move over a chart (or touch it) to read the values at that moment.'
+        )}
+      </div>
+      {built.map(({ panel, data }, i) => (
+        <figure key={panel.title} className="m-0">
+          <figcaption className="text-xs font-medium text-ink-muted">
+            {panel.title} ({panel.unit})
+          </figcaption>
+          <UPlotChart options={options[i]} data={data} onCreate={register} />
+        </figure>
+      ))}
+    </div>
+  );
+}
+
+/** Index of the bucket time in a sorted list equal to t (within a millisecond), or -1. */
+function nearest(xs: number[], t: number): number {
+  let lo = 0;
+  let hi = xs.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (Math.abs(xs[mid] - t) < 1e-6) return mid;
+    if (xs[mid] < t) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
