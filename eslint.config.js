@@ -17,13 +17,27 @@ const boundaries = [
     files: [`src/features/${f}/**/*.{ts,tsx}`],
     rules: restrict([
       { regex: `^@/features/(?!${f}/)`, message: 'Features do not import each other: compose them in a page under src/app/routes.' },
-      { regex: `^(\\.\\./)+(${features.filter((o) => o !== f).join('|')})/`, message: 'Features do not import each other: compose them in a page under src/app/routes.' },
+      {
+        regex: `^(\\.\\./)+(${features.filter((o) => o !== f).join('|')})/`,
+        message: 'Features do not import each other: compose them in a page under src/app/routes.',
+      },
     ]),
   })),
   // The layout (header, guards) is the app's frame and reads the session; the building blocks below it do not.
-  { files: ['src/components/ui/**/*.{ts,tsx}', 'src/components/diff/**/*.{ts,tsx}', 'src/lib/**/*.{ts,tsx}'], rules: restrict([{ regex: '^@/features/', message: 'Shared components and the client library do not import features.' }]) },
-  { files: ['server/**/*.{ts,tsx}'], rules: restrict([{ regex: '^(\\.\\./)+src/(?!entry-server$)', message: 'The server draws pages through src/entry-server.tsx and imports nothing else from src/.' }]) },
-  { files: ['shared/**/*.ts'], rules: restrict([{ regex: '^(@/|(\\.\\./)+(src|server)/)', message: 'shared/ is imported by both sides: it imports neither the client nor the server.' }]) },
+  {
+    files: ['src/components/ui/**/*.{ts,tsx}', 'src/components/diff/**/*.{ts,tsx}', 'src/lib/**/*.{ts,tsx}'],
+    rules: restrict([{ regex: '^@/features/', message: 'Shared components and the client library do not import features.' }]),
+  },
+  {
+    files: ['server/**/*.{ts,tsx}'],
+    rules: restrict([
+      { regex: '^(\\.\\./)+src/(?!entry-server$)', message: 'The server draws pages through src/entry-server.tsx and imports nothing else from src/.' },
+    ]),
+  },
+  {
+    files: ['shared/**/*.ts'],
+    rules: restrict([{ regex: '^(@/|(\\.\\./)+(src|server)/)', message: 'shared/ is imported by both sides: it imports neither the client nor the server.' }]),
+  },
 ];
 
 export default tseslint.config(

@@ -21,12 +21,16 @@ function precompress(): Plugin {
       outDir = path.resolve(config.root, config.build.outDir);
     },
     closeBundle() {
-      const walk = (dir: string): string[] => fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)]));
+      const walk = (dir: string): string[] =>
+        fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)]));
       for (const file of walk(outDir)) {
         if (!/\.(js|mjs|css|html|svg|json|webmanifest|txt)$/.test(file)) continue;
         const raw = fs.readFileSync(file);
         if (raw.length < 1024) continue;
-        fs.writeFileSync(`${file}.br`, zlib.brotliCompressSync(raw, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11, [zlib.constants.BROTLI_PARAM_SIZE_HINT]: raw.length } }));
+        fs.writeFileSync(
+          `${file}.br`,
+          zlib.brotliCompressSync(raw, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11, [zlib.constants.BROTLI_PARAM_SIZE_HINT]: raw.length } }),
+        );
         fs.writeFileSync(`${file}.gz`, zlib.gzipSync(raw, { level: 9 }));
       }
     },

@@ -27,7 +27,8 @@ async function main() {
       olderThan: new Date(Date.now() - SWEEP_GRACE_MS[storage.driver]),
       referenced: async (keys) => new Set((await dataSource.query(REFERENCED_KEYS_SQL, [keys])).map((r: { storage_key: string }) => r.storage_key)),
     });
-    if (swept.temp.length || swept.orphans.length) logger.warn({ driver: storage.driver, temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
+    if (swept.temp.length || swept.orphans.length)
+      logger.warn({ driver: storage.driver, temp: swept.temp, orphans: swept.orphans }, 'removed upload files left by an interrupted write');
   } catch (err) {
     // Housekeeping only: an unreachable bucket must not keep the app from serving; the next start tries again.
     logger.error({ err, driver: storage.driver }, 'the start-up sweep of stored uploads failed');

@@ -13,4 +13,17 @@ import { motorRoutes } from './modules/motors/routes';
 import { runRoutes } from './modules/runs/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
-export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...adminRoutes, ...devMailRoutes, ...guideRoutes, ...revisionRoutes, ...setupRoutes, ...parameterRoutes, ...calcRoutes, ...searchRoutes, ...motorRoutes, ...runRoutes];
+export const routeTable: RouteDef[] = [
+  ...healthRoutes,
+  ...authRoutes,
+  ...adminRoutes,
+  ...devMailRoutes,
+  ...guideRoutes,
+  ...revisionRoutes,
+  ...setupRoutes,
+  ...parameterRoutes,
+  ...calcRoutes,
+  ...searchRoutes,
+  ...motorRoutes,
+  ...runRoutes,
+];

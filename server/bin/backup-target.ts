@@ -6,7 +6,8 @@ import { findPgBin } from './postgres.mjs';
 /** DATABASE_URL from the environment or .data/runtime.json; exits with a clear message when neither has it. */
 export function databaseUrlOrExit(): string {
   const runtime = path.resolve('.data', 'runtime.json');
-  const url = process.env.DATABASE_URL ?? (fs.existsSync(runtime) ? (JSON.parse(fs.readFileSync(runtime, 'utf8')).DATABASE_URL as string | undefined) : undefined);
+  const url =
+    process.env.DATABASE_URL ?? (fs.existsSync(runtime) ? (JSON.parse(fs.readFileSync(runtime, 'utf8')).DATABASE_URL as string | undefined) : undefined);
   if (!url) {
     console.error('No database: set DATABASE_URL, or run `npm start` first (it records the local database in .data/runtime.json).');
     process.exit(2);

@@ -9,7 +9,12 @@ import { databaseUrlOrExit, pgBinOrExit, uploadDir } from './backup-target';
 
 const { values, positionals } = parseArgs({
   allowPositionals: true,
-  options: { 'database-url': { type: 'string' }, uploads: { type: 'string' }, replace: { type: 'boolean', default: false }, from: { type: 'string', default: path.join('.data', 'backups') } },
+  options: {
+    'database-url': { type: 'string' },
+    uploads: { type: 'string' },
+    replace: { type: 'boolean', default: false },
+    from: { type: 'string', default: path.join('.data', 'backups') },
+  },
 });
 const backupDir = positionals[0] ? path.resolve(positionals[0]) : latestBackup(path.resolve(values.from!));
 if (!backupDir) {
@@ -18,7 +23,13 @@ if (!backupDir) {
 }
 const databaseUrl = values['database-url'] ?? databaseUrlOrExit();
 try {
-  const { counts, manifest } = await restoreBackup({ backupDir, databaseUrl, uploadDir: values.uploads ? path.resolve(values.uploads) : uploadDir(), pgBin: pgBinOrExit(), replace: values.replace });
+  const { counts, manifest } = await restoreBackup({
+    backupDir,
+    databaseUrl,
+    uploadDir: values.uploads ? path.resolve(values.uploads) : uploadDir(),
+    pgBin: pgBinOrExit(),
+    replace: values.replace,
+  });
   console.log(`Restored ${backupDir} (taken ${manifest.createdAt}) into "${new URL(databaseUrl).pathname.slice(1)}"`);
   console.log(`  ${Object.keys(counts).length} tables, row counts match the backup; ${manifest.uploads.length} upload files match their hashes`);
 } catch (err) {

@@ -26,7 +26,16 @@ ensureDatabase(cluster, 'tunewright');
 const apiPort = String(await freePort());
 const smtpPort = String(await freePort());
 const webPort = process.env.PORT ?? '5173';
-const env = { ...process.env, DEV_TOOLS: 'true', DATABASE_URL: cluster.urlFor('tunewright'), SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, MAIL_CATCHER_PORT: smtpPort, PORT: apiPort, API_PORT: apiPort, APP_URL: `http://127.0.0.1:${webPort}` };
+const env = {
+  ...process.env,
+  DEV_TOOLS: 'true',
+  DATABASE_URL: cluster.urlFor('tunewright'),
+  SMTP_URL: `smtp://127.0.0.1:${smtpPort}`,
+  MAIL_CATCHER_PORT: smtpPort,
+  PORT: apiPort,
+  API_PORT: apiPort,
+  APP_URL: `http://127.0.0.1:${webPort}`,
+};
 runTs('server/db/prepare.ts', env);
 const spawnChild = (args, extraEnv = {}) => {
   const c = spawn(process.execPath, args, { cwd: root, env: { ...env, ...extraEnv }, stdio: 'inherit' });

@@ -18,7 +18,14 @@ function stopAll(code = 0) {
   log('Stopping…');
   for (const child of children) if (child.exitCode === null) child.kill('SIGTERM');
   const waitChildren = Promise.all(
-    children.map((c) => (c.exitCode !== null ? null : new Promise((r) => { c.once('exit', r); setTimeout(r, 8000); }))),
+    children.map((c) =>
+      c.exitCode !== null
+        ? null
+        : new Promise((r) => {
+            c.once('exit', r);
+            setTimeout(r, 8000);
+          }),
+    ),
   );
   waitChildren.then(() => {
     if (cluster) {
@@ -62,7 +69,9 @@ async function main() {
     // The local demo's helpers (mail viewer, built-in session secret); off in every other run.
     env.DEV_TOOLS = 'true';
     fs.mkdirSync(path.join(root, '.data'), { recursive: true });
-    fs.writeFileSync(path.join(root, '.data', 'runtime.json'), JSON.stringify({ DATABASE_URL: env.DATABASE_URL, SMTP_URL: env.SMTP_URL }, null, 2), { mode: 0o600 });
+    fs.writeFileSync(path.join(root, '.data', 'runtime.json'), JSON.stringify({ DATABASE_URL: env.DATABASE_URL, SMTP_URL: env.SMTP_URL }, null, 2), {
+      mode: 0o600,
+    });
     log(`PostgreSQL running on 127.0.0.1:${cluster.port} (${dir}).`);
   }
   runTs('server/db/prepare.ts', { ...env, SEED_DEMO: production ? 'false' : 'true' });

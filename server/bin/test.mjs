@@ -15,8 +15,14 @@ function cleanup() {
   fs.rmSync(cluster.dir, { recursive: true, force: true });
   cluster = null;
 }
-process.on('SIGINT', () => { cleanup(); process.exit(130); });
-process.on('SIGTERM', () => { cleanup(); process.exit(143); });
+process.on('SIGINT', () => {
+  cleanup();
+  process.exit(130);
+});
+process.on('SIGTERM', () => {
+  cleanup();
+  process.exit(143);
+});
 
 /**
  * The static checks CI runs before the suites (a whole `npm test`, not one run for chosen files): lint,
@@ -57,12 +63,27 @@ async function main() {
   fs.mkdirSync(artifacts, { recursive: true });
   const report = path.join(artifacts, 'vitest.json');
   fs.rmSync(report, { force: true });
-  const args = [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)];
+  const args = [
+    path.join(root, 'node_modules', 'vitest', 'vitest.mjs'),
+    'run',
+    '--reporter=default',
+    '--reporter=json',
+    `--outputFile.json=${report}`,
+    ...process.argv.slice(2),
+  ];
   const code = await new Promise((resolve) => {
     const child = spawn(process.execPath, args, {
       cwd: root,
       stdio: 'inherit',
-      env: { ...process.env, NODE_ENV: 'test', DEV_TOOLS: 'true', TEST_PG_ADMIN_URL: cluster.adminUrl, TEST_PG_DIR: dir, TEST_PG_BIN: bin, TEST_PG_PORT: String(cluster.port) },
+      env: {
+        ...process.env,
+        NODE_ENV: 'test',
+        DEV_TOOLS: 'true',
+        TEST_PG_ADMIN_URL: cluster.adminUrl,
+        TEST_PG_DIR: dir,
+        TEST_PG_BIN: bin,
+        TEST_PG_PORT: String(cluster.port),
+      },
     });
     child.on('exit', (c) => resolve(c ?? 1));
   });

@@ -10,7 +10,9 @@ import { createDataSource } from '../db/data-source';
 import { UserEntity } from '../modules/auth/user.entity';
 import { hashPassword, passwordWeakness } from '../lib/passwords';
 
-const { values } = parseArgs({ options: { email: { type: 'string' }, password: { type: 'string' }, role: { type: 'string', default: 'member' }, name: { type: 'string' } } });
+const { values } = parseArgs({
+  options: { email: { type: 'string' }, password: { type: 'string' }, role: { type: 'string', default: 'member' }, name: { type: 'string' } },
+});
 const input = z.object({ email: emailSchema, password: passwordSchema, role: roleSchema }).safeParse(values);
 if (!input.success) {
   for (const i of input.error.issues) console.error(`--${i.path.join('.')}: ${i.message}`);
@@ -39,7 +41,13 @@ if (user) {
   user.emailVerifiedAt ??= new Date();
   user.disabledAt = null;
 } else {
-  user = repo.create({ email: input.data.email, displayName: values.name ?? input.data.email.split('@')[0], role: input.data.role, passwordHash, emailVerifiedAt: new Date() });
+  user = repo.create({
+    email: input.data.email,
+    displayName: values.name ?? input.data.email.split('@')[0],
+    role: input.data.role,
+    passwordHash,
+    emailVerifiedAt: new Date(),
+  });
 }
 await repo.save(user);
 console.log(`${user.email} is a verified ${user.role}.`);

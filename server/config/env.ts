@@ -1,9 +1,7 @@
 import { z } from 'zod';
 import type { StorageConfig } from '../lib/storage';
 
-const bool = z
-  .enum(['true', 'false', '1', '0'])
-  .transform((v) => v === 'true' || v === '1');
+const bool = z.enum(['true', 'false', '1', '0']).transform((v) => v === 'true' || v === '1');
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -32,7 +30,11 @@ const envSchema = z.object({
   /** The local demo's and the tests' helpers (the mail viewer, the built-in session secret): off unless turned on. */
   DEV_TOOLS: bool.default(false),
   /** Sessions end after this long without a request (members; moderators and admins get a quarter of it, at least an hour). */
-  SESSION_IDLE_HOURS: z.coerce.number().min(0.05).max(24 * 90).default(48),
+  SESSION_IDLE_HOURS: z.coerce
+    .number()
+    .min(0.05)
+    .max(24 * 90)
+    .default(48),
   /** Sessions end this long after sign-in, however active. */
   SESSION_ABSOLUTE_DAYS: z.coerce.number().min(0.01).max(365).default(14),
 });
@@ -68,7 +70,9 @@ export const DEV_SESSION_SECRET = 'tunewright-local-demo-secret-not-for-producti
  */
 export function assertServeable(config: Config) {
   if (config.sessionSecret === DEV_SESSION_SECRET && !config.devTools) {
-    throw new Error('Invalid environment:\nSESSION_SECRET: required (the built-in development secret is used only with DEV_TOOLS=true, by the local demo and the tests)');
+    throw new Error(
+      'Invalid environment:\nSESSION_SECRET: required (the built-in development secret is used only with DEV_TOOLS=true, by the local demo and the tests)',
+    );
   }
 }
 
@@ -97,7 +101,11 @@ export function loadConfig(source: Record<string, string | undefined> = process.
     sessionSecret: e.SESSION_SECRET ?? DEV_SESSION_SECRET,
     bcryptCost: e.BCRYPT_COST ?? (e.NODE_ENV === 'test' ? 4 : 12),
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
-    rateLimits: { authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN, uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN, signInPerAccountPer15Min: e.SIGN_IN_ATTEMPTS_PER_ACCOUNT_PER_15MIN },
+    rateLimits: {
+      authPer15Min: e.RATE_LIMIT_AUTH_PER_15MIN,
+      uploadPer15Min: e.RATE_LIMIT_UPLOAD_PER_15MIN,
+      signInPerAccountPer15Min: e.SIGN_IN_ATTEMPTS_PER_ACCOUNT_PER_15MIN,
+    },
     uploadDir: e.UPLOAD_DIR ?? '.data/uploads',
     storage: {
       driver: e.STORAGE_DRIVER,

@@ -13,4 +13,17 @@ import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
 import { RunEntity } from '../modules/runs/run.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
-export const entities = [UserEntity, UserTokenEntity, OutboxMessageEntity, CapturedMailEntity, AuditLogEntity, DocumentEntity, RevisionEntity, SetupEntity, ReviewApprovalEntity, MotorEntity, BenchCheckEntity, RunEntity];
+export const entities = [
+  UserEntity,
+  UserTokenEntity,
+  OutboxMessageEntity,
+  CapturedMailEntity,
+  AuditLogEntity,
+  DocumentEntity,
+  RevisionEntity,
+  SetupEntity,
+  ReviewApprovalEntity,
+  MotorEntity,
+  BenchCheckEntity,
+  RunEntity,
+];

@@ -15,5 +15,10 @@ if (process.argv.includes('--migrate-only')) {
   await ds.destroy();
   process.exit(0);
 }
-await seed(ds, { demo: process.env.SEED_DEMO !== 'false', bcryptCost: config.bcryptCost, log: (m) => console.log(`[tunewright] ${m}`), runs: { storage: createStorage(config.storage), logger: createLogger(config.logLevel) } });
+await seed(ds, {
+  demo: process.env.SEED_DEMO !== 'false',
+  bcryptCost: config.bcryptCost,
+  log: (m) => console.log(`[tunewright] ${m}`),
+  runs: { storage: createStorage(config.storage), logger: createLogger(config.logLevel) },
+});
 await ds.destroy();

@@ -23,7 +23,15 @@ export async function seedDemoAccounts(ds: DataSource, bcryptCost: number) {
   for (const a of DEMO_ACCOUNTS) {
     let user = await repo.findOneBy({ email: a.email });
     if (!user) {
-      user = await repo.save(repo.create({ email: a.email, displayName: a.displayName, role: a.role, passwordHash: await hashPassword(a.password, bcryptCost), emailVerifiedAt: new Date() }));
+      user = await repo.save(
+        repo.create({
+          email: a.email,
+          displayName: a.displayName,
+          role: a.role,
+          passwordHash: await hashPassword(a.password, bcryptCost),
+          emailVerifiedAt: new Date(),
+        }),
+      );
     }
     byKey.set(a.key, user);
   }

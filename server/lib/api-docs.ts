@@ -36,7 +36,11 @@ type Operation = {
   requestBody?: { content?: Record<string, { schema?: Schema }> };
   responses?: Record<string, { description?: string; content?: Record<string, { schema?: Schema }> }>;
 };
-type OpenApiDoc = { info?: { title?: string; version?: string; description?: string }; paths?: Record<string, Record<string, Operation>>; components?: { schemas?: Record<string, Schema> } };
+type OpenApiDoc = {
+  info?: { title?: string; version?: string; description?: string };
+  paths?: Record<string, Record<string, Operation>>;
+  components?: { schemas?: Record<string, Schema> };
+};
 
 const METHODS = ['get', 'post', 'put', 'patch', 'delete'] as const;
 
@@ -90,7 +94,9 @@ function fieldRows(doc: OpenApiDoc, raw: Schema | undefined, prefix = '', depth 
   const rows: string[] = [];
   for (const [name, inner] of Object.entries(target.properties)) {
     const field = resolve(doc, inner);
-    rows.push(`<tr><td><code>${esc(prefix + name)}</code></td><td>${esc(typeOf(doc, field))}</td><td>${required.has(name) ? 'yes' : 'no'}</td><td>${rules(field)}</td></tr>`);
+    rows.push(
+      `<tr><td><code>${esc(prefix + name)}</code></td><td>${esc(typeOf(doc, field))}</td><td>${required.has(name) ? 'yes' : 'no'}</td><td>${rules(field)}</td></tr>`,
+    );
     rows.push(...fieldRows(doc, field, `${prefix}${name}${field?.type === 'array' ? '[]' : ''}.`, depth + 1));
   }
   return rows;
@@ -109,7 +115,10 @@ function operationHtml(doc: OpenApiDoc, method: string, path: string, op: Operat
   const params = op.parameters ?? [];
   const paramTable = params.length
     ? `<table><caption>Parameters</caption><thead><tr><th scope="col">Name</th><th scope="col">In</th><th scope="col">Type</th><th scope="col">Required</th><th scope="col">Rules</th></tr></thead><tbody>${params
-        .map((p) => `<tr><td><code>${esc(p.name)}</code></td><td>${esc(p.in)}</td><td>${esc(typeOf(doc, p.schema))}</td><td>${p.required ? 'yes' : 'no'}</td><td>${rules(resolve(doc, p.schema))}</td></tr>`)
+        .map(
+          (p) =>
+            `<tr><td><code>${esc(p.name)}</code></td><td>${esc(p.in)}</td><td>${esc(typeOf(doc, p.schema))}</td><td>${p.required ? 'yes' : 'no'}</td><td>${rules(resolve(doc, p.schema))}</td></tr>`,
+        )
         .join('')}</tbody></table>`
     : '';
   const bodyTypes = Object.entries(op.requestBody?.content ?? {});
@@ -161,9 +170,14 @@ export function renderApiDocs(openapi: unknown): string {
     }
   }
   const toc = [...groups]
-    .map(([tag, ops]) => `<li><a href="#tag-${esc(tag)}">${esc(tag)}</a><ul>${ops.map((o) => `<li><a href="#${anchor(o.method, o.path)}">${o.method.toUpperCase()} ${esc(o.path)}</a></li>`).join('')}</ul></li>`)
+    .map(
+      ([tag, ops]) =>
+        `<li><a href="#tag-${esc(tag)}">${esc(tag)}</a><ul>${ops.map((o) => `<li><a href="#${anchor(o.method, o.path)}">${o.method.toUpperCase()} ${esc(o.path)}</a></li>`).join('')}</ul></li>`,
+    )
     .join('');
-  const sections = [...groups].map(([tag, ops]) => `<h2 id="tag-${esc(tag)}">${esc(tag)}</h2>${ops.map((o) => operationHtml(doc, o.method, o.path, o.op)).join('')}`).join('');
+  const sections = [...groups]
+    .map(([tag, ops]) => `<h2 id="tag-${esc(tag)}">${esc(tag)}</h2>${ops.map((o) => operationHtml(doc, o.method, o.path, o.op)).join('')}`)
+    .join('');
   const title = `${doc.info?.title ?? 'API'} ${doc.info?.version ?? ''}`.trim();
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">

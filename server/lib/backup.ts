@@ -139,12 +139,20 @@ export async function restoreBackup(opts: { backupDir: string; databaseUrl: stri
     if (exists && opts.replace) await c.query(`DROP DATABASE ${quoted} WITH (FORCE)`);
     if (!exists || opts.replace) await c.query(`CREATE DATABASE ${quoted}`);
   });
-  const existingTables = await withClient(opts.databaseUrl, async (c) => Number((await c.query(`SELECT count(*) AS n FROM pg_tables WHERE schemaname = 'public'`)).rows[0].n));
-  if (existingTables > 0) throw new Error(`Database "${target}" already has ${existingTables} tables. Restore into a new database, or pass --replace to drop and recreate it.`);
+  const existingTables = await withClient(opts.databaseUrl, async (c) =>
+    Number((await c.query(`SELECT count(*) AS n FROM pg_tables WHERE schemaname = 'public'`)).rows[0].n),
+  );
+  if (existingTables > 0)
+    throw new Error(`Database "${target}" already has ${existingTables} tables. Restore into a new database, or pass --replace to drop and recreate it.`);
   const filesThere = listFiles(opts.uploadDir);
-  if (filesThere.length && !opts.replace) throw new Error(`The uploads folder ${opts.uploadDir} already holds ${filesThere.length} files. Restore into an empty folder, or pass --replace.`);
+  if (filesThere.length && !opts.replace)
+    throw new Error(`The uploads folder ${opts.uploadDir} already holds ${filesThere.length} files. Restore into an empty folder, or pass --replace.`);
 
-  runTool(path.join(opts.pgBin, 'pg_restore'), ['--exit-on-error', '--no-owner', '--no-privileges', '--single-transaction', '--dbname', target, path.join(opts.backupDir, 'database.dump')], env);
+  runTool(
+    path.join(opts.pgBin, 'pg_restore'),
+    ['--exit-on-error', '--no-owner', '--no-privileges', '--single-transaction', '--dbname', target, path.join(opts.backupDir, 'database.dump')],
+    env,
+  );
 
   if (opts.replace) fs.rmSync(opts.uploadDir, { recursive: true, force: true });
   fs.mkdirSync(opts.uploadDir, { recursive: true });
@@ -152,7 +160,8 @@ export async function restoreBackup(opts: { backupDir: string; databaseUrl: stri
 
   const problems: string[] = [];
   const counts = await tableCounts(opts.databaseUrl);
-  for (const [table, n] of Object.entries(manifest.tables)) if (counts[table] !== n) problems.push(`${table}: ${counts[table] ?? 'missing'} rows, backup had ${n}`);
+  for (const [table, n] of Object.entries(manifest.tables))
+    if (counts[table] !== n) problems.push(`${table}: ${counts[table] ?? 'missing'} rows, backup had ${n}`);
   const files = new Map(uploadInventory(opts.uploadDir).map((f) => [f.path, f.sha256]));
   for (const f of manifest.uploads) if (files.get(f.path) !== f.sha256) problems.push(`upload ${f.path}: ${files.has(f.path) ? 'content differs' : 'missing'}`);
   if (problems.length) throw new Error(`The restore does not match the backup:\n${problems.join('\n')}`);

@@ -43,7 +43,13 @@ function parseChange(payload: string | undefined): DocumentChange | null {
  * to in-process subscribers. A pooled connection cannot hold a LISTEN, hence its own client; it
  * reconnects with back-off when PostgreSQL restarts or the connection drops.
  */
-export function createDocumentListener(opts: { connectionString: string; logger: Logger; minRetryMs?: number; maxRetryMs?: number; applicationName?: string }): DocumentListener {
+export function createDocumentListener(opts: {
+  connectionString: string;
+  logger: Logger;
+  minRetryMs?: number;
+  maxRetryMs?: number;
+  applicationName?: string;
+}): DocumentListener {
   const minRetry = opts.minRetryMs ?? 250;
   const maxRetry = opts.maxRetryMs ?? 10_000;
   const changeSubs = new Set<(change: DocumentChange) => void>();
@@ -88,7 +94,12 @@ export function createDocumentListener(opts: { connectionString: string; logger:
   function connect(): Promise<void> {
     if (connecting) return connecting;
     connecting = (async () => {
-      const c = new pg.Client({ connectionString: opts.connectionString, keepAlive: true, application_name: opts.applicationName ?? 'tunewright-document-listener', connectionTimeoutMillis: 5000 });
+      const c = new pg.Client({
+        connectionString: opts.connectionString,
+        keepAlive: true,
+        application_name: opts.applicationName ?? 'tunewright-document-listener',
+        connectionTimeoutMillis: 5000,
+      });
       c.on('error', (err) => {
         opts.logger.warn({ err: err.message }, 'document listener connection error; reconnecting');
         dropClient(c);

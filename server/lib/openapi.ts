@@ -18,7 +18,13 @@ const ERROR_STATUSES: Record<string, string> = {
   '503': 'Database unavailable',
 };
 
-const RESOURCE_WORDS: Record<OwnedResource, string> = { revision: "the revision's author", 'setup-upload': "the upload's owner", account: 'the account holder', motor: "the motor's owner", run: "the run's owner" };
+const RESOURCE_WORDS: Record<OwnedResource, string> = {
+  revision: "the revision's author",
+  'setup-upload': "the upload's owner",
+  account: 'the account holder',
+  motor: "the motor's owner",
+  run: "the run's owner",
+};
 const OWNERSHIP_WORDS: Record<OwnershipRule, (r: OwnedResource) => string> = {
   owner: (r) => `${RESOURCE_WORDS[r]} only`,
   'owner-or-moderator': (r) => `${RESOURCE_WORDS[r]} and moderators`,
@@ -56,11 +62,13 @@ export function buildOpenApi(routes: RouteDef[], opts: { devTools: boolean }) {
       responses: { [status]: success, ...errorResponses },
     };
   }
-  return createDocument(
-    {
-      openapi: '3.1.0',
-      info: { title: 'Tunewright API', version: APP_VERSION, description: 'Successes are `{ data }` (lists add `meta`); failures are `{ error: { code, message, details? } }`.' },
-      paths: paths as never,
+  return createDocument({
+    openapi: '3.1.0',
+    info: {
+      title: 'Tunewright API',
+      version: APP_VERSION,
+      description: 'Successes are `{ data }` (lists add `meta`); failures are `{ error: { code, message, details? } }`.',
     },
-  );
+    paths: paths as never,
+  });
 }

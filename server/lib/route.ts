@@ -100,12 +100,21 @@ export function checkAccess(access: Access, user: User | null) {
   if (access === 'public') return;
   if (!user) throw unauthenticated();
   if (ROLE_RANK[user.role] < ROLE_RANK[access]) {
-    throw new AppError(403, 'role_required', access === 'admin' ? 'Only administrators can do that' : access === 'moderator' ? 'Only moderators can do that' : 'You are not allowed to do that');
+    throw new AppError(
+      403,
+      'role_required',
+      access === 'admin' ? 'Only administrators can do that' : access === 'moderator' ? 'Only moderators can do that' : 'You are not allowed to do that',
+    );
   }
 }
 
 /** Mounts route definitions on an Express router: access → validation → handler → envelope. */
-export function mountRoutes(router: Router, routes: RouteDef[], ctx: AppContext, limiters: Record<'auth' | 'upload', (req: Request, res: Response, next: NextFunction) => void>) {
+export function mountRoutes(
+  router: Router,
+  routes: RouteDef[],
+  ctx: AppContext,
+  limiters: Record<'auth' | 'upload', (req: Request, res: Response, next: NextFunction) => void>,
+) {
   for (const route of routes) {
     if (route.devOnly && !ctx.config.devTools) continue;
     const chain: Array<(req: Request, res: Response, next: NextFunction) => void> = [];

@@ -14,10 +14,18 @@ function shape(err: unknown): Shaped | null {
     return { status: 403, code: 'csrf_invalid', message: 'Your session token is missing or out of date. Reload the page and try again.' };
   }
   const e = err as { type?: string; status?: number; code?: string; message?: string; field?: string };
-  if (e?.type === 'entity.too.large' || e?.code === 'LIMIT_FILE_SIZE') return { status: 413, code: 'payload_too_large', message: 'That is too large to accept.' };
+  if (e?.type === 'entity.too.large' || e?.code === 'LIMIT_FILE_SIZE')
+    return { status: 413, code: 'payload_too_large', message: 'That is too large to accept.' };
   if (e?.type === 'entity.parse.failed') return { status: 400, code: 'invalid_json', message: 'The request body is not valid JSON.' };
-  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') return { status: 415, code: 'unsupported_media_type', message: 'That character set or encoding is not supported.' };
-  if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_')) return { status: 400, code: 'invalid_upload', message: e.message ?? 'The upload was refused.', details: e.field ? [{ path: e.field, message: e.message }] : undefined };
+  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported')
+    return { status: 415, code: 'unsupported_media_type', message: 'That character set or encoding is not supported.' };
+  if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
+    return {
+      status: 400,
+      code: 'invalid_upload',
+      message: e.message ?? 'The upload was refused.',
+      details: e.field ? [{ path: e.field, message: e.message }] : undefined,
+    };
   if (e?.status && e.status >= 400 && e.status < 500) return { status: e.status, code: 'bad_request', message: 'The request could not be understood.' };
   // Text PostgreSQL cannot store (a NUL, an invalid escape) is the caller's input, not our failure.
   const pgCode = (err as { driverError?: { code?: string }; code?: string })?.driverError?.code ?? e?.code;

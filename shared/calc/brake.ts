@@ -42,10 +42,7 @@ export type BrakeResults = {
 };
 
 /** Brake (% of full) at a brake-stick position; 0 % stick is neutral, where only the drag brake acts. */
-export function brakeAtStick(
-  stickPct: number,
-  input: Pick<BrakeInput, 'dragBrakePct' | 'initialBrakePct' | 'brakeStrengthPct'>,
-): number {
+export function brakeAtStick(stickPct: number, input: Pick<BrakeInput, 'dragBrakePct' | 'initialBrakePct' | 'brakeStrengthPct'>): number {
   if (stickPct <= 0) return input.dragBrakePct;
   // An initial brake above the strength would make the curve fall with more stick; cap it at the strength.
   const initial = Math.min(input.initialBrakePct, input.brakeStrengthPct);
@@ -57,8 +54,7 @@ export function brakeAtStick(
 export function describeNeutralFeel(dragBrakePct: number): string {
   if (dragBrakePct === 0) return 'Free-rolling: the car coasts off throttle and carries its speed into the corner.';
   if (dragBrakePct <= 10) return 'Light drag: a gentle slowdown off throttle that helps the car settle into corners.';
-  if (dragBrakePct <= 30)
-    return 'Firm drag: the car slows noticeably off throttle, like a light dab of brake every time you lift.';
+  if (dragBrakePct <= 30) return 'Firm drag: the car slows noticeably off throttle, like a light dab of brake every time you lift.';
   return 'Heavy drag: lifting off is like braking hard; the rear can step out or lock on low grip.';
 }
 
@@ -83,8 +79,7 @@ export function computeBrake(input: BrakeInput) {
       level: 'caution',
       code: 'drag-above-strength',
       field: 'dragBrakePct',
-      message:
-        'The drag brake is stronger than full brake stick, so lifting off brakes harder than braking. Lower the drag brake or raise the brake strength.',
+      message: 'The drag brake is stronger than full brake stick, so lifting off brakes harder than braking. Lower the drag brake or raise the brake strength.',
     });
   }
   if (dragBrakePct >= HEAVY_DRAG_PCT) {
@@ -111,8 +106,7 @@ export function computeBrake(input: BrakeInput) {
 export const brakeCalculator = defineCalculator({
   name: 'brake',
   title: 'Drag brake and brake curve',
-  description:
-    'What the car does at neutral and how much brake each position of the brake stick gives, from the drag brake, initial brake and brake strength.',
+  description: 'What the car does at neutral and how much brake each position of the brake stick gives, from the drag brake, initial brake and brake strength.',
   input: brakeInput,
   defaults: { dragBrakePct: 10, initialBrakePct: 15, brakeStrengthPct: 80 },
   compute: computeBrake,

@@ -127,8 +127,7 @@ export function computeGearing(input: GearingInput) {
 export const gearingCalculator = defineCalculator({
   name: 'gearing',
   title: 'Final drive ratio and rollout',
-  description:
-    'How many motor turns make one wheel turn, and how far the car travels for each motor turn, for a spur, pinion, internal ratio and tyre size.',
+  description: 'How many motor turns make one wheel turn, and how far the car travels for each motor turn, for a spur, pinion, internal ratio and tyre size.',
   input: gearingInput,
   defaults: { spur: 84, pinion: 40, internalRatio: 1.9, tyreDiameterMm: 64 },
   compute: computeGearing,

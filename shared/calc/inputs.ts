@@ -46,10 +46,7 @@ function numberCore(spec: NumberFieldSpec) {
     .superRefine((value, ctx) => {
       if (isBlank(value)) {
         ctx.addIssue({ code: 'custom', message: `${spec.label} is required`, abort: true });
-      } else if (
-        !(typeof value === 'number' || typeof value === 'string') ||
-        !Number.isFinite(Number(typeof value === 'string' ? value.trim() : value))
-      ) {
+      } else if (!(typeof value === 'number' || typeof value === 'string') || !Number.isFinite(Number(typeof value === 'string' ? value.trim() : value))) {
         ctx.addIssue({
           code: 'custom',
           message: `${spec.label} must be a number (got ${describeInput(value)})`,
@@ -80,9 +77,7 @@ export function numberInput(spec: NumberFieldSpec) {
 
 /** An optional number field: left out or blank means "not given". */
 export function optionalNumberInput(spec: NumberFieldSpec) {
-  return z
-    .preprocess(blankToUndefined, numberCore(spec).optional())
-    .meta({ title: spec.label, description: spec.help, 'x-calc-field': fieldMeta(spec, true) });
+  return z.preprocess(blankToUndefined, numberCore(spec).optional()).meta({ title: spec.label, description: spec.help, 'x-calc-field': fieldMeta(spec, true) });
 }
 
 type ChoiceFieldSpec<T extends readonly [string, ...string[]]> = {
@@ -117,10 +112,7 @@ function choiceCore<T extends readonly [string, ...string[]]>(spec: ChoiceFieldS
   });
 }
 
-function choiceMeta<T extends readonly [string, ...string[]]>(
-  spec: ChoiceFieldSpec<T>,
-  optional: boolean,
-): Omit<CalcField, 'key'> {
+function choiceMeta<T extends readonly [string, ...string[]]>(spec: ChoiceFieldSpec<T>, optional: boolean): Omit<CalcField, 'key'> {
   return {
     label: spec.label,
     unit: '',
@@ -133,15 +125,11 @@ function choiceMeta<T extends readonly [string, ...string[]]>(
 
 /** A required choice, matched case-insensitively (so "LiPo" and "lipo" both work) and via aliases. */
 export function choiceInput<const T extends readonly [string, ...string[]]>(spec: ChoiceFieldSpec<T>) {
-  return z
-    .preprocess(normaliseChoice(spec), choiceCore(spec))
-    .meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, false) });
+  return z.preprocess(normaliseChoice(spec), choiceCore(spec)).meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, false) });
 }
 
 /** A choice that falls back to `fallback` when left out or blank. */
-export function defaultedChoiceInput<const T extends readonly [string, ...string[]]>(
-  spec: ChoiceFieldSpec<T> & { fallback: T[number] },
-) {
+export function defaultedChoiceInput<const T extends readonly [string, ...string[]]>(spec: ChoiceFieldSpec<T> & { fallback: T[number] }) {
   return z
     .preprocess(normaliseChoice(spec), choiceCore(spec).default(spec.fallback))
     .meta({ title: spec.label, description: spec.help, 'x-calc-field': choiceMeta(spec, true) });
@@ -156,17 +144,13 @@ export function unknownKeyMessage(key: string, knownKeys: readonly string[]): st
     const knownLower = known.toLowerCase();
     // Also compare with the key minus its unit suffix (dragBrakePct → dragBrake), since people leave units off.
     const stem = known.replace(/(?<=[a-z])(Pct|PctPerS|Mm|In|Rpm|Deg|DegC|V|S|PerCellV|PerS)$/, '').toLowerCase();
-    const distance =
-      knownLower.startsWith(lower) || lower.startsWith(knownLower)
-        ? 1
-        : Math.min(levenshtein(lower, knownLower), levenshtein(lower, stem));
+    const distance = knownLower.startsWith(lower) || lower.startsWith(knownLower) ? 1 : Math.min(levenshtein(lower, knownLower), levenshtein(lower, stem));
     if (distance < bestDistance) {
       best = known;
       bestDistance = distance;
     }
   }
-  const hint =
-    best !== undefined && bestDistance <= Math.max(2, Math.floor(key.length / 3)) ? ` Did you mean "${best}"?` : '';
+  const hint = best !== undefined && bestDistance <= Math.max(2, Math.floor(key.length / 3)) ? ` Did you mean "${best}"?` : '';
   return `Unknown field "${key}".${hint} Known fields: ${knownKeys.join(', ')}.`;
 }
 

@@ -114,8 +114,7 @@ export function computePack(input: PackInput) {
     warnings.push({
       level: 'info',
       code: 'lihv-race-rules',
-      message:
-        'Race rules that cap lithium packs at 4.20 V per cell do not allow a LiHV pack charged to 4.35 V: check your class rules.',
+      message: 'Race rules that cap lithium packs at 4.20 V per cell do not allow a LiHV pack charged to 4.35 V: check your class rules.',
     });
   }
 

@@ -150,8 +150,7 @@ export function computeTemperature(input: TemperatureInput) {
 export const temperatureCalculator = defineCalculator({
   name: 'temperature',
   title: 'Temperature and heat bands',
-  description:
-    'Converts a reading between °C and °F and says whether it is cool, warm, hot or too hot for a motor, speed controller or pack just after a run.',
+  description: 'Converts a reading between °C and °F and says whether it is cool, warm, hot or too hot for a motor, speed controller or pack just after a run.',
   input: temperatureInput,
   defaults: { value: 160, unit: 'F', part: 'motor' },
   compute: computeTemperature,

@@ -120,8 +120,7 @@ export function computeThrottle(input: ThrottleInput) {
 export const throttleCalculator = defineCalculator({
   name: 'throttle',
   title: 'Throttle curve and punch',
-  description:
-    'How stick travel maps to output for a throttle curve, and how long the punch limit takes to let the output rise to full.',
+  description: 'How stick travel maps to output for a throttle curve, and how long the punch limit takes to let the output rise to full.',
   input: throttleInput,
   defaults: { expoPct: 20, punchRatePctPerS: 400, inputPct: 50 },
   compute: computeThrottle,

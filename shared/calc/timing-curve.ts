@@ -104,11 +104,7 @@ export const timingCurveInput = inputObject({
   }),
 })
   .superRefine((value, ctx) => {
-    if (
-      typeof value.rampStartRpm === 'number' &&
-      typeof value.rampEndRpm === 'number' &&
-      value.rampEndRpm <= value.rampStartRpm
-    ) {
+    if (typeof value.rampStartRpm === 'number' && typeof value.rampEndRpm === 'number' && value.rampEndRpm <= value.rampStartRpm) {
       ctx.addIssue({
         code: 'custom',
         path: ['rampEndRpm'],
@@ -141,10 +137,7 @@ export type TimingCurveResults = {
 };
 
 /** Controller advance at `rpm` without the full-throttle step (the linear-ramp model above). */
-export function timingAt(
-  rpm: number,
-  curve: { baseDeg: number; rampDeg: number; rampStartRpm: number; rampEndRpm: number },
-): number {
+export function timingAt(rpm: number, curve: { baseDeg: number; rampDeg: number; rampStartRpm: number; rampEndRpm: number }): number {
   const fraction = clamp((rpm - curve.rampStartRpm) / (curve.rampEndRpm - curve.rampStartRpm), 0, 1);
   return curve.baseDeg + curve.rampDeg * fraction;
 }
@@ -172,9 +165,7 @@ export function computeTimingCurve(input: TimingCurveInput) {
     .sort((a, b) => a - b)
     .map((rpm) => {
       const deg = timingAt(rpm, input);
-      return hasStep
-        ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) }
-        : { rpm, deg: roundSig(deg) };
+      return hasStep ? { rpm, deg: roundSig(deg), fullThrottleDeg: roundSig(deg + stepDeg) } : { rpm, deg: roundSig(deg) };
     });
 
   const warnings: CalcWarning[] = [];

@@ -53,9 +53,7 @@ function parseUnsafe(body: string): WorkedExampleResult {
       ok: false,
       issues: document.errors.map((error) => ({
         path: '',
-        message: `Syntax error in the worked example${
-          error.linePos ? ` at line ${error.linePos[0].line}` : ''
-        }: ${error.message.split('\n')[0]}`,
+        message: `Syntax error in the worked example${error.linePos ? ` at line ${error.linePos[0].line}` : ''}: ${error.message.split('\n')[0]}`,
       })),
     };
   }
@@ -63,9 +61,7 @@ function parseUnsafe(body: string): WorkedExampleResult {
   if (!isPlainRecord(data)) {
     return {
       ok: false,
-      issues: [
-        { path: '', message: 'A worked example must be "key: value" lines, starting with "calc: <calculator name>".' },
-      ],
+      issues: [{ path: '', message: 'A worked example must be "key: value" lines, starting with "calc: <calculator name>".' }],
     };
   }
   const { calc, ...rawInputs } = data;

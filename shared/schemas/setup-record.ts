@@ -52,9 +52,7 @@ const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v)
 function num(label: string, unit: string, min: number, max: number, opts: { int?: boolean; even?: boolean } = {}) {
   let n = z.number({ error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be a number`) });
   if (opts.int) n = n.int({ error: `${label} must be a whole number` });
-  n = n
-    .min(min, { error: `${label} must be at least ${withUnit(min, unit)}` })
-    .max(max, { error: `${label} must be at most ${withUnit(max, unit)}` });
+  n = n.min(min, { error: `${label} must be at least ${withUnit(min, unit)}` }).max(max, { error: `${label} must be at most ${withUnit(max, unit)}` });
   if (opts.even) n = n.multipleOf(2, { error: `${label} must be an even number (magnet poles come in pairs)` });
   return n.meta({ title: label, ...(unit ? { description: `In ${unit}` } : {}) });
 }
@@ -67,12 +65,18 @@ function text(label: string, max: number) {
 }
 
 function choice<const T extends readonly [string, ...string[]]>(label: string, options: T) {
-  return z.enum(options, { error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be one of: ${options.join(', ')}`) }).meta({ title: label });
+  return z
+    .enum(options, { error: (i) => (i.input === undefined ? `${label} is required` : `${label} must be one of: ${options.join(', ')}`) })
+    .meta({ title: label });
 }
 
 const unknownKeys = (where: string) => ({
   error: (issue: { code?: string; keys?: string[] }) =>
-    issue.code === 'unrecognized_keys' ? `Unknown field${(issue.keys?.length ?? 0) > 1 ? 's' : ''} in ${where}: ${issue.keys?.join(', ')}` : issue.code === 'invalid_type' ? `${where} must be an object` : undefined,
+    issue.code === 'unrecognized_keys'
+      ? `Unknown field${(issue.keys?.length ?? 0) > 1 ? 's' : ''} in ${where}: ${issue.keys?.join(', ')}`
+      : issue.code === 'invalid_type'
+        ? `${where} must be an object`
+        : undefined,
 });
 
 const vehicleSchema = z.strictObject(
@@ -128,7 +132,11 @@ const conditionsSchema = z.strictObject(
 
 const provenanceSchema = z.strictObject(
   {
-    guideSlug: z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Guide slug: lowercase letters, digits and single hyphens').max(120).optional(),
+    guideSlug: z
+      .string()
+      .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Guide slug: lowercase letters, digits and single hyphens')
+      .max(120)
+      .optional(),
     guideTitle: text('Guide title', 140).optional(),
     revisionNumber: num('Revision number', '', 1, 100_000, { int: true }).optional(),
     authorDisplayName: text("Author's name", 60).optional(),
@@ -163,7 +171,8 @@ function structure(
   );
   const motor = motorRefined
     ? motorBase.superRefine((m, ctx) => {
-        if (m.kvRpmPerV === undefined && m.windTurns === undefined) ctx.addIssue({ code: 'custom', path: ['kvRpmPerV'], message: 'Give the motor kV (rpm/V) or its wind (turns), or both' });
+        if (m.kvRpmPerV === undefined && m.windTurns === undefined)
+          ctx.addIssue({ code: 'custom', path: ['kvRpmPerV'], message: 'Give the motor kV (rpm/V) or its wind (turns), or both' });
       })
     : motorBase;
   return z
@@ -234,7 +243,11 @@ function checkEscSettings(library: readonly SettingDefinition[]) {
       const def = bySlug.get(slug);
       if (!def) {
         const hint = closest(slug, known);
-        ctx.addIssue({ code: 'custom', path: [slug], message: `Unknown setting "${slug}": it is not in the parameter library.${hint ? ` Did you mean "${hint}"?` : ''}` });
+        ctx.addIssue({
+          code: 'custom',
+          path: [slug],
+          message: `Unknown setting "${slug}": it is not in the parameter library.${hint ? ` Did you mean "${hint}"?` : ''}`,
+        });
         continue;
       }
       if (setting.unit !== def.unit) {
@@ -242,7 +255,11 @@ function checkEscSettings(library: readonly SettingDefinition[]) {
       }
       const { min, max } = def.range;
       if (setting.value < min || setting.value > max) {
-        ctx.addIssue({ code: 'custom', path: [slug, 'value'], message: `${def.name} must be between ${withUnit(min, def.unit)} and ${withUnit(max, def.unit)} (got ${withUnit(setting.value, def.unit)})` });
+        ctx.addIssue({
+          code: 'custom',
+          path: [slug, 'value'],
+          message: `${def.name} must be between ${withUnit(min, def.unit)} and ${withUnit(max, def.unit)} (got ${withUnit(setting.value, def.unit)})`,
+        });
       } else if (def.unit === '' && def.range.step === 1 && !Number.isInteger(setting.value)) {
         ctx.addIssue({ code: 'custom', path: [slug, 'value'], message: `${def.name} is a choice or a count: use a whole number from ${min} to ${max}` });
       }

@@ -55,7 +55,10 @@ export const tokenSchema = z.string({ message: 'The link is missing its token' }
 export const verifyEmailSchema = z.object({ token: tokenSchema });
 export const forgotPasswordSchema = z.object({ email: emailSchema });
 export const resetPasswordSchema = z.object({ token: tokenSchema, password: passwordSchema });
-export const changePasswordSchema = z.object({ currentPassword: z.string().min(1, 'Enter your current password').max(LIMITS.passwordMax), newPassword: passwordSchema });
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password').max(LIMITS.passwordMax),
+  newPassword: passwordSchema,
+});
 export const updateProfileSchema = z.object({ displayName: displayNameSchema });
 
 export const adminUserQuerySchema = z.object({

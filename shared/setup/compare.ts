@@ -4,7 +4,15 @@ import { computeSetup, DEFAULT_TIMING_RPM, isHighTiming, sortCautions, type Comp
 import { flattenSetup, SETUP_FIELDS, SETUP_SECTIONS, labelForSlug, type SetupLeafValue, type SetupSection } from './fields';
 
 /** One field of two records side by side. `a`/`b` are null where that record leaves the field out. */
-export type SetupFieldDiff = { path: string; label: string; unit: string; section: SetupSection; a: SetupLeafValue | null; b: SetupLeafValue | null; changed: boolean };
+export type SetupFieldDiff = {
+  path: string;
+  label: string;
+  unit: string;
+  section: SetupSection;
+  a: SetupLeafValue | null;
+  b: SetupLeafValue | null;
+  changed: boolean;
+};
 
 export type DiffOptions = {
   /** Library names for ESC slugs (otherwise the slug is turned into a label). */
@@ -30,7 +38,9 @@ export function diffSetupFields(a: SetupRecord | null, b: SetupRecord | null, op
   for (const section of SETUP_SECTIONS) {
     if (section.key === 'provenance' && !opts.includeProvenance) continue;
     if (section.key === 'escSettings') {
-      const slugs = [...new Set([...leavesA.keys(), ...leavesB.keys()].filter((p) => p.startsWith('escSettings.')))].map((p) => p.slice('escSettings.'.length)).sort();
+      const slugs = [...new Set([...leavesA.keys(), ...leavesB.keys()].filter((p) => p.startsWith('escSettings.')))]
+        .map((p) => p.slice('escSettings.'.length))
+        .sort();
       for (const slug of slugs) {
         const path = `escSettings.${slug}`;
         push(path, labelForSlug(slug, opts.names), leavesA.get(path)?.unit ?? leavesB.get(path)?.unit ?? '', 'escSettings');

@@ -58,7 +58,10 @@ export function sortCautions<T extends CalcWarning>(cautions: T[]): T[] {
     .sort((a, b) => LEVEL_ORDER[a.level] - LEVEL_ORDER[b.level]);
 }
 
-function run<T>(calc: { input: { safeParse(v: unknown): { success: boolean; data?: unknown } }; compute(i: never): { results: unknown; warnings: CalcWarning[] } }, input: Record<string, unknown>) {
+function run<T>(
+  calc: { input: { safeParse(v: unknown): { success: boolean; data?: unknown } }; compute(i: never): { results: unknown; warnings: CalcWarning[] } },
+  input: Record<string, unknown>,
+) {
   const parsed = calc.input.safeParse(input);
   if (!parsed.success) return null;
   return calc.compute(parsed.data as never) as { results: T; warnings: CalcWarning[] };
@@ -85,8 +88,22 @@ export function computeSetup(record: SetupRecord, opts: ComputeOptions = {}): Se
   if (gearingOut) add('gearing', gearingOut.warnings);
 
   const cutoffPerCellV = esc(record, 'low-voltage-cutoff');
-  type PackResults = { chemistry: string; cells: number; fullV: number; nominalV: number; storageV: number | null; cutoffWindowV: { min: number; max: number }; cutoffV?: number; cutoffCheck?: 'below-window' | 'in-window' | 'above-window'; perCell: { cutoffWindowV: { min: number; max: number } } };
-  const packOut = run<PackResults>(packCalculator, { chemistry: battery.chemistry, cells: battery.cells, ...(cutoffPerCellV !== undefined ? { cutoffPerCellV } : {}) });
+  type PackResults = {
+    chemistry: string;
+    cells: number;
+    fullV: number;
+    nominalV: number;
+    storageV: number | null;
+    cutoffWindowV: { min: number; max: number };
+    cutoffV?: number;
+    cutoffCheck?: 'below-window' | 'in-window' | 'above-window';
+    perCell: { cutoffWindowV: { min: number; max: number } };
+  };
+  const packOut = run<PackResults>(packCalculator, {
+    chemistry: battery.chemistry,
+    cells: battery.cells,
+    ...(cutoffPerCellV !== undefined ? { cutoffPerCellV } : {}),
+  });
   if (packOut) add('pack', packOut.warnings);
 
   let motorResult: SetupComputed['motor'] = null;
@@ -112,19 +129,29 @@ export function computeSetup(record: SetupRecord, opts: ComputeOptions = {}): Se
       add('speed', speedOut.warnings);
     }
   } else if (motor.kvRpmPerV === undefined) {
-    cautions.push({ level: 'info', code: 'no-kv', source: 'motor', message: 'No motor kV in this record, so no-load speed and top speed are not computed (a wind alone does not fix the kV).' });
+    cautions.push({
+      level: 'info',
+      code: 'no-kv',
+      source: 'motor',
+      message: 'No motor kV in this record, so no-load speed and top speed are not computed (a wind alone does not fix the kV).',
+    });
   }
 
   // Timing: in zero-timing mode the controller adds nothing, whatever its other timing values say.
   const zeroTimingMode = esc(record, 'zero-timing-mode') === 1;
-  const baseDeg = zeroTimingMode ? 0 : esc(record, 'static-timing') ?? 0;
-  const rampDeg = zeroTimingMode ? 0 : esc(record, 'ramped-advance') ?? 0;
+  const baseDeg = zeroTimingMode ? 0 : (esc(record, 'static-timing') ?? 0);
+  const rampDeg = zeroTimingMode ? 0 : (esc(record, 'ramped-advance') ?? 0);
   const stepDeg = zeroTimingMode ? 0 : esc(record, 'full-throttle-advance');
   let rampStartRpm = esc(record, 'ramp-start-rpm');
   let rampEndRpm = esc(record, 'ramp-end-rpm');
   let timingResult: SetupComputed['timing'] = null;
   if (rampDeg > 0 && (rampStartRpm === undefined || rampEndRpm === undefined)) {
-    cautions.push({ level: 'info', code: 'ramp-incomplete', source: 'timing', message: 'Ramped advance is set without both ramp start and ramp end speeds, so total timing is not computed.' });
+    cautions.push({
+      level: 'info',
+      code: 'ramp-incomplete',
+      source: 'timing',
+      message: 'Ramped advance is set without both ramp start and ramp end speeds, so total timing is not computed.',
+    });
   } else {
     if (rampDeg === 0 || rampStartRpm === undefined || rampEndRpm === undefined) {
       // With no ramp the speeds do not change the curve; any valid pair will do.
@@ -153,7 +180,10 @@ export function computeSetup(record: SetupRecord, opts: ComputeOptions = {}): Se
         maxCombinedDeg: timingOut.results.maxCombinedDeg ?? timingOut.results.maxTotalDeg,
         zeroTimingMode,
       };
-      add('timing', timingOut.warnings.filter((w) => w.code !== 'poles-assumed'));
+      add(
+        'timing',
+        timingOut.warnings.filter((w) => w.code !== 'poles-assumed'),
+      );
     }
   }
 
@@ -162,13 +192,19 @@ export function computeSetup(record: SetupRecord, opts: ComputeOptions = {}): Se
       level: 'caution',
       code: 'zero-timing-class',
       source: 'class',
-      message: "Stock touring runs to the zero-timing rule: the controller must be in zero-timing mode and add no electronic advance. Set zero-timing mode on (1) and check your class and sanctioning body's rules.",
+      message:
+        "Stock touring runs to the zero-timing rule: the controller must be in zero-timing mode and add no electronic advance. Set zero-timing mode on (1) and check your class and sanctioning body's rules.",
     });
   }
 
   return {
     gearing: gearingOut
-      ? { finalDriveRatio: gearingOut.results.finalDriveRatio, rolloutMm: gearingOut.results.rolloutMm, rolloutIn: gearingOut.results.rolloutIn, kmhPer1000Rpm: gearingOut.results.kmhPer1000Rpm }
+      ? {
+          finalDriveRatio: gearingOut.results.finalDriveRatio,
+          rolloutMm: gearingOut.results.rolloutMm,
+          rolloutIn: gearingOut.results.rolloutIn,
+          kmhPer1000Rpm: gearingOut.results.kmhPer1000Rpm,
+        }
       : null,
     pack: packOut
       ? {

@@ -27,17 +27,35 @@ export function setupIssuesFromZod(error: z.ZodError): SetupIssue[] {
 /** Validates an already-parsed object as a setup record (version 1 or 2) against the parameter library. */
 export function validateSetupObject(value: unknown, library: readonly SettingDefinition[]): SetupImportResult {
   if (value === null || typeof value !== 'object' || Array.isArray(value)) {
-    return { ok: false, status: 400, issues: [{ path: '(record)', message: 'A setup record is a JSON object with format, schemaVersion, vehicle, motor, escSettings, gearing, battery and conditions' }] };
+    return {
+      ok: false,
+      status: 400,
+      issues: [
+        {
+          path: '(record)',
+          message: 'A setup record is a JSON object with format, schemaVersion, vehicle, motor, escSettings, gearing, battery and conditions',
+        },
+      ],
+    };
   }
   const v = value as Record<string, unknown>;
   if (v.format !== undefined && v.format !== SETUP_FORMAT) {
-    return { ok: false, status: 400, issues: [{ path: 'format', message: `This is not a Tunewright setup record (format is ${JSON.stringify(v.format)}, expected "${SETUP_FORMAT}")` }] };
+    return {
+      ok: false,
+      status: 400,
+      issues: [{ path: 'format', message: `This is not a Tunewright setup record (format is ${JSON.stringify(v.format)}, expected "${SETUP_FORMAT}")` }],
+    };
   }
   if (v.schemaVersion !== undefined && !(SETUP_SCHEMA_VERSIONS as readonly unknown[]).includes(v.schemaVersion)) {
     return {
       ok: false,
       status: 400,
-      issues: [{ path: 'schemaVersion', message: `This file uses schema version ${JSON.stringify(v.schemaVersion)}; Tunewright reads versions ${SETUP_SCHEMA_VERSIONS.join(' and ')}. Export it again as version ${SETUP_SCHEMA_VERSION}.` }],
+      issues: [
+        {
+          path: 'schemaVersion',
+          message: `This file uses schema version ${JSON.stringify(v.schemaVersion)}; Tunewright reads versions ${SETUP_SCHEMA_VERSIONS.join(' and ')}. Export it again as version ${SETUP_SCHEMA_VERSION}.`,
+        },
+      ],
     };
   }
   const parsed = setupRecordSchema(library).safeParse(value);
@@ -58,12 +76,17 @@ export function parseSetupText(text: string, kind: 'json' | 'csv', library: read
     return validateSetupObject(value, library);
   }
   if (!looksLikeSetupCsv(body)) {
-    return { ok: false, status: 415, issues: [{ path: '(file)', message: 'This CSV is not in the Tunewright layout: the first row must be path,value,unit,source' }] };
+    return {
+      ok: false,
+      status: 415,
+      issues: [{ path: '(file)', message: 'This CSV is not in the Tunewright layout: the first row must be path,value,unit,source' }],
+    };
   }
   const { record, issues } = setupFromCsv(body);
   if (record.schemaVersion !== undefined && !(SETUP_SCHEMA_VERSIONS as readonly unknown[]).includes(record.schemaVersion))
     return validateSetupObject(record, library);
   const checked = validateSetupObject(record, library);
-  if (issues.length) return { ok: false, status: 400, issues: [...issues, ...(checked.ok ? [] : checked.issues.filter((i) => !issues.some((x) => x.path === i.path)))] };
+  if (issues.length)
+    return { ok: false, status: 400, issues: [...issues, ...(checked.ok ? [] : checked.issues.filter((i) => !issues.some((x) => x.path === i.path)))] };
   return checked;
 }

@@ -61,7 +61,11 @@ async function parseError(res: Response): Promise<ApiError> {
   } catch {
     /* not JSON */
   }
-  return new ApiError(res.status, res.status >= 500 ? 'internal_error' : 'http_error', res.status === 503 ? 'The service is unavailable right now. Try again in a moment.' : `Request failed (${res.status})`);
+  return new ApiError(
+    res.status,
+    res.status >= 500 ? 'internal_error' : 'http_error',
+    res.status === 503 ? 'The service is unavailable right now. Try again in a moment.' : `Request failed (${res.status})`,
+  );
 }
 
 async function request<T>(method: string, path: string, opts: Options = {}, retried = false): Promise<T> {

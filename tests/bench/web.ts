@@ -52,7 +52,12 @@ async function main() {
     const { launchBrowser } = await import('../setup/browser');
     const browser = await launchBrowser();
     cleanup.unshift(() => browser.close());
-    console.log(`[bench:web] load average at start: ${os.loadavg().map((l) => l.toFixed(2)).join(' ')} on ${os.cpus().length} cores`);
+    console.log(
+      `[bench:web] load average at start: ${os
+        .loadavg()
+        .map((l) => l.toFixed(2))
+        .join(' ')} on ${os.cpus().length} cores`,
+    );
 
     for (const target of PAGES) {
       const url = `${server.baseUrl}${target.path}`;
@@ -65,7 +70,12 @@ async function main() {
         const cdp = await context.newCDPSession(page);
         await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 });
         await cdp.send('Network.enable');
-        await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 150, downloadThroughput: (1.6e6 / 8) * 0.9, uploadThroughput: (0.75e6 / 8) * 0.9 });
+        await cdp.send('Network.emulateNetworkConditions', {
+          offline: false,
+          latency: 150,
+          downloadThroughput: (1.6e6 / 8) * 0.9,
+          uploadThroughput: (0.75e6 / 8) * 0.9,
+        });
         await page.addInitScript(() => {
           const w = window as unknown as { __lcp: number };
           w.__lcp = 0;
@@ -101,8 +111,11 @@ async function main() {
       const bad = jsKb > TARGET_JS_KB || lcpS > TARGET_LCP_S;
       over ||= bad;
       console.log(`\n[bench:web] ${target.name} page ${target.path}`);
-      for (const s of [...scripts].sort((a, b) => b.kb - a.kb).slice(0, 6)) console.log(`  ${s.kb.toFixed(1).padStart(7)} KB sent (${s.rawKb.toFixed(1)} KB unpacked)  ${s.url}`);
-      console.log(`  JavaScript as transferred: ${jsKb.toFixed(1)} KB in ${scripts.length} files (${jsRawKb.toFixed(1)} KB unpacked)   target ≤ ${TARGET_JS_KB} KB`);
+      for (const s of [...scripts].sort((a, b) => b.kb - a.kb).slice(0, 6))
+        console.log(`  ${s.kb.toFixed(1).padStart(7)} KB sent (${s.rawKb.toFixed(1)} KB unpacked)  ${s.url}`);
+      console.log(
+        `  JavaScript as transferred: ${jsKb.toFixed(1)} KB in ${scripts.length} files (${jsRawKb.toFixed(1)} KB unpacked)   target ≤ ${TARGET_JS_KB} KB`,
+      );
       console.log(`  Everything as transferred: ${totalKb.toFixed(1)} KB in ${transfers.length} requests (headers included)`);
       console.log(
         `  LCP, phone profile, median of ${RUNS}: ${lcpS.toFixed(2)} s (runs: ${lcps.map((l) => (l / 1000).toFixed(2)).join(', ')})   target ≤ ${TARGET_LCP_S.toFixed(1)} s   ${bad ? 'OVER' : 'OK'}`,

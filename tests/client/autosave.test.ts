@@ -1,5 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { clearLocalDraft, describeStatus, isUnsavedStatus, localDraftKey, readLocalDraft, sameContent, shouldOfferRestore, statusForError, writeLocalDraft } from '../../src/features/editor/lib/autosave';
+import {
+  clearLocalDraft,
+  describeStatus,
+  isUnsavedStatus,
+  localDraftKey,
+  readLocalDraft,
+  sameContent,
+  shouldOfferRestore,
+  statusForError,
+  writeLocalDraft,
+} from '../../src/features/editor/lib/autosave';
 
 function memoryStorage() {
   const m = new Map<string, string>();
@@ -38,7 +48,13 @@ describe('local draft storage', () => {
   });
 
   it('reports a storage that refuses to write', () => {
-    const full = { getItem: () => null, setItem: () => { throw new Error('QuotaExceededError'); }, removeItem: () => {} };
+    const full = {
+      getItem: () => null,
+      setItem: () => {
+        throw new Error('QuotaExceededError');
+      },
+      removeItem: () => {},
+    };
     expect(writeLocalDraft(full, 'k', { content: 1, editedAt: 1, savedAt: null })).toBe(false);
   });
 });
@@ -76,8 +92,14 @@ describe('save status', () => {
   it('treats an unreachable server as offline and a rejected field as kept locally', () => {
     expect(statusForError({ status: 0, code: 'network_error', message: 'x' })).toEqual({ kind: 'offline' });
     expect(statusForError({ status: 503, code: 'db_unavailable' })).toEqual({ kind: 'offline' });
-    expect(statusForError({ status: 400, code: 'validation_failed', message: 'Title too short' })).toEqual({ kind: 'local', message: 'Kept in this browser: Title too short' });
-    expect(statusForError({ status: 409, code: 'immutable_revision', message: 'A published revision never changes' })).toEqual({ kind: 'error', message: 'A published revision never changes' });
+    expect(statusForError({ status: 400, code: 'validation_failed', message: 'Title too short' })).toEqual({
+      kind: 'local',
+      message: 'Kept in this browser: Title too short',
+    });
+    expect(statusForError({ status: 409, code: 'immutable_revision', message: 'A published revision never changes' })).toEqual({
+      kind: 'error',
+      message: 'A published revision never changes',
+    });
   });
 
   it('reads as the status line shows it', () => {

@@ -109,7 +109,11 @@ describe('aroundChanges', () => {
   });
 
   it('leaves short stretches and a text without changes alone', () => {
-    expect(aroundChanges([{ value: 'a ' }, { value: 'b', added: true }, { value: ' c\nd' }])).toEqual([{ value: 'a ' }, { value: 'b', added: true }, { value: ' c\nd' }]);
+    expect(aroundChanges([{ value: 'a ' }, { value: 'b', added: true }, { value: ' c\nd' }])).toEqual([
+      { value: 'a ' },
+      { value: 'b', added: true },
+      { value: ' c\nd' },
+    ]);
     expect(aroundChanges([{ value: 'one\ntwo\nthree' }])).toEqual([{ value: 'one\ntwo\nthree' }]);
   });
 });

@@ -34,7 +34,18 @@ export async function waitSaved(page: Page, timeout = 20_000) {
 }
 
 /** One revision row as the database holds it, with its author's e-mail and its base's number. */
-export type RevisionRow = { id: string; number: number; state: string; authorEmail: string; baseRevisionId: string | null; baseNumber: number | null; note: string; reason: string | null; restoredFromNumber: number | null; content: Record<string, unknown> & { body: string } };
+export type RevisionRow = {
+  id: string;
+  number: number;
+  state: string;
+  authorEmail: string;
+  baseRevisionId: string | null;
+  baseNumber: number | null;
+  note: string;
+  reason: string | null;
+  restoredFromNumber: number | null;
+  content: Record<string, unknown> & { body: string };
+};
 
 /** Every revision of a document, oldest first, read straight from PostgreSQL (what the UI claims, checked at the source). */
 export async function revisionsOf(dataSource: DataSource, slug: string): Promise<RevisionRow[]> {
@@ -51,7 +62,10 @@ export async function revisionsOf(dataSource: DataSource, slug: string): Promise
 
 /** The document row of a slug: its live revision and hidden state. */
 export async function documentOf(dataSource: DataSource, slug: string) {
-  const [row] = await dataSource.query(`SELECT id, published_revision_id AS "publishedRevisionId", hidden_at AS "hiddenAt", hidden_reason AS "hiddenReason" FROM documents WHERE slug = $1`, [slug]);
+  const [row] = await dataSource.query(
+    `SELECT id, published_revision_id AS "publishedRevisionId", hidden_at AS "hiddenAt", hidden_reason AS "hiddenReason" FROM documents WHERE slug = $1`,
+    [slug],
+  );
   return row as { id: string; publishedRevisionId: string | null; hiddenAt: Date | null; hiddenReason: string | null };
 }
 

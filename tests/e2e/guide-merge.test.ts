@@ -61,7 +61,12 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     // Focus moved from the closed dialog to the top of the merge.
     await expect.poll(() => calum.evaluate(() => document.activeElement?.textContent)).toBe('Merge your draft with the live guide');
     // Nothing was lost or changed on the server by the refused submit.
-    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({ id: calumDraft.id, state: 'draft', baseRevisionId: liveBefore.publishedRevisionId, content: expect.objectContaining({ body: calumDraft.content.body }) });
+    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({
+      id: calumDraft.id,
+      state: 'draft',
+      baseRevisionId: liveBefore.publishedRevisionId,
+      content: expect.objectContaining({ body: calumDraft.content.body }),
+    });
 
     // What comes in from the live version is shown as a diff: Jonah's line is new, the old one struck through.
     const incoming = calum.getByRole('region', { name: 'What the live version brings into your draft' });
@@ -97,7 +102,11 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     expect(await dialog.getByLabel('Edit note').inputValue()).toBe('Lower motor-temperature line for the cold winter hall.');
     await dialog.getByRole('button', { name: 'Submit' }).click();
     await calum.waitForURL('**/me/revisions');
-    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({ id: calumDraft.id, state: 'in_review', baseRevisionId: liveAfter.publishedRevisionId });
+    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({
+      id: calumDraft.id,
+      state: 'in_review',
+      baseRevisionId: liveAfter.publishedRevisionId,
+    });
 
     expect(errors.flat()).toEqual([]);
   }, 180_000);
@@ -145,11 +154,18 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     const save = calum.getByRole('button', { name: 'Save the merged draft' });
     expect(await save.isDisabled()).toBe(true);
     await calum.getByText('4 left to decide').waitFor();
-    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({ state: 'draft', baseRevisionId: liveBefore.publishedRevisionId, content: expect.objectContaining({ body: calumDraft.content.body, summary: calumSummary }) });
+    expect(await proposalBy(slug, 'calum@tidewater.test')).toMatchObject({
+      state: 'draft',
+      baseRevisionId: liveBefore.publishedRevisionId,
+      content: expect.objectContaining({ body: calumDraft.content.body, summary: calumSummary }),
+    });
     await screenshot(calum, 'guides-merge-conflicts-phone');
 
     // The summary: keep mine.
-    await calum.getByRole('group', { name: 'Summary' }).getByRole('radio', { name: /Your draft/ }).check();
+    await calum
+      .getByRole('group', { name: 'Summary' })
+      .getByRole('radio', { name: /Your draft/ })
+      .check();
     // Passage 1: the live text; passage 2: mine; passage 3: combined by hand.
     await calum.getByRole('region', { name: 'Overlapping change 1', exact: true }).getByRole('button', { name: 'Keep the live text' }).click();
     await calum.getByRole('region', { name: 'Overlapping change 2', exact: true }).getByRole('button', { name: 'Keep my text' }).click();
@@ -160,7 +176,9 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     // Keep the live line and fold both limits into it; the draft's second line goes.
     const liveLine = (await combined.inputValue()).split('\n')[0];
     expect(liveLine).toContain('Under 70 °C after a race is fine for this setup');
-    await combined.fill(liveLine.replace('Under 70 °C after a race is fine for this setup', 'Under 75 °C after a race is fine on a cool morning, under 70 °C on a hot afternoon'));
+    await combined.fill(
+      liveLine.replace('Under 70 °C after a race is fine for this setup', 'Under 75 °C after a race is fine on a cool morning, under 70 °C on a hot afternoon'),
+    );
     await expect.poll(() => save.isDisabled()).toBe(false);
     expect(await calum.getByText(/left to decide/).count()).toBe(0);
     await calum.setViewportSize(VIEWPORTS.desktop);
@@ -177,7 +195,12 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     expect(body).not.toContain('soften the initial brake');
     expect(await calum.getByLabel('Summary').inputValue()).toBe(calumSummary);
     const merged = await proposalBy(slug, 'calum@tidewater.test');
-    expect(merged).toMatchObject({ id: calumDraft.id, state: 'draft', baseRevisionId: liveAfter.publishedRevisionId, content: expect.objectContaining({ body, summary: calumSummary }) });
+    expect(merged).toMatchObject({
+      id: calumDraft.id,
+      state: 'draft',
+      baseRevisionId: liveAfter.publishedRevisionId,
+      content: expect.objectContaining({ body, summary: calumSummary }),
+    });
 
     await calum.getByRole('button', { name: 'Submit for review' }).click();
     await calum.getByRole('dialog', { name: 'Submit for review' }).getByRole('button', { name: 'Submit' }).click();

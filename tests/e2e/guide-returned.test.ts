@@ -20,7 +20,8 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     const title = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
     const proposal = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.state === 'in_review')!;
     expect(proposal).toMatchObject({ authorEmail: 'rosa@tidewater.test', number: 4 });
-    const reason = 'The brake-curve example uses 15 % initial brake, but the checklist still says 10 %. Make them agree, and say which tyres the afternoon numbers were run on.';
+    const reason =
+      'The brake-curve example uses 15 % initial brake, but the checklist still says 10 %. Make them agree, and say which tyres the afternoon numbers were run on.';
 
     const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
@@ -56,7 +57,12 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await sentBack.getByText(title).waitFor();
     await sentBack.getByText(reason).waitFor();
     await sentBack.getByText('Sent back', { exact: true }).waitFor(); // the state badge, in our words
-    expect(await rosa.getByRole('region', { name: /Waiting for review/ }).getByText(title).count()).toBe(0);
+    expect(
+      await rosa
+        .getByRole('region', { name: /Waiting for review/ })
+        .getByText(title)
+        .count(),
+    ).toBe(0);
     await screenshot(rosa, 'guides-workbench-returned');
     expect(await seriousViolations(rosa)).toBe('');
     await rosa.setViewportSize(VIEWPORTS.phone);
@@ -89,7 +95,10 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await submit.getByLabel('Edit note').fill(`${proposal.note} Checklist now matches the brake-curve example; tyres named.`);
     await submit.getByRole('button', { name: 'Submit' }).click();
     await rosa.waitForURL('**/me/revisions');
-    await rosa.getByRole('region', { name: /Waiting for review/ }).getByText(title).waitFor();
+    await rosa
+      .getByRole('region', { name: /Waiting for review/ })
+      .getByText(title)
+      .waitFor();
     expect(await rosa.getByRole('region', { name: /Sent back to you/ }).count()).toBe(0);
     const resubmitted = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
     expect(resubmitted).toMatchObject({ state: 'in_review', reason: null });

@@ -27,7 +27,15 @@ async function apiAs(key: string) {
 
 beforeAll(async () => {
   const rosa = await apiAs('rosa');
-  const created = await rosa.post('/api/guides', { title: 'Corpus check on Harbour Flats carpet', summary: 'A guide body made of hostile markup, to check that none of it runs.', class: 'touring-mod', surface: 'carpet', tags: ['test'], parameters: [], body: BODY });
+  const created = await rosa.post('/api/guides', {
+    title: 'Corpus check on Harbour Flats carpet',
+    summary: 'A guide body made of hostile markup, to check that none of it runs.',
+    class: 'touring-mod',
+    surface: 'carpet',
+    tags: ['test'],
+    parameters: [],
+    body: BODY,
+  });
   expect(created.status).toBe(201);
   slug = created.body.data.guide.slug;
   revisionId = created.body.data.revision.id;
@@ -64,8 +72,13 @@ describe('XSS corpus through guide bodies, rendered in Chromium', () => {
   it('runs no script on the review page, where a moderator meets the proposal first', async () => {
     const owen = await signedInPage(suite.browser, suite.server.baseUrl, 'owen');
     const ctx = owen.context();
-    const page = await ctx.browser()!.newContext({ bypassCSP: true, storageState: await ctx.storageState() }).then((c) => c.newPage());
-    const result = await probe(page, `/review/${revisionId}`, 'Corpus check on Harbour Flats carpet', () => page.getByText('Read the proposal as readers would see it').click());
+    const page = await ctx
+      .browser()!
+      .newContext({ bypassCSP: true, storageState: await ctx.storageState() })
+      .then((c) => c.newPage());
+    const result = await probe(page, `/review/${revisionId}`, 'Corpus check on Harbour Flats carpet', () =>
+      page.getByText('Read the proposal as readers would see it').click(),
+    );
     await screenshot(page, 'guides-xss-review');
     expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${suite.server.baseUrl}/review/${revisionId}` });
     // Publish it so readers can reach it.

@@ -17,7 +17,20 @@ describe('Permissions-Policy in Chromium', () => {
     const allowed = await page.evaluate(() => {
       const policy = (document as unknown as { featurePolicy?: { allowsFeature: (f: string) => boolean; features: () => string[] } }).featurePolicy;
       if (!policy) return null;
-      const names = ['camera', 'microphone', 'geolocation', 'payment', 'usb', 'serial', 'hid', 'midi', 'display-capture', 'fullscreen', 'clipboard-read', 'clipboard-write'];
+      const names = [
+        'camera',
+        'microphone',
+        'geolocation',
+        'payment',
+        'usb',
+        'serial',
+        'hid',
+        'midi',
+        'display-capture',
+        'fullscreen',
+        'clipboard-read',
+        'clipboard-write',
+      ];
       return { byFeature: Object.fromEntries(names.map((f) => [f, policy.allowsFeature(f)])), known: policy.features() };
     });
     expect(allowed, 'document.featurePolicy is available in this Chromium').not.toBeNull();

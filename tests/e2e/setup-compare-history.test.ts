@@ -12,7 +12,9 @@ const suite = browserSuite();
 let titles: Record<string, string>;
 
 beforeAll(async () => {
-  const library = (await (await fetch(`${suite.server.baseUrl}/api/setups`)).json()) as { data: { baselines: Array<{ guideSlug: string; guideTitle: string; revisionNumber: number }> } };
+  const library = (await (await fetch(`${suite.server.baseUrl}/api/setups`)).json()) as {
+    data: { baselines: Array<{ guideSlug: string; guideTitle: string; revisionNumber: number }> };
+  };
   titles = Object.fromEntries(library.data.baselines.map((b) => [`guide:${b.guideSlug}`, `${b.guideTitle} (v${b.revisionNumber})`]));
 });
 
@@ -24,7 +26,13 @@ async function shown(page: Page) {
     const rpm = Number(q.get('rpm') || 20000);
     const table = document.querySelector('[data-testid="deltas-table"]');
     const pick = (name: string) => (document.querySelector(`select[name="${name}"]`) as HTMLSelectElement | null)?.value;
-    return !!table && table.textContent!.includes(`at ${rpm.toLocaleString('en-GB')} rpm`) && pick('a') === (q.get('a') ?? '') && pick('b') === (q.get('b') ?? '') && !document.body.textContent!.includes('Comparing…');
+    return (
+      !!table &&
+      table.textContent!.includes(`at ${rpm.toLocaleString('en-GB')} rpm`) &&
+      pick('a') === (q.get('a') ?? '') &&
+      pick('b') === (q.get('b') ?? '') &&
+      !document.body.textContent!.includes('Comparing…')
+    );
   });
   return {
     a: await page.getByLabel(/^A /).inputValue(),

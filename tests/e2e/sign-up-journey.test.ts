@@ -20,7 +20,10 @@ describe('sign-up journey in Chromium', () => {
     await page.getByLabel('Display name').fill('Harbour Newcomer');
     await page.getByLabel('Password').fill('password1234');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByText(/too easy to guess/i).first().waitFor();
+    await page
+      .getByText(/too easy to guess/i)
+      .first()
+      .waitFor();
     await screenshot(page, 'skeleton-sign-up-weak-password');
     await page.getByLabel('Password').fill(password);
     await page.getByRole('button', { name: 'Create account' }).click();

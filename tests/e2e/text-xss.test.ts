@@ -19,7 +19,16 @@ type Account = { email: string; password: string };
  * A page to check; `nextPage` clicks that button once (a paged table) and checks the page after it too;
  * `fullLoad` loads it afresh (the compare page keeps its own picks when only the URL changes).
  */
-type Visit = { place: string; who: Account | null; path: string; expectText: string[]; pieces: number; nextPage?: string; fullLoad?: boolean; /** The header's account link must carry this whole name as its accessible name. */ expectLabel?: string };
+type Visit = {
+  place: string;
+  who: Account | null;
+  path: string;
+  expectText: string[];
+  pieces: number;
+  nextPage?: string;
+  fullLoad?: boolean;
+  /** The header's account link must carry this whole name as its accessible name. */ expectLabel?: string;
+};
 
 const suite = browserSuite();
 const visits: Visit[] = [];
@@ -31,7 +40,7 @@ const demo = (key: string): Account => {
   return { email: a.email, password: a.password };
 };
 const piecesIn = (packs: string[]) => XSS_TEXT_CORPUS.filter((p) => packs.some((x) => x.includes(p))).length;
-const chunk = <T,>(xs: T[], n: number) => Array.from({ length: Math.ceil(xs.length / n) }, (_, i) => xs.slice(i * n, i * n + n));
+const chunk = <T>(xs: T[], n: number) => Array.from({ length: Math.ceil(xs.length / n) }, (_, i) => xs.slice(i * n, i * n + n));
 const pad = (i: number) => String(i).padStart(2, '0');
 
 async function apiClient(account: Account) {
@@ -72,7 +81,10 @@ beforeAll(async () => {
   const titles = packCorpus(T, 140, 'Corpus 00 '.length);
   const summaries = packCorpus(T, 500, 'Corpus summary 00: '.length);
   const conditions = packCorpus(T, 300);
-  const tagSets = chunk(T.filter((p) => p.length <= 40), 20);
+  const tagSets = chunk(
+    T.filter((p) => p.length <= 40),
+    20,
+  );
   const notes = packCorpus(T, 1000);
   const reasons = packCorpus(T, 2000);
   const guideCount = Math.max(titles.length, summaries.length, conditions.length, tagSets.length, notes.length + reasons.length);
@@ -84,7 +96,10 @@ beforeAll(async () => {
       conditions: conditions[i % conditions.length],
       tags: tagSets[i % tagSets.length],
     };
-    const created = await ok(rosa.post('/api/guides', { ...g, class: 'touring-mod', surface: 'carpet', parameters: [], body: 'Plain body for the text corpus check.' }), 201);
+    const created = await ok(
+      rosa.post('/api/guides', { ...g, class: 'touring-mod', surface: 'carpet', parameters: [], body: 'Plain body for the text corpus check.' }),
+      201,
+    );
     const id = created.data.revision!.id;
     await ok(rosa.post(`/api/revisions/${id}/submit`, { note: notes[i % notes.length] }));
     await ok(owen.post(`/api/reviews/${id}/publish`));
@@ -106,7 +121,18 @@ beforeAll(async () => {
   // Display names: one account per pack; each publishes an edit of one shared guide (byline, history)
   // and leaves another in review (queue).
   const names = packCorpus(T, 60);
-  const history = await ok(rosa.post('/api/guides', { title: 'Corpus history of many hands', summary: 'A guide edited by every hostile display name in turn.', class: 'touring-mod', surface: 'carpet', tags: [], parameters: [], body: 'History body.' }), 201);
+  const history = await ok(
+    rosa.post('/api/guides', {
+      title: 'Corpus history of many hands',
+      summary: 'A guide edited by every hostile display name in turn.',
+      class: 'touring-mod',
+      surface: 'carpet',
+      tags: [],
+      parameters: [],
+      body: 'History body.',
+    }),
+    201,
+  );
   const historySlug = history.data.guide!.slug;
   await ok(rosa.post(`/api/revisions/${history.data.revision!.id}/submit`, { note: 'First version' }));
   await ok(owen.post(`/api/reviews/${history.data.revision!.id}/publish`));
@@ -128,7 +154,10 @@ beforeAll(async () => {
 
   // Parameter proposals: name, aliases, summary, each on its own library entry.
   const paramNames = packCorpus(T, 80);
-  const aliasSets = chunk(T.filter((p) => p.length <= 60), 20);
+  const aliasSets = chunk(
+    T.filter((p) => p.length <= 60),
+    20,
+  );
   const paramSummaries = packCorpus(T, 400);
   const library = (await ok(rosa.get('/api/parameters'))).data as unknown as Array<{ slug: string }>;
   const proposalCount = Math.max(paramNames.length, aliasSets.length, paramSummaries.length);
@@ -151,7 +180,11 @@ beforeAll(async () => {
   for (let u = 0; u < uploadCount; u++) {
     const base = buildSetupRecord();
     const fields = { chassis: chassis[u % chassis.length], layout: layouts[u % layouts.length], notes: setupNotes[u % setupNotes.length] };
-    const record = buildSetupRecord({ vehicle: { ...base.vehicle, chassis: fields.chassis }, conditions: { ...base.conditions, layout: fields.layout }, notes: fields.notes });
+    const record = buildSetupRecord({
+      vehicle: { ...base.vehicle, chassis: fields.chassis },
+      conditions: { ...base.conditions, layout: fields.layout },
+      notes: fields.notes,
+    });
     const saved = await uploadSetup(rosa, fileNames[u] ?? `corpus-${pad(u)}.json`, record);
     uploads.push({ id: saved.id, label: saved.originalName, ...fields });
   }
@@ -173,29 +206,100 @@ beforeAll(async () => {
   // The pages, with the text each must show as written (proof the corpus reached it).
   const anon = null;
   const allTitles = guides.map((g) => g.title);
-  addVisit({ place: 'guide title/summary/tags: guides list', who: anon, path: '/guides?pageSize=100', expectText: [...allTitles, ...guides.map((g) => g.summary)], pieces: piecesIn(titles) });
-  for (const g of guides) addVisit({ place: 'guide title/summary/conditions/tags: guide page', who: anon, path: `/guides/${g.slug}`, expectText: [g.title, g.summary, g.conditions, ...g.tags], pieces: piecesIn([...titles, ...summaries, ...conditions, ...tagSets.flat()]) });
-  addVisit({ place: 'guide title/summary: search results', who: anon, path: '/search?q=Corpus', expectText: allTitles.slice(0, 3), pieces: piecesIn(titles.slice(0, 3)) });
-  for (const q of packCorpus(T, 200)) addVisit({ place: 'search query echo', who: anon, path: `/search?q=${encodeURIComponent(q)}`, expectText: [q], pieces: piecesIn(packCorpus(T, 200)) });
-  addVisit({ place: 'edit note + return reason: workbench', who: demo('rosa'), path: '/me/revisions', expectText: [...notes, ...reasons], pieces: piecesIn(notes) });
+  addVisit({
+    place: 'guide title/summary/tags: guides list',
+    who: anon,
+    path: '/guides?pageSize=100',
+    expectText: [...allTitles, ...guides.map((g) => g.summary)],
+    pieces: piecesIn(titles),
+  });
+  for (const g of guides)
+    addVisit({
+      place: 'guide title/summary/conditions/tags: guide page',
+      who: anon,
+      path: `/guides/${g.slug}`,
+      expectText: [g.title, g.summary, g.conditions, ...g.tags],
+      pieces: piecesIn([...titles, ...summaries, ...conditions, ...tagSets.flat()]),
+    });
+  addVisit({
+    place: 'guide title/summary: search results',
+    who: anon,
+    path: '/search?q=Corpus',
+    expectText: allTitles.slice(0, 3),
+    pieces: piecesIn(titles.slice(0, 3)),
+  });
+  for (const q of packCorpus(T, 200))
+    addVisit({ place: 'search query echo', who: anon, path: `/search?q=${encodeURIComponent(q)}`, expectText: [q], pieces: piecesIn(packCorpus(T, 200)) });
+  addVisit({
+    place: 'edit note + return reason: workbench',
+    who: demo('rosa'),
+    path: '/me/revisions',
+    expectText: [...notes, ...reasons],
+    pieces: piecesIn(notes),
+  });
   addVisit({ place: 'edit note + display name: review queue', who: demo('owen'), path: '/review', expectText: [...notes, ...names], pieces: piecesIn(notes) });
-  for (const id of openNoteIds) addVisit({ place: 'edit note: review page', who: demo('owen'), path: `/review/${id}`, expectText: [notes[openNoteIds.indexOf(id)]], pieces: piecesIn(notes) });
-  for (const p of proposals) addVisit({ place: 'parameter name/aliases/summary: review page', who: demo('owen'), path: `/review/${p.id}`, expectText: [p.name, p.summary, ...p.aliases], pieces: piecesIn([...paramNames, ...aliasSets.flat(), ...paramSummaries]) });
+  for (const id of openNoteIds)
+    addVisit({
+      place: 'edit note: review page',
+      who: demo('owen'),
+      path: `/review/${id}`,
+      expectText: [notes[openNoteIds.indexOf(id)]],
+      pieces: piecesIn(notes),
+    });
+  for (const p of proposals)
+    addVisit({
+      place: 'parameter name/aliases/summary: review page',
+      who: demo('owen'),
+      path: `/review/${p.id}`,
+      expectText: [p.name, p.summary, ...p.aliases],
+      pieces: piecesIn([...paramNames, ...aliasSets.flat(), ...paramSummaries]),
+    });
   addVisit({ place: 'display name: admin users table', who: demo('nell'), path: '/admin/users', expectText: names, pieces: piecesIn(names), nextPage: 'Next' });
   addVisit({ place: 'display name: guide byline/history', who: anon, path: `/guides/${historySlug}`, expectText: names, pieces: piecesIn(names) });
   // The header shows only the signed-in account's own name (its first word; the whole name is the link's
   // accessible name and tooltip), so each costs a full page load: a spread of six.
   const sample = [0, 1, 2, 3, 4, 5].map((i) => Math.round((i * (people.length - 1)) / 5));
-  for (const k of sample) addVisit({ place: 'display name: header', who: people[k], path: '/calculators', expectText: [firstName(names[k])], expectLabel: names[k], pieces: piecesIn(sample.map((i) => names[i])) });
+  for (const k of sample)
+    addVisit({
+      place: 'display name: header',
+      who: people[k],
+      path: '/calculators',
+      expectText: [firstName(names[k])],
+      expectLabel: names[k],
+      pieces: piecesIn(sample.map((i) => names[i])),
+    });
   addVisit({ place: 'setup file name: setup library', who: demo('rosa'), path: '/setups', expectText: uploads.map((u) => u.label), pieces: fileNames.length });
   for (let u = 0; u < uploads.length; u += 2) {
     const a = uploads[u];
     const b = uploads[u + 1] ?? uploads[0];
-    addVisit({ place: 'setup chassis/layout/notes/file name: compare page', who: demo('rosa'), path: `/setups/compare?a=${a.id}&b=${b.id}`, expectText: [a.chassis, b.chassis, a.layout, b.layout, a.notes, b.notes, a.label, b.label], pieces: piecesIn([...chassis, ...layouts, ...setupNotes]), fullLoad: true });
+    addVisit({
+      place: 'setup chassis/layout/notes/file name: compare page',
+      who: demo('rosa'),
+      path: `/setups/compare?a=${a.id}&b=${b.id}`,
+      expectText: [a.chassis, b.chassis, a.layout, b.layout, a.notes, b.notes, a.label, b.label],
+      pieces: piecesIn([...chassis, ...layouts, ...setupNotes]),
+      fullLoad: true,
+    });
   }
   addVisit({ place: 'motor label: motor register', who: demo('rosa'), path: '/motors', expectText: motors.map((m) => m.label), pieces: piecesIn(motorLabels) });
-  for (const m of motorPages) addVisit({ place: 'motor label/rotor notes/check notes: motor page', who: demo('rosa'), path: `/motors/${m.id}`, expectText: [m.label, m.rotorNotes, m.notes], pieces: piecesIn([...motorLabels, ...rotorNotes, ...checkNotes]), fullLoad: true });
-  for (const m of motors.slice(0, checkNotes.length)) addVisit({ place: 'motor label/check notes: bench sheet', who: demo('rosa'), path: `/motors/${m.id}/print`, expectText: [m.label, m.notes], pieces: piecesIn([...motorLabels, ...checkNotes]), fullLoad: true });
+  for (const m of motorPages)
+    addVisit({
+      place: 'motor label/rotor notes/check notes: motor page',
+      who: demo('rosa'),
+      path: `/motors/${m.id}`,
+      expectText: [m.label, m.rotorNotes, m.notes],
+      pieces: piecesIn([...motorLabels, ...rotorNotes, ...checkNotes]),
+      fullLoad: true,
+    });
+  for (const m of motors.slice(0, checkNotes.length))
+    addVisit({
+      place: 'motor label/check notes: bench sheet',
+      who: demo('rosa'),
+      path: `/motors/${m.id}/print`,
+      expectText: [m.label, m.notes],
+      pieces: piecesIn([...motorLabels, ...checkNotes]),
+      fullLoad: true,
+    });
 }, 120_000);
 
 /** One browser context per account, signed in through the API (the context shares its cookies). */
@@ -224,7 +328,11 @@ async function inspect(page: Page, v: Visit, dialogs: string[], text: string): P
   if (new URL(page.url()).pathname !== v.path.split('?')[0]) add(`navigated to ${page.url()}`);
   for (const x of v.expectText.filter((e) => !text.includes(e))) add(`not shown as text: ${x.slice(0, 60)}`);
   if (v.expectLabel) {
-    const label = await page.getByRole('banner').locator('a[href="/account"]').getAttribute('aria-label', { timeout: 2000 }).catch(() => null);
+    const label = await page
+      .getByRole('banner')
+      .locator('a[href="/account"]')
+      .getAttribute('aria-label', { timeout: 2000 })
+      .catch(() => null);
     if (label !== `${v.expectLabel}, your account`) add(`account link not named by the whole name: ${String(label).slice(0, 60)}`);
   }
   return findings;

@@ -13,7 +13,19 @@ export function guideInput(overrides: Record<string, unknown> = {}) {
     conditions: 'Indoor, high-bite clay, 18 to 21 °C air',
     tags: ['stock', 'indoor'],
     parameters: ['drag-brake', 'throttle-punch'],
-    body: ['## Gearing', '', 'Start with the gearing below.', '', '## Brake', '', 'Use a little drag brake for the hairpin.', '', '## Punch', '', 'Keep punch low on the high-bite surface.'].join('\n'),
+    body: [
+      '## Gearing',
+      '',
+      'Start with the gearing below.',
+      '',
+      '## Brake',
+      '',
+      'Use a little drag brake for the hairpin.',
+      '',
+      '## Punch',
+      '',
+      'Keep punch low on the high-bite surface.',
+    ].join('\n'),
     ...overrides,
   };
 }

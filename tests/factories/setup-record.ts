@@ -35,9 +35,17 @@ const decimal = (min: number, max: number, step = 0.5) => fc.integer({ min: Math
 export function setupRecordArbitrary(library: SettingDefinition[]): fc.Arbitrary<SetupRecord> {
   // Slugs with a field of their own (or bench readings) are refused inside escSettings.
   const usable = library.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD));
-  const esc = fc.subarray(usable, { maxLength: 8 }).chain((defs) =>
-    fc.tuple(...defs.map((d) => fc.integer({ min: 0, max: Math.round((d.range.max - d.range.min) / d.range.step) }).map((k) => ({ slug: d.slug, unit: d.unit, value: Number((d.range.min + k * d.range.step).toFixed(4)) })))),
-  );
+  const esc = fc
+    .subarray(usable, { maxLength: 8 })
+    .chain((defs) =>
+      fc.tuple(
+        ...defs.map((d) =>
+          fc
+            .integer({ min: 0, max: Math.round((d.range.max - d.range.min) / d.range.step) })
+            .map((k) => ({ slug: d.slug, unit: d.unit, value: Number((d.range.min + k * d.range.step).toFixed(4)) })),
+        ),
+      ),
+    );
   return fc
     .record({
       cls: fc.constantFrom(...CLASS_SLUGS),
@@ -74,7 +82,11 @@ export function setupRecordArbitrary(library: SettingDefinition[]): fc.Arbitrary
         escSettings: Object.fromEntries(r.esc.map((e) => [e.slug, { value: e.value, unit: e.unit }])),
         gearing: { spurTeeth: r.spur, pinionTeeth: r.pinion, internalRatio: Number(r.internal.toFixed(2)), tyreDiameterMm: Number(r.tyre.toFixed(1)) },
         battery: { chemistry: r.chemistry, cells: r.cells, ...(r.capacity !== undefined ? { capacityMah: r.capacity } : {}) },
-        conditions: { surface: r.surface, ...(r.layout !== undefined ? { layout: r.layout } : {}), ...(r.ambient !== undefined ? { ambientTempC: r.ambient } : {}) },
+        conditions: {
+          surface: r.surface,
+          ...(r.layout !== undefined ? { layout: r.layout } : {}),
+          ...(r.ambient !== undefined ? { ambientTempC: r.ambient } : {}),
+        },
       };
       if (r.notes !== undefined) record.notes = r.notes;
       return record;

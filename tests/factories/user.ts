@@ -8,7 +8,10 @@ import { createClient } from '../setup/test-app';
 export const STRONG_PASSWORD = 'tidal-gearbox-lantern-42';
 
 /** Inserts a verified account directly (fast path for tests that are not about sign-up). */
-export async function createUser(t: TestApp, overrides: Partial<{ email: string; displayName: string; role: Role; password: string; verified: boolean; disabled: boolean }> = {}) {
+export async function createUser(
+  t: TestApp,
+  overrides: Partial<{ email: string; displayName: string; role: Role; password: string; verified: boolean; disabled: boolean }> = {},
+) {
   const n = crypto.randomBytes(4).toString('hex');
   const password = overrides.password ?? STRONG_PASSWORD;
   const repo = t.db.dataSource.getRepository(UserEntity);

@@ -14,7 +14,13 @@ declare module 'autocannon' {
     '5xx': number;
     statusCodeStats: Record<string, { count: number }>;
   };
-  export type RequestSpec = { method?: string; path?: string; headers?: Record<string, string>; body?: string; setupRequest?: (req: RequestSpec) => RequestSpec };
+  export type RequestSpec = {
+    method?: string;
+    path?: string;
+    headers?: Record<string, string>;
+    body?: string;
+    setupRequest?: (req: RequestSpec) => RequestSpec;
+  };
   export type Options = {
     url: string;
     connections?: number;

@@ -64,16 +64,37 @@ function readTargets(guides: string[], parameters: string[]): { targets: ReadTar
   const notes: string[] = [];
   const targets: ReadTarget[] = [];
   const want = (name: string, weight: number, route: [string, string] | null, paths: string[]) => {
-    if (route && !hasRoute(routeTable, route[0], route[1])) return notes.push(`${name}: ${route[0].toUpperCase()} ${route[1]} is not in the route table yet; skipped`);
+    if (route && !hasRoute(routeTable, route[0], route[1]))
+      return notes.push(`${name}: ${route[0].toUpperCase()} ${route[1]} is not in the route table yet; skipped`);
     if (!paths.length) return notes.push(`${name}: nothing seeded to read; skipped`);
     targets.push({ name, weight, paths });
   };
-  want('GET /guides/:slug (page)', 15, null, guides.map((s) => `/guides/${s}`));
-  want('GET /api/guides/:slug', 20, ['get', '/api/guides/:slug'], guides.map((s) => `/api/guides/${s}`));
+  want(
+    'GET /guides/:slug (page)',
+    15,
+    null,
+    guides.map((s) => `/guides/${s}`),
+  );
+  want(
+    'GET /api/guides/:slug',
+    20,
+    ['get', '/api/guides/:slug'],
+    guides.map((s) => `/api/guides/${s}`),
+  );
   want('GET /api/parameters', 10, ['get', '/api/parameters'], ['/api/parameters']);
-  want('GET /api/parameters/:slug', 15, ['get', '/api/parameters/:slug'], parameters.map((s) => `/api/parameters/${s}`));
+  want(
+    'GET /api/parameters/:slug',
+    15,
+    ['get', '/api/parameters/:slug'],
+    parameters.map((s) => `/api/parameters/${s}`),
+  );
   const terms = ['punch', 'drag brake', 'clay', 'timing', 'gearing', 'brake', 'throttle curve', 'astroturf', 'temperature', 'soft start'];
-  want('GET /api/search?q=', 20, ['get', '/api/search'], terms.map((q) => `/api/search?q=${encodeURIComponent(q)}`));
+  want(
+    'GET /api/search?q=',
+    20,
+    ['get', '/api/search'],
+    terms.map((q) => `/api/search?q=${encodeURIComponent(q)}`),
+  );
   want('GET /api/health', 20, null, ['/api/health']);
   return { targets, notes };
 }
@@ -157,8 +178,12 @@ async function main() {
   apps = await Promise.all(Array.from({ length: INSTANCES }, () => startAppProcess(env, { readyTimeoutMs: 60_000 })));
   log(`${INSTANCES} production instance(s) on ${apps.map((a) => a.baseUrl).join(', ')} (setup ${((Date.now() - started) / 1000).toFixed(1)} s)`);
 
-  const guides = (await ds.query(`SELECT slug FROM documents WHERE kind = 'guide' AND published_revision_id IS NOT NULL AND hidden_at IS NULL ORDER BY slug`)).map((r: { slug: string }) => r.slug);
-  const parameters = (await ds.query(`SELECT slug FROM documents WHERE kind = 'parameter' AND published_revision_id IS NOT NULL AND hidden_at IS NULL ORDER BY slug`)).map((r: { slug: string }) => r.slug);
+  const guides = (
+    await ds.query(`SELECT slug FROM documents WHERE kind = 'guide' AND published_revision_id IS NOT NULL AND hidden_at IS NULL ORDER BY slug`)
+  ).map((r: { slug: string }) => r.slug);
+  const parameters = (
+    await ds.query(`SELECT slug FROM documents WHERE kind = 'parameter' AND published_revision_id IS NOT NULL AND hidden_at IS NULL ORDER BY slug`)
+  ).map((r: { slug: string }) => r.slug);
   const { targets, notes } = readTargets(guides, parameters);
   for (const n of notes) log(`note: ${n}`);
   const missingWrites = missingGuideSteps(routeTable, ['create', 'autosave', 'submit']);
@@ -219,7 +244,9 @@ async function main() {
     console.log(`${t.name.padEnd(32)} ${fmt(c)} ${fmt(rps)} ${fmt(p50)} ${fmt(p99)} ${fmt(ok)} ${fmt(non2xx)} ${fmt(five)} ${fmt(errors)}`);
   }
   const writeTotal = stats.ok + Object.values(stats.non2xx).reduce((a, b) => a + b, 0);
-  console.log(`writers (${WRITERS}): ${writeTotal} requests, ${(writeTotal / DURATION_S).toFixed(1)} req/s, ${stats.ok} 2xx, non-2xx ${JSON.stringify(stats.non2xx)}, ${stats.errors.length} socket errors`);
+  console.log(
+    `writers (${WRITERS}): ${writeTotal} requests, ${(writeTotal / DURATION_S).toFixed(1)} req/s, ${stats.ok} 2xx, non-2xx ${JSON.stringify(stats.non2xx)}, ${stats.errors.length} socket errors`,
+  );
 
   const guideRead = rpsPerConn.get('GET /api/guides/:slug') ?? rpsPerConn.get('GET /guides/:slug (page)');
   const health = rpsPerConn.get('GET /api/health');
@@ -240,15 +267,19 @@ async function main() {
     for (const e of expected) {
       const row = byId.get(e.revisionId);
       if (!row) problems.push(`revision ${e.revisionId} acknowledged but missing`);
-      else if (row.title !== e.title || row.body !== e.body || row.state !== e.state || row.author_id !== e.authorId) problems.push(`revision ${e.revisionId} differs: ${JSON.stringify({ row, e })}`);
+      else if (row.title !== e.title || row.body !== e.body || row.state !== e.state || row.author_id !== e.authorId)
+        problems.push(`revision ${e.revisionId} differs: ${JSON.stringify({ row, e })}`);
     }
     const [{ n }] = await ds.query(`SELECT count(*)::int AS n FROM revisions WHERE author_id = ANY($1::uuid[])`, [writers.map((w) => w.id)]);
     if (n !== expected.length) problems.push(`writers own ${n} revisions but ${expected.length} creations were acknowledged`);
-    console.log(`durability: ${expected.length} drafts acknowledged (${expected.filter((e) => e.state === 'in_review').length} submitted), ${rows.length} found with matching content`);
+    console.log(
+      `durability: ${expected.length} drafts acknowledged (${expected.filter((e) => e.state === 'in_review').length} submitted), ${rows.length} found with matching content`,
+    );
   } else {
     for (const [i, w] of writers.entries()) {
       const [row] = await ds.query(`SELECT display_name FROM users WHERE id = $1`, [w.id]);
-      if (lastNames[i] && row.display_name !== lastNames[i]) problems.push(`writer ${i}: database has "${row.display_name}", last acknowledged "${lastNames[i]}"`);
+      if (lastNames[i] && row.display_name !== lastNames[i])
+        problems.push(`writer ${i}: database has "${row.display_name}", last acknowledged "${lastNames[i]}"`);
     }
     console.log(`durability: ${writers.length} writers' last acknowledged display names checked in the database`);
   }

@@ -88,7 +88,11 @@ describe('POST /api/auth/sign-in: per-account limit', () => {
     const locked = await signIn(user.email, wrong);
     expect(locked.status).toBe(429);
     expect(Object.keys(locked.body)).toEqual(['error']);
-    expect(locked.body.error).toEqual({ code: 'sign_in_throttled', message: expect.stringMatching(/^Too many sign-in attempts for this e-mail address\. Wait 15 minutes .*reset your password/), details: { retryAfterSeconds: expect.any(Number) } });
+    expect(locked.body.error).toEqual({
+      code: 'sign_in_throttled',
+      message: expect.stringMatching(/^Too many sign-in attempts for this e-mail address\. Wait 15 minutes .*reset your password/),
+      details: { retryAfterSeconds: expect.any(Number) },
+    });
     const retry = Number(locked.headers['retry-after']);
     expect(retry).toBeGreaterThan(14 * 60);
     expect(retry).toBeLessThanOrEqual(15 * 60);

@@ -13,7 +13,13 @@ afterAll(async () => {
 });
 
 const openApiPath = (p: string) => p.replace(/:([A-Za-z0-9_]+)/g, '{$1}');
-const unescape = (html: string) => html.replace(/&#39;/g, "'").replace(/&quot;/g, '"').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+const unescape = (html: string) =>
+  html
+    .replace(/&#39;/g, "'")
+    .replace(/&quot;/g, '"')
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&amp;/g, '&');
 
 describe('GET /api/docs', () => {
   it('lists every route of the table with method, path, summary, access and its fields', async () => {
@@ -25,7 +31,8 @@ describe('GET /api/docs', () => {
       const heading = `${route.method.toUpperCase()}</span> <code>${openApiPath(route.path)}</code>`;
       expect(html, `${route.method} ${route.path}`).toContain(heading);
       expect(html).toContain(route.summary);
-      for (const field of [...fieldNames(route.body), ...fieldNames(route.query)]) expect(html, `${route.path} field ${field}`).toContain(`<code>${field}</code>`);
+      for (const field of [...fieldNames(route.body), ...fieldNames(route.query)])
+        expect(html, `${route.path} field ${field}`).toContain(`<code>${field}</code>`);
     }
     expect(html).toContain('admin or above');
     expect(html).toContain('x-csrf-token');

@@ -42,8 +42,16 @@ describe('POST /api/auth/sign-up', () => {
   it('answers a taken address exactly as a new one, changes nothing, and tells the owner instead', async () => {
     const { user } = await createUser(t);
     const before = await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ id: user.id });
-    const res = await createClient(t.app).post('/api/auth/sign-up', { email: user.email.toUpperCase(), displayName: 'Again <a href=x>', password: STRONG_PASSWORD });
-    const fresh = await createClient(t.app).post('/api/auth/sign-up', { email: 'someone-else@tidewater.test', displayName: 'Again', password: STRONG_PASSWORD });
+    const res = await createClient(t.app).post('/api/auth/sign-up', {
+      email: user.email.toUpperCase(),
+      displayName: 'Again <a href=x>',
+      password: STRONG_PASSWORD,
+    });
+    const fresh = await createClient(t.app).post('/api/auth/sign-up', {
+      email: 'someone-else@tidewater.test',
+      displayName: 'Again',
+      password: STRONG_PASSWORD,
+    });
     expect(res.status).toBe(fresh.status);
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ data: { email: user.email, sent: true } });
@@ -205,7 +213,10 @@ describe('errors', () => {
     const text = await client.agent.post('/api/auth/sign-in').set('x-csrf-token', token).set('Content-Type', 'text/plain').send('email=a');
     expect(text.status).toBe(415);
     expect(text.body.error.code).toBe('unsupported_media_type');
-    const huge = await client.agent.post('/api/auth/sign-in').set('x-csrf-token', token).send({ email: 'a@b.test', password: 'x'.repeat(600 * 1024) });
+    const huge = await client.agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', token)
+      .send({ email: 'a@b.test', password: 'x'.repeat(600 * 1024) });
     expect(huge.status).toBe(413);
     expect(huge.body.error.code).toBe('payload_too_large');
   });

@@ -88,7 +88,13 @@ describe('authorization matrix (every guarded route × visitor/member/moderator/
 // ---------------------------------------------------------------------------------------------------
 
 type Who = 'visitor' | 'owner' | 'stranger' | 'moderator' | 'admin';
-type World = { owner: { client: TestClient; user: UserEntity; password: string }; stranger: { client: TestClient; user: UserEntity }; moderator: TestClient; admin: TestClient; visitor: TestClient };
+type World = {
+  owner: { client: TestClient; user: UserEntity; password: string };
+  stranger: { client: TestClient; user: UserEntity };
+  moderator: TestClient;
+  admin: TestClient;
+  visitor: TestClient;
+};
 type Arranged = {
   method: RouteDef['method'];
   url: string;
@@ -124,15 +130,26 @@ const MISSING = '00000000-0000-4000-8000-000000000000';
 function refusals(route: RouteDef): Partial<Record<Who, Expect>> {
   const rule = route.owner!;
   const signIn: Partial<Record<Who, Expect>> = route.access === 'public' ? {} : { visitor: err(401, 'unauthenticated') };
-  const gate = (who: Role): Expect | undefined => (route.access !== 'public' && ROLE_RANK[who] < ROLE_RANK[route.access as Role] ? err(403, 'role_required') : undefined);
+  const gate = (who: Role): Expect | undefined =>
+    route.access !== 'public' && ROLE_RANK[who] < ROLE_RANK[route.access as Role] ? err(403, 'role_required') : undefined;
   const below = Object.fromEntries((['member', 'moderator'] as const).flatMap((r) => (gate(r) ? [[r === 'member' ? 'stranger' : 'moderator', gate(r)!]] : [])));
   const key = `${rule.resource}:${rule.rule}`;
   const byRule: Record<string, Partial<Record<Who, Expect>>> = {
     'revision:owner': { stranger: err(404, 'not_found'), moderator: err(403, 'not_own_revision'), admin: err(403, 'not_own_revision') },
     'revision:owner-or-moderator': { stranger: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
     'revision:not-owner': { owner: err(403, 'own_revision') },
-    'setup-upload:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
-    'run:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found'), ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}) },
+    'setup-upload:owner': {
+      stranger: err(404, 'not_found'),
+      moderator: err(404, 'not_found'),
+      admin: err(404, 'not_found'),
+      ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}),
+    },
+    'run:owner': {
+      stranger: err(404, 'not_found'),
+      moderator: err(404, 'not_found'),
+      admin: err(404, 'not_found'),
+      ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}),
+    },
     'account:not-owner': { owner: err(409, 'cannot_change_self') },
     'motor:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found') },
   };
@@ -146,7 +163,10 @@ const label = (r: RouteDef) => `${r.method.toUpperCase()} ${r.path}`;
 async function uploadSetup(client: TestClient, name: string) {
   const token = (await client.agent.get('/api/csrf')).body.data.token as string;
   const body = JSON.stringify(buildSetupRecord({ notes: `Uploaded as ${name}` }));
-  const res = await client.agent.post('/api/setups').set('x-csrf-token', token).attach('file', Buffer.from(body), { filename: name, contentType: 'application/json' });
+  const res = await client.agent
+    .post('/api/setups')
+    .set('x-csrf-token', token)
+    .attach('file', Buffer.from(body), { filename: name, contentType: 'application/json' });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return { id: res.body.data.id as string, body };
 }
@@ -181,7 +201,11 @@ function documentScenarios(kind: 'guides' | 'parameters'): Record<string, Scenar
     const rev = await proposeEdit(w.owner.client, 'drag-brake', { note: 'Clearer words for the hairpin' }, 'parameters');
     return { slug: 'drag-brake', number: rev.number, id: rev.id };
   };
-  const listed = (seen: boolean) => (res: Response, a: Arranged) => expect((res.body.data as Array<{ id: string }>).some((r) => r.id === a.id), seen ? 'listed' : 'left out').toBe(seen);
+  const listed = (seen: boolean) => (res: Response, a: Arranged) =>
+    expect(
+      (res.body.data as Array<{ id: string }>).some((r) => r.id === a.id),
+      seen ? 'listed' : 'left out',
+    ).toBe(seen);
   const permalink = (res: Response, a: Arranged) => expect(res.body.data.revision.id).toBe(a.id);
   return {
     [`GET /api/${kind}/:slug/revisions`]: [
@@ -225,9 +249,18 @@ function documentScenarios(kind: 'guides' | 'parameters'): Record<string, Scenar
             draftNumber = rev.number;
             live = (await clients.visitor.get(`/api/parameters/${slug}/revisions`)).body.data.find((r: { state: string }) => r.state === 'published').number;
           }
-          return { method: 'get', url: `/api/${kind}/${slug}/compare?from=${live}&to=${draftNumber}`, missingUrl: `/api/${kind}/${slug}/compare?from=${live}&to=9999` };
+          return {
+            method: 'get',
+            url: `/api/${kind}/${slug}/compare?from=${live}&to=${draftNumber}`,
+            missingUrl: `/api/${kind}/${slug}/compare?from=${live}&to=9999`,
+          };
         },
-        expect: Object.fromEntries((['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res) => expect(res.body.data.changedFields.map((f: { field: string }) => f.field)).toContain('summary'))])),
+        expect: Object.fromEntries(
+          (['owner', 'moderator', 'admin'] as const).map((who) => [
+            who,
+            ok((res) => expect(res.body.data.changedFields.map((f: { field: string }) => f.field)).toContain('summary')),
+          ]),
+        ),
       },
     ],
   };
@@ -271,7 +304,13 @@ const scenarios: Record<string, Scenario[]> = {
       label: "the owner's draft sent for review",
       arrange: async (w) => {
         const { revision } = await createDraftGuide(w.owner.client);
-        return { method: 'post', url: `/api/revisions/${revision.id}/submit`, body: { note: 'Ready for review' }, id: revision.id, snapshot: revisionOf(w, revision.id) };
+        return {
+          method: 'post',
+          url: `/api/revisions/${revision.id}/submit`,
+          body: { note: 'Ready for review' },
+          id: revision.id,
+          snapshot: revisionOf(w, revision.id),
+        };
       },
       expect: { owner: ok(isRevision('in_review')) },
     },
@@ -302,7 +341,13 @@ const scenarios: Record<string, Scenario[]> = {
       label: "a baseline attached to the owner's draft",
       arrange: async (w) => {
         const { revision } = await createDraftGuide(w.owner.client);
-        return { method: 'put', url: `/api/revisions/${revision.id}/setup`, body: buildSetupRecord({ notes: 'Owner baseline' }), id: revision.id, snapshot: revisionOf(w, revision.id) };
+        return {
+          method: 'put',
+          url: `/api/revisions/${revision.id}/setup`,
+          body: buildSetupRecord({ notes: 'Owner baseline' }),
+          id: revision.id,
+          snapshot: revisionOf(w, revision.id),
+        };
       },
       expect: { owner: ok((res) => expect(res.body.data.notes).toBe('Owner baseline')) },
     },
@@ -323,7 +368,9 @@ const scenarios: Record<string, Scenario[]> = {
         expect((await w.owner.client.put(`/api/revisions/${revision.id}/setup`, buildSetupRecord())).status).toBe(200);
         return { method: 'delete', url: `/api/revisions/${revision.id}/setup`, id: revision.id, snapshot: revisionOf(w, revision.id) };
       },
-      expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}`)).body.data.revision.setup).toBeNull() } },
+      expect: {
+        owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}`)).body.data.revision.setup).toBeNull() },
+      },
     },
   ],
   'GET /api/me/revisions': [
@@ -334,7 +381,15 @@ const scenarios: Record<string, Scenario[]> = {
         return { method: 'get', url: '/api/me/revisions', id: revision.id };
       },
       expect: Object.fromEntries(
-        (['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [who, ok((res, a) => expect((res.body.data as Array<{ id: string }>).some((r) => r.id === a.id), who).toBe(who === 'owner'))]),
+        (['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [
+          who,
+          ok((res, a) =>
+            expect(
+              (res.body.data as Array<{ id: string }>).some((r) => r.id === a.id),
+              who,
+            ).toBe(who === 'owner'),
+          ),
+        ]),
       ),
     },
   ],
@@ -360,7 +415,12 @@ const scenarios: Record<string, Scenario[]> = {
       ownerRole: 'moderator',
       arrange: async (w) => ({ method: 'get', url: '/api/reviews', id: await submitted(w) }),
       expect: Object.fromEntries(
-        (['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res, a) => expect((res.body.data as Array<{ revisionId: string; own: boolean }>).find((i) => i.revisionId === a.id)?.own, who).toBe(who === 'owner'))]),
+        (['owner', 'moderator', 'admin'] as const).map((who) => [
+          who,
+          ok((res, a) =>
+            expect((res.body.data as Array<{ revisionId: string; own: boolean }>).find((i) => i.revisionId === a.id)?.own, who).toBe(who === 'owner'),
+          ),
+        ]),
       ),
     },
   ],
@@ -372,7 +432,9 @@ const scenarios: Record<string, Scenario[]> = {
         const id = await submitted(w);
         return { method: 'get', url: `/api/reviews/${id}`, id };
       },
-      expect: Object.fromEntries((['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res) => expect(res.body.data.own, who).toBe(who === 'owner'))])),
+      expect: Object.fromEntries(
+        (['owner', 'moderator', 'admin'] as const).map((who) => [who, ok((res) => expect(res.body.data.own, who).toBe(who === 'owner'))]),
+      ),
     },
   ],
   'POST /api/reviews/:revisionId/publish': [
@@ -402,7 +464,15 @@ const scenarios: Record<string, Scenario[]> = {
       label: "each caller's own uploads only",
       arrange: async (w) => ({ method: 'get', url: '/api/setups', id: (await uploadSetup(w.owner.client, 'owner-library.json')).id }),
       expect: Object.fromEntries(
-        (['owner', 'stranger', 'moderator', 'admin', 'visitor'] as const).map((who) => [who, ok((res, a) => expect((res.body.data.uploads as Array<{ id: string }>).some((u) => u.id === a.id), who).toBe(who === 'owner'))]),
+        (['owner', 'stranger', 'moderator', 'admin', 'visitor'] as const).map((who) => [
+          who,
+          ok((res, a) =>
+            expect(
+              (res.body.data.uploads as Array<{ id: string }>).some((u) => u.id === a.id),
+              who,
+            ).toBe(who === 'owner'),
+          ),
+        ]),
       ),
     },
   ],
@@ -451,7 +521,17 @@ const scenarios: Record<string, Scenario[]> = {
       label: "each caller's own runs only",
       arrange: async (w) => ({ method: 'get', url: '/api/runs', id: await uploadRun(w.owner.client, { name: 'owner-list.csv' }) }),
       expect: {
-        ...Object.fromEntries((['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [who, ok((res, a) => expect((res.body.data as Array<{ id: string }>).some((r) => r.id === a.id), who).toBe(who === 'owner'))])),
+        ...Object.fromEntries(
+          (['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [
+            who,
+            ok((res, a) =>
+              expect(
+                (res.body.data as Array<{ id: string }>).some((r) => r.id === a.id),
+                who,
+              ).toBe(who === 'owner'),
+            ),
+          ]),
+        ),
         visitor: err(401, 'unauthenticated'),
       },
     },
@@ -514,7 +594,12 @@ const scenarios: Record<string, Scenario[]> = {
       arrange: async (w) => {
         const { revision } = await createDraftGuide(w.owner.client);
         const run = await uploadRun(w.owner.client);
-        return { method: 'put', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+        return {
+          method: 'put',
+          url: `/api/revisions/${revision.id}/runs/${run}`,
+          id: revision.id,
+          snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body,
+        };
       },
       expect: { owner: ok((res) => expect(res.body.data.length).toBe(1)) },
     },
@@ -526,7 +611,12 @@ const scenarios: Record<string, Scenario[]> = {
         const { revision } = await createDraftGuide(w.owner.client);
         const run = await uploadRun(w.owner.client);
         expect((await w.owner.client.put(`/api/revisions/${revision.id}/runs/${run}`)).status).toBe(200);
-        return { method: 'delete', url: `/api/revisions/${revision.id}/runs/${run}`, id: revision.id, snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body };
+        return {
+          method: 'delete',
+          url: `/api/revisions/${revision.id}/runs/${run}`,
+          id: revision.id,
+          snapshot: async () => (await w.owner.client.get(`/api/revisions/${revision.id}/runs`)).body,
+        };
       },
       expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}/runs`)).body.data).toEqual([]) } },
     },
@@ -536,7 +626,9 @@ const scenarios: Record<string, Scenario[]> = {
       label: 'each caller sees their own account',
       arrange: async () => ({ method: 'get', url: '/api/auth/me' }),
       expect: {
-        ...Object.fromEntries((['owner', 'stranger'] as const).map((who) => [who, ok((res, _a, w) => expect(res.body.data.user.id, who).toBe(w[who].user.id))])),
+        ...Object.fromEntries(
+          (['owner', 'stranger'] as const).map((who) => [who, ok((res, _a, w) => expect(res.body.data.user.id, who).toBe(w[who].user.id))]),
+        ),
         moderator: ok((res) => expect(res.body.data.user.id).toBe(accounts.moderator.id)),
         visitor: ok((res) => expect(res.body.data.user).toBeNull()),
       },
@@ -558,7 +650,12 @@ const scenarios: Record<string, Scenario[]> = {
     {
       // No id in the route; naming the owner's id in the body changes nothing but the caller's own name.
       label: "a body naming the owner's id changes only the caller",
-      arrange: async (w) => ({ method: 'patch', url: '/api/account', body: { displayName: 'Renamed Racer', id: w.owner.user.id }, snapshot: userRow(w.owner.user.id) }),
+      arrange: async (w) => ({
+        method: 'patch',
+        url: '/api/account',
+        body: { displayName: 'Renamed Racer', id: w.owner.user.id },
+        snapshot: userRow(w.owner.user.id),
+      }),
       expect: {
         stranger: ok((res, _a, w) => expect(res.body.data.user).toMatchObject({ id: w.stranger.user.id, displayName: 'Renamed Racer' })),
         owner: ok((res, _a, w) => expect(res.body.data.user).toMatchObject({ id: w.owner.user.id, displayName: 'Renamed Racer' })),
@@ -569,9 +666,18 @@ const scenarios: Record<string, Scenario[]> = {
   'POST /api/account/password': [
     {
       label: "the owner's current password is no key to anyone else's account",
-      arrange: async (w) => ({ method: 'post', url: '/api/account/password', body: { currentPassword: w.owner.password, newPassword: 'harbour-lantern-pinion-93' }, snapshot: userRow(w.owner.user.id) }),
+      arrange: async (w) => ({
+        method: 'post',
+        url: '/api/account/password',
+        body: { currentPassword: w.owner.password, newPassword: 'harbour-lantern-pinion-93' },
+        snapshot: userRow(w.owner.user.id),
+      }),
       expect: {
-        stranger: { status: 400, code: 'validation_failed', check: (res) => expect(res.body.error.details).toEqual([{ path: 'body.currentPassword', message: 'That is not your current password' }]) },
+        stranger: {
+          status: 400,
+          code: 'validation_failed',
+          check: (res) => expect(res.body.error.details).toEqual([{ path: 'body.currentPassword', message: 'That is not your current password' }]),
+        },
         moderator: { status: 400, code: 'validation_failed' },
         owner: ok(async (res, _a, w) => {
           expect(res.body.data.user.id).toBe(w.owner.user.id);
@@ -597,7 +703,8 @@ function expectError(res: Response, status: number, code: string, who: string) {
   const { details, ...rest } = res.body.error ?? {};
   expect(rest, who).toEqual({ code, message: expect.any(String) });
   expect(rest.message.length, who).toBeGreaterThan(0);
-  if (code === 'validation_failed') expect(details, who).toEqual(expect.arrayContaining([expect.objectContaining({ path: expect.any(String), message: expect.any(String) })]));
+  if (code === 'validation_failed')
+    expect(details, who).toEqual(expect.arrayContaining([expect.objectContaining({ path: expect.any(String), message: expect.any(String) })]));
   else expect(details, who).toBeUndefined();
   expect(Object.keys(res.body), who).toEqual(['error']);
 }
@@ -617,7 +724,13 @@ async function world(ownerRole: Role = 'member'): Promise<World> {
   expect(signedIn.status).toBe(200);
   owner.resetCsrf();
   // A fresh visitor too: signing out as one would drop the shared visitor's CSRF token.
-  return { owner: { client: owner, user, password }, stranger: await signedInClient(t, 'member'), moderator: clients.moderator, admin: clients.admin, visitor: createClient(t.app) };
+  return {
+    owner: { client: owner, user, password },
+    stranger: await signedInClient(t, 'member'),
+    moderator: clients.moderator,
+    admin: clients.admin,
+    visitor: createClient(t.app),
+  };
 }
 
 describe('authorization matrix: owner vs not owner (every route with an ownership rule)', () => {

@@ -20,7 +20,11 @@ const backups = path.join(work, 'backups');
 const restoredDb = `tw_restored_${crypto.randomBytes(4).toString('hex')}`;
 
 function cli(script: string, args: string[], env: Record<string, string>) {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', path.join('server', 'bin', script), ...args], { encoding: 'utf8', env: { ...process.env, ...env }, timeout: 60_000 });
+  const r = spawnSync(process.execPath, ['--import', 'tsx', path.join('server', 'bin', script), ...args], {
+    encoding: 'utf8',
+    env: { ...process.env, ...env },
+    timeout: 60_000,
+  });
   return { code: r.status, out: `${r.stdout}${r.stderr}` };
 }
 
@@ -36,10 +40,15 @@ async function query<T = Record<string, unknown>>(url: string, sql: string): Pro
 
 /** Per table: row count and a digest of every row's content, in a stable order. */
 async function fingerprint(url: string) {
-  const tables = (await query<{ tablename: string }>(url, `SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`)).map((r) => r.tablename);
+  const tables = (await query<{ tablename: string }>(url, `SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`)).map(
+    (r) => r.tablename,
+  );
   const out: Record<string, { rows: number; digest: string }> = {};
   for (const t of tables) {
-    const [row] = await query<{ rows: string; digest: string }>(url, `SELECT count(*) AS rows, md5(coalesce(string_agg(x::text, E'\\n' ORDER BY x::text), '')) AS digest FROM "${t}" x`);
+    const [row] = await query<{ rows: string; digest: string }>(
+      url,
+      `SELECT count(*) AS rows, md5(coalesce(string_agg(x::text, E'\\n' ORDER BY x::text), '')) AS digest FROM "${t}" x`,
+    );
     out[t] = { rows: Number(row.rows), digest: row.digest };
   }
   return out;

@@ -18,7 +18,9 @@ describe('development helpers fail closed', () => {
       const config = loadConfig({ ...BASE, NODE_ENV });
       expect(config.sessionSecret).toBe(DEV_SESSION_SECRET);
       expect(() => assertServeable(config), NODE_ENV).toThrow(/SESSION_SECRET/);
-      expect(() => assertServeable(loadConfig({ ...BASE, NODE_ENV, SESSION_SECRET: DEV_SESSION_SECRET })), `${NODE_ENV}, secret given`).toThrow(/SESSION_SECRET/);
+      expect(() => assertServeable(loadConfig({ ...BASE, NODE_ENV, SESSION_SECRET: DEV_SESSION_SECRET })), `${NODE_ENV}, secret given`).toThrow(
+        /SESSION_SECRET/,
+      );
     }
     expect(() => assertServeable(loadConfig({ ...BASE, DEV_TOOLS: 'true' }))).not.toThrow();
     expect(() => assertServeable(loadConfig({ ...BASE, SESSION_SECRET: 'a-real-secret-of-some-length' }))).not.toThrow();

@@ -23,7 +23,8 @@ afterAll(async () => {
 });
 
 const mutating = routeTable.filter((r) => isMutating(r.method));
-const concrete = (path: string) => path.replace(/:([A-Za-z0-9_]+)/g, (_m, name: string) => (/id$/i.test(name) ? '00000000-0000-4000-8000-000000000000' : name === 'n' ? '1' : 'drag-brake'));
+const concrete = (path: string) =>
+  path.replace(/:([A-Za-z0-9_]+)/g, (_m, name: string) => (/id$/i.test(name) ? '00000000-0000-4000-8000-000000000000' : name === 'n' ? '1' : 'drag-brake'));
 
 function send(client: TestClient | null, route: RouteDef, token?: string) {
   const agent = client ? client.agent : request(t.app);
@@ -54,7 +55,9 @@ describe('CSRF on every state-changing route', () => {
       expectRefused(await send(member, route, otherToken), "member with another session's token");
       expectRefused(await send(member, route, ''), 'member with an empty token');
       // Control: with the right token the request gets past the check (whatever the handler then says).
-      const ok = await (route.multipart ? member.agent[route.method](concrete(route.path)).set('x-csrf-token', await member.get('/api/csrf').then((r) => r.body.data.token)) : member[route.method](concrete(route.path), {}));
+      const ok = await (route.multipart
+        ? member.agent[route.method](concrete(route.path)).set('x-csrf-token', await member.get('/api/csrf').then((r) => r.body.data.token))
+        : member[route.method](concrete(route.path), {}));
       expect(ok.body?.error?.code, 'member with the token').not.toBe('csrf_invalid');
     });
   }

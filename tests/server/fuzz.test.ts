@@ -150,14 +150,47 @@ function pathArb(route: RouteDef) {
 }
 
 // Prefixed references (`guide:<slug>`) in every case, since validation and lookup must agree on case.
-const PREFIXED = ['guide', 'GUIDE', 'Guide', 'gUiDe'].flatMap((p) => [`${p}:stock-2wd-buggy-harbour-flats-clay`, `${p}:STOCK-2WD-BUGGY-HARBOUR-FLATS-CLAY`, `${p}:`, `${p}:no-such-guide`]).map(encodeURIComponent);
-const QUERY_VALUES = ['', '-1', '0', '1', '2', 'NaN', 'Infinity', '1e400', 'true', 'null', '%00', '%ZZ', '%27%20OR%201%3D1--', 'a'.repeat(3000), 'drag-brake', 'clay', 'member', ...PREFIXED];
+const PREFIXED = ['guide', 'GUIDE', 'Guide', 'gUiDe']
+  .flatMap((p) => [`${p}:stock-2wd-buggy-harbour-flats-clay`, `${p}:STOCK-2WD-BUGGY-HARBOUR-FLATS-CLAY`, `${p}:`, `${p}:no-such-guide`])
+  .map(encodeURIComponent);
+const QUERY_VALUES = [
+  '',
+  '-1',
+  '0',
+  '1',
+  '2',
+  'NaN',
+  'Infinity',
+  '1e400',
+  'true',
+  'null',
+  '%00',
+  '%ZZ',
+  '%27%20OR%201%3D1--',
+  'a'.repeat(3000),
+  'drag-brake',
+  'clay',
+  'member',
+  ...PREFIXED,
+];
 
 function queryArb(route: RouteDef) {
   const keys = [...fieldNames(route.query), 'q', 'page', 'pageSize', 'limit'];
   const key = fc.oneof(
     { weight: 4, arbitrary: fc.constantFrom(...keys) },
-    { weight: 1, arbitrary: fc.constantFrom('__proto__', '__proto__[polluted]', 'constructor[prototype][polluted]', 'a[b][c][d][e][f][g][h]', 'page[]', 'q[$ne]', 'q[]', '') },
+    {
+      weight: 1,
+      arbitrary: fc.constantFrom(
+        '__proto__',
+        '__proto__[polluted]',
+        'constructor[prototype][polluted]',
+        'a[b][c][d][e][f][g][h]',
+        'page[]',
+        'q[$ne]',
+        'q[]',
+        '',
+      ),
+    },
     { weight: 1, arbitrary: fc.string({ unit: 'binary-ascii', maxLength: 12 }).map(encodeURIComponent) },
   );
   const value = fc.oneof(
@@ -174,7 +207,7 @@ const DEEP = 10_000;
 const RAW_BODIES = [
   '{"__proto__":{"polluted":"yes"}}',
   '{"constructor":{"prototype":{"polluted":"yes"}}}',
-  '[' .repeat(DEEP) + ']'.repeat(DEEP),
+  '['.repeat(DEEP) + ']'.repeat(DEEP),
   '{"a":'.repeat(DEEP) + '1' + '}'.repeat(DEEP),
   'null',
   '[]',
@@ -191,7 +224,26 @@ const RAW_BODIES = [
 
 /** Values of the wrong type, odd text, huge text and nested structures for one field. */
 const wildValue = fc.oneof(
-  fc.constantFrom(null, true, false, 0, -1, 1e308, -0, [], {}, [null], '', ' ', '\u0000', '\ud800', '\u202e', 'x'.repeat(200_000), '<img src=x onerror=alert(1)>', { __proto__: null, $gt: '' }),
+  fc.constantFrom(
+    null,
+    true,
+    false,
+    0,
+    -1,
+    1e308,
+    -0,
+    [],
+    {},
+    [null],
+    '',
+    ' ',
+    '\u0000',
+    '\ud800',
+    '\u202e',
+    'x'.repeat(200_000),
+    '<img src=x onerror=alert(1)>',
+    { __proto__: null, $gt: '' },
+  ),
   fc.jsonValue({ maxDepth: 3 }),
   fc.string({ unit: 'binary', maxLength: 200 }),
   fc.string({ unit: 'grapheme', maxLength: 200 }),
@@ -287,7 +339,10 @@ describe('fuzz: wrong content types answer 415', () => {
   for (const route of routeTable.filter((r) => isMutating(r.method) && !r.download)) {
     it(`${label(route)} refuses bodies that are not ${route.multipart ? 'multipart/form-data' : 'application/json'}`, async () => {
       const wrong: RawBody[] = route.multipart
-        ? [{ raw: '{"file":"x"}', type: 'application/json' }, { raw: 'file=x', type: 'text/plain' }]
+        ? [
+            { raw: '{"file":"x"}', type: 'application/json' },
+            { raw: 'file=x', type: 'text/plain' },
+          ]
         : [
             { raw: 'email=a%40b.test', type: 'application/x-www-form-urlencoded' },
             { raw: '{"a":1}', type: 'text/plain' },

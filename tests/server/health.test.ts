@@ -35,7 +35,15 @@ beforeAll(async () => {
   const logger = createLogger('silent');
   const documentListener = createDocumentListener({ connectionString: cluster.urlFor('health'), logger, minRetryMs: 50, maxRetryMs: 500 });
   await documentListener.start();
-  ctx = { config, dataSource: ds, logger, documentListener, mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }), storage: createDiskStorage(path.join(dir, 'uploads')), search: createSearchService({ dataSource: ds, logger }) };
+  ctx = {
+    config,
+    dataSource: ds,
+    logger,
+    documentListener,
+    mailer: createMailer({ dataSource: ds, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: 60_000 }),
+    storage: createDiskStorage(path.join(dir, 'uploads')),
+    search: createSearchService({ dataSource: ds, logger }),
+  };
   const created = createApp(ctx, { serveClient: false });
   app = created.app;
   closeApp = created.close;
@@ -117,7 +125,11 @@ describe('GET /api/health under a burst', () => {
       await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
       const port = (server.address() as { port: number }).port;
       // Twenty probes sent together over separate connections.
-      const answers = await Promise.all(Array.from({ length: 20 }, () => fetch(`http://127.0.0.1:${port}/api/health`, { headers: { connection: 'close' } }).then(async (r) => ({ status: r.status, body: await r.json() }))));
+      const answers = await Promise.all(
+        Array.from({ length: 20 }, () =>
+          fetch(`http://127.0.0.1:${port}/api/health`, { headers: { connection: 'close' } }).then(async (r) => ({ status: r.status, body: await r.json() })),
+        ),
+      );
       await new Promise<void>((r) => server.close(() => r()));
       expect(answers.every((a) => a.status === 200 && a.body.data.db === 'ok' && a.body.data.changes === 'ok')).toBe(true);
       expect(pings).toBeGreaterThanOrEqual(1);

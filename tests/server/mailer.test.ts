@@ -16,7 +16,13 @@ afterAll(async () => {
 describe('mail outbox', () => {
   it('keeps a mail when SMTP is down and delivers it when the catcher comes back', async () => {
     const port = await freePort();
-    const mailer = createMailer({ dataSource: t.db.dataSource, smtpUrl: `smtp://127.0.0.1:${port}`, from: 'Tunewright <no-reply@tunewright.test>', logger: t.ctx.logger, intervalMs: 60_000 });
+    const mailer = createMailer({
+      dataSource: t.db.dataSource,
+      smtpUrl: `smtp://127.0.0.1:${port}`,
+      from: 'Tunewright <no-reply@tunewright.test>',
+      logger: t.ctx.logger,
+      intervalMs: 60_000,
+    });
     await mailer.send({ to: 'waiting@tidewater.test', subject: 'Held in the outbox', text: 'hello' });
     await mailer.deliverPending();
     const repo = t.db.dataSource.getRepository(OutboxMessageEntity);
@@ -39,7 +45,9 @@ describe('mail outbox', () => {
   });
 
   it('GET /api/dev/mail lists captured mail newest first', async () => {
-    await t.db.dataSource.query(`INSERT INTO captured_mail (to_address, from_address, subject, text_body, received_at) VALUES ('a@t.test','f@t.test','older', 'x', now() - interval '1 hour'), ('a@t.test','f@t.test','newer', 'y', now())`);
+    await t.db.dataSource.query(
+      `INSERT INTO captured_mail (to_address, from_address, subject, text_body, received_at) VALUES ('a@t.test','f@t.test','older', 'x', now() - interval '1 hour'), ('a@t.test','f@t.test','newer', 'y', now())`,
+    );
     const res = await (await import('supertest')).default(t.app).get('/api/dev/mail?to=a@t.test');
     expect(res.status).toBe(200);
     expect(res.body.data.map((m: { subject: string }) => m.subject)).toEqual(['newer', 'older']);

@@ -67,12 +67,28 @@ function permissions(header: string) {
 function expectPermissionsPolicy(res: request.Response) {
   const policy = permissions(String(res.headers['permissions-policy']));
   // Nothing in the app uses these; each must be denied to every origin, our own included.
-  for (const feature of ['camera', 'microphone', 'geolocation', 'payment', 'usb', 'serial', 'hid', 'midi', 'display-capture', 'fullscreen', 'clipboard-read', 'publickey-credentials-get']) {
+  for (const feature of [
+    'camera',
+    'microphone',
+    'geolocation',
+    'payment',
+    'usb',
+    'serial',
+    'hid',
+    'midi',
+    'display-capture',
+    'fullscreen',
+    'clipboard-read',
+    'publickey-credentials-get',
+  ]) {
     expect(policy.get(feature), feature).toBe('()');
   }
   // The calculators' copy button writes to the clipboard, from our own origin only.
   expect(policy.get('clipboard-write')).toBe('(self)');
-  expect([...policy.values()].every((allow) => allow === '()' || allow === '(self)'), 'no feature is open to other origins').toBe(true);
+  expect(
+    [...policy.values()].every((allow) => allow === '()' || allow === '(self)'),
+    'no feature is open to other origins',
+  ).toBe(true);
 }
 
 describe('security headers in production', () => {
@@ -145,7 +161,12 @@ describe('session cookie in production', () => {
     // By hand: a cookie jar rightly withholds a Secure cookie from the plain-HTTP test connection.
     const first = await request(t.app).get('/api/csrf').set(https).expect(200);
     const visitorCookie = (first.headers['set-cookie'] as unknown as string[])[0].split(';')[0];
-    const res = await request(t.app).post('/api/auth/sign-in').set(https).set('Cookie', visitorCookie).set('x-csrf-token', first.body.data.token).send({ email: user.email, password });
+    const res = await request(t.app)
+      .post('/api/auth/sign-in')
+      .set(https)
+      .set('Cookie', visitorCookie)
+      .set('x-csrf-token', first.body.data.token)
+      .send({ email: user.email, password });
     expect(res.status).toBe(200);
     // __Host-: the browser takes it only with Secure, Path=/ and no Domain, so no other host or path can plant it.
     const cookie = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('__Host-tw.sid='));

@@ -156,7 +156,7 @@ describe('session lifetime (idle timeout and absolute lifetime)', () => {
     const first = await read();
     expect(Math.abs(first.signedInAt - Date.now())).toBeLessThan(60_000);
     await age(cookie, { idleH: 5 });
-    expect((await meWith(cookie))).not.toBeNull();
+    expect(await meWith(cookie)).not.toBeNull();
     expect(Date.now() - (await read()).lastSeenAt).toBeLessThan(60_000);
   });
 

@@ -19,7 +19,11 @@ const GUIDE = 'stock-2wd-buggy-harbour-flats-clay';
 
 function listFiles(dir: string): string[] {
   if (!fs.existsSync(dir)) return [];
-  return fs.readdirSync(dir, { recursive: true, withFileTypes: true }).filter((e) => e.isFile()).map((e) => path.join(e.parentPath, e.name)).sort();
+  return fs
+    .readdirSync(dir, { recursive: true, withFileTypes: true })
+    .filter((e) => e.isFile())
+    .map((e) => path.join(e.parentPath, e.name))
+    .sort();
 }
 const setupCount = async () => Number((await t.db.dataSource.query('SELECT count(*)::int AS n FROM setups'))[0].n);
 
@@ -32,7 +36,11 @@ async function multipart(client: TestClient) {
 }
 const upload = async (client: TestClient, file: Upload) =>
   // form-data keeps a path in the name only when it comes as `filepath` (superagent passes the options through; its types omit it).
-  (await multipart(client)).req.attach('file', typeof file.body === 'string' ? Buffer.from(file.body) : file.body, { filename: file.name, filepath: file.name, contentType: file.contentType ?? (file.name.endsWith('.csv') ? 'text/csv' : 'application/json') } as { filename: string; contentType: string });
+  (await multipart(client)).req.attach('file', typeof file.body === 'string' ? Buffer.from(file.body) : file.body, {
+    filename: file.name,
+    filepath: file.name,
+    contentType: file.contentType ?? (file.name.endsWith('.csv') ? 'text/csv' : 'application/json'),
+  } as { filename: string; contentType: string });
 
 beforeAll(async () => {
   t = await createTestApp();
@@ -157,19 +165,58 @@ describe('POST /api/setups refuses bad uploads and stores nothing', () => {
   const corpus: { why: string; file: Upload; status: number; path: string; message?: RegExp }[] = [
     { why: 'wrong extension', file: { name: 'setup.txt', body: good, contentType: 'text/plain' }, status: 415, path: 'file.name', message: /\.json.*\.csv/ },
     { why: 'wrong content type', file: { name: 'setup.json', body: good, contentType: 'image/png' }, status: 415, path: 'file.type' },
-    { why: 'binary bytes', file: { name: 'setup.json', body: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]) }, status: 415, path: 'file', message: /binary/ },
+    {
+      why: 'binary bytes',
+      file: { name: 'setup.json', body: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]) },
+      status: 415,
+      path: 'file',
+      message: /binary/,
+    },
     { why: 'not UTF-8', file: { name: 'setup.json', body: Buffer.from([0x7b, 0xff, 0xfe, 0x7d]) }, status: 415, path: 'file', message: /UTF-8/ },
-    { why: 'bad JSON', file: { name: 'setup.json', body: '{"format": "tunewright.setup", "schemaVersion": 1,' }, status: 400, path: '(file)', message: /Not valid JSON/ },
-    { why: 'schema version 3', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, schemaVersion: 3 })) }, status: 400, path: 'schemaVersion', message: /version 3/ },
-    { why: 'unknown slug', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brak': { value: 8, unit: '%' } } })) }, status: 400, path: 'escSettings.drag-brak', message: /Did you mean "drag-brake"/ },
-    { why: 'out-of-range value', file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brake': { value: 140, unit: '%' } } })) }, status: 400, path: 'escSettings.drag-brake.value', message: /between 0 % and 100 %/ },
+    {
+      why: 'bad JSON',
+      file: { name: 'setup.json', body: '{"format": "tunewright.setup", "schemaVersion": 1,' },
+      status: 400,
+      path: '(file)',
+      message: /Not valid JSON/,
+    },
+    {
+      why: 'schema version 3',
+      file: { name: 'setup.json', body: withRecord((r) => ({ ...r, schemaVersion: 3 })) },
+      status: 400,
+      path: 'schemaVersion',
+      message: /version 3/,
+    },
+    {
+      why: 'unknown slug',
+      file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brak': { value: 8, unit: '%' } } })) },
+      status: 400,
+      path: 'escSettings.drag-brak',
+      message: /Did you mean "drag-brake"/,
+    },
+    {
+      why: 'out-of-range value',
+      file: { name: 'setup.json', body: withRecord((r) => ({ ...r, escSettings: { 'drag-brake': { value: 140, unit: '%' } } })) },
+      status: 400,
+      path: 'escSettings.drag-brake.value',
+      message: /between 0 % and 100 %/,
+    },
     { why: '300 KB file', file: { name: 'setup.json', body: good + ' '.repeat(300 * 1024) }, status: 413, path: 'file', message: /256 KB/ },
     { why: 'path-traversal name', file: { name: '../../etc/passwd.json', body: good }, status: 400, path: 'file.name', message: /folder path/ },
     { why: 'odd bytes in the name', file: { name: 'setup\u202enosj.json', body: good }, status: 400, path: 'file.name', message: /invisible/ },
     // busboy itself refuses a raw control character in a part header, before the name reaches our checks.
     { why: 'a control character in the name', file: { name: 'set\u0007up.json', body: good }, status: 400, path: 'file', message: /header/ },
     { why: 'a CSV in another layout', file: { name: 'setup.csv', body: 'name,pinion\r\nmine,32\r\n' }, status: 415, path: '(file)', message: /layout/ },
-    { why: 'a CSV with an unreadable row', file: { name: 'setup.csv', body: 'path,value,unit,source\r\nformat,tunewright.setup,,record\r\nschemaVersion,1,,record\r\ngearing.spurTeeth,eighty,teeth,record\r\n' }, status: 400, path: 'gearing.spurTeeth', message: /must be a number/ },
+    {
+      why: 'a CSV with an unreadable row',
+      file: {
+        name: 'setup.csv',
+        body: 'path,value,unit,source\r\nformat,tunewright.setup,,record\r\nschemaVersion,1,,record\r\ngearing.spurTeeth,eighty,teeth,record\r\n',
+      },
+      status: 400,
+      path: 'gearing.spurTeeth',
+      message: /must be a number/,
+    },
   ];
 
   for (const c of corpus) {
@@ -189,10 +236,17 @@ describe('POST /api/setups refuses bad uploads and stores nothing', () => {
 
   it('lists every problem of a record at once', async () => {
     const { client } = await signedInClient(t);
-    const body = withRecord((r) => ({ ...r, gearing: { ...r.gearing, pinionTeeth: 2 }, escSettings: { nonsense: { value: 1, unit: '' } }, battery: { chemistry: 'lead', cells: 2 } }));
+    const body = withRecord((r) => ({
+      ...r,
+      gearing: { ...r.gearing, pinionTeeth: 2 },
+      escSettings: { nonsense: { value: 1, unit: '' } },
+      battery: { chemistry: 'lead', cells: 2 },
+    }));
     const res = await upload(client, { name: 'setup.json', body });
     expect(res.status).toBe(400);
-    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(expect.arrayContaining(['gearing.pinionTeeth', 'escSettings.nonsense', 'battery.chemistry']));
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(
+      expect.arrayContaining(['gearing.pinionTeeth', 'escSettings.nonsense', 'battery.chemistry']),
+    );
   });
 
   it('refuses a request with no file', async () => {
@@ -261,7 +315,9 @@ describe('GET /api/setups', () => {
     const res = await createClient(t.app).get('/api/setups');
     expect(res.status).toBe(200);
     expect(res.body.data.uploads).toEqual([]);
-    const published = Number((await t.db.dataSource.query("SELECT count(*)::int AS n FROM documents WHERE kind = 'guide' AND published_revision_id IS NOT NULL"))[0].n);
+    const published = Number(
+      (await t.db.dataSource.query("SELECT count(*)::int AS n FROM documents WHERE kind = 'guide' AND published_revision_id IS NOT NULL"))[0].n,
+    );
     expect(res.body.data.baselines).toHaveLength(published);
     const stock = res.body.data.baselines.find((b: { guideSlug: string }) => b.guideSlug === GUIDE);
     expect(stock).toMatchObject({ revisionNumber: 3, summary: { class: 'buggy-2wd-stock', surface: 'clay', finalDriveRatio: 6.825 } });
@@ -279,7 +335,11 @@ describe('GET /api/setups/compare', () => {
   it("compares a guide's baseline with an upload: differences, deltas equal to the calculators, cautions", async () => {
     const { client } = await signedInClient(t);
     const base: SetupRecord = JSON.parse((await client.get(`/api/guides/${GUIDE}/setup.json`)).text);
-    const mine = { ...base, gearing: { ...base.gearing, pinionTeeth: 34 }, escSettings: { ...base.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } } };
+    const mine = {
+      ...base,
+      gearing: { ...base.gearing, pinionTeeth: 34 },
+      escSettings: { ...base.escSettings, 'low-voltage-cutoff': { value: 2.9, unit: 'V' } },
+    };
     const id = (await upload(client, { name: 'mine.json', body: JSON.stringify(mine) })).body.data.id;
     const res = await client.get(`/api/setups/compare?a=guide:${GUIDE}&b=${id}&rpm=25000`);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
@@ -288,7 +348,9 @@ describe('GET /api/setups/compare', () => {
     expect(data.differences.map((d: { path: string }) => d.path)).toEqual(['escSettings.low-voltage-cutoff', 'gearing.pinionTeeth']);
     const fdr = data.deltas.find((d: { key: string }) => d.key === 'finalDriveRatio');
     expect(fdr.b).toBe(computeGearing({ spur: 84, pinion: 34, internalRatio: 2.6, tyreDiameterMm: 62 }).results.finalDriveRatio);
-    expect(data.deltas.find((d: { key: string }) => d.key === 'cutoffV').b).toBe(computePack({ chemistry: 'lipo', cells: 2, cutoffPerCellV: 2.9 }).results.cutoffV);
+    expect(data.deltas.find((d: { key: string }) => d.key === 'cutoffV').b).toBe(
+      computePack({ chemistry: 'lipo', cells: 2, cutoffPerCellV: 2.9 }).results.cutoffV,
+    );
     expect(data.atRpm).toBe(25000);
     expect(data.cautions[0]).toMatchObject({ side: 'b', level: 'danger', code: 'cutoff-below-window' });
   });
@@ -327,8 +389,12 @@ describe('GET /api/setups/compare', () => {
 describe('PUT and DELETE /api/revisions/:id/setup', () => {
   async function draftFor(authorId: string, state: 'draft' | 'in_review' = 'draft') {
     const ds = t.db.dataSource;
-    const doc = await ds.getRepository(DocumentEntity).save(ds.getRepository(DocumentEntity).create({ kind: 'guide', slug: `draft-${Math.random().toString(36).slice(2, 10)}`, createdBy: authorId }));
-    return ds.getRepository(RevisionEntity).save(ds.getRepository(RevisionEntity).create({ documentId: doc.id, number: 1, authorId, state, note: '', content: { title: 'A draft guide' } }));
+    const doc = await ds
+      .getRepository(DocumentEntity)
+      .save(ds.getRepository(DocumentEntity).create({ kind: 'guide', slug: `draft-${Math.random().toString(36).slice(2, 10)}`, createdBy: authorId }));
+    return ds
+      .getRepository(RevisionEntity)
+      .save(ds.getRepository(RevisionEntity).create({ documentId: doc.id, number: 1, authorId, state, note: '', content: { title: 'A draft guide' } }));
   }
 
   it("attaches and removes the baseline of the author's own draft", async () => {

@@ -73,7 +73,7 @@ describe('storage', () => {
     for (const [i, k] of keys.entries()) expect((await storage.get(k))?.toString()).toBe(`row ${i}\r\n`);
   });
 
-  it('the start-up sweep removes old temp files and unreferenced objects, and keeps rows\' objects, fresh files and foreign names', async () => {
+  it("the start-up sweep removes old temp files and unreferenced objects, and keeps rows' objects, fresh files and foreign names", async () => {
     const root = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-sweep-'));
     try {
       const storage = createDiskStorage(root);
@@ -106,7 +106,10 @@ describe('storage', () => {
       expect(await storage.get(fresh)).not.toBeNull();
       expect(fs.existsSync(freshTemp)).toBe(true);
       expect(fs.existsSync(foreign)).toBe(true);
-      expect(await sweepDiskStorage(path.join(root, 'missing'), { olderThan: new Date(), referenced: async () => new Set() })).toEqual({ temp: [], orphans: [] });
+      expect(await sweepDiskStorage(path.join(root, 'missing'), { olderThan: new Date(), referenced: async () => new Set() })).toEqual({
+        temp: [],
+        orphans: [],
+      });
     } finally {
       fs.rmSync(root, { recursive: true, force: true });
     }
@@ -115,7 +118,14 @@ describe('storage', () => {
   it("the S3 driver's start-up sweep removes old unreferenced objects under the app's prefix, and keeps rows' objects, fresh objects and foreign keys", async () => {
     // Small pages, so the sweep has to follow the listing across several of them.
     const storage = createS3Storage({ endpoint, region: 'us-east-1', bucket: BUCKET, forcePathStyle: true, ...FAKE_KEY, listPageSize: 2 });
-    const raw = new S3Client({ endpoint, region: 'us-east-1', forcePathStyle: true, credentials: FAKE_KEY, requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' });
+    const raw = new S3Client({
+      endpoint,
+      region: 'us-east-1',
+      forcePathStyle: true,
+      credentials: FAKE_KEY,
+      requestChecksumCalculation: 'WHEN_REQUIRED',
+      responseChecksumValidation: 'WHEN_REQUIRED',
+    });
     const kept = [newStorageKey('setups', 'json'), newStorageKey('setups', 'csv')];
     const orphans = [newStorageKey('setups', 'json'), newStorageKey('setups', 'csv'), newStorageKey('setups', 'json')];
     const fresh = newStorageKey('setups', 'json');
@@ -169,7 +179,10 @@ describe('storage', () => {
       const { client } = await signedInClient(t);
       const token = (await client.agent.get('/api/csrf')).body.data.token as string;
       const body = JSON.stringify(buildSetupRecord());
-      const res = await client.agent.post('/api/setups').set('x-csrf-token', token).attach('file', Buffer.from(body), { filename: 'bucket.json', contentType: 'application/json' });
+      const res = await client.agent
+        .post('/api/setups')
+        .set('x-csrf-token', token)
+        .attach('file', Buffer.from(body), { filename: 'bucket.json', contentType: 'application/json' });
       expect(res.status, JSON.stringify(res.body)).toBe(201);
       const key = (await t.db.dataSource.query('SELECT storage_key FROM setups WHERE id = $1', [res.body.data.id]))[0].storage_key as string;
       const bucketView = createS3Storage({ endpoint, region: 'us-east-1', bucket: BUCKET, forcePathStyle: true, ...FAKE_KEY });

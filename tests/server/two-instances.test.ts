@@ -62,7 +62,9 @@ describe('two app instances on one database', () => {
     const workers = 8;
     const rounds = 20;
     const members = await insertAccounts(db.dataSource, 'member', workers, 'two-w');
-    const publicReads = routeTable.filter((r) => r.method === 'get' && r.access === 'public' && !r.devOnly && !r.path.includes(':') && !r.download).map((r) => r.path);
+    const publicReads = routeTable
+      .filter((r) => r.method === 'get' && r.access === 'public' && !r.devOnly && !r.path.includes(':') && !r.download)
+      .map((r) => r.path);
     const statuses = new Map<number, number>();
     const failures: string[] = [];
     const count = (s: number) => statuses.set(s, (statuses.get(s) ?? 0) + 1);
@@ -102,37 +104,41 @@ describe('two app instances on one database', () => {
   }, 90_000);
 
   const missing = missingGuideSteps(routeTable, ['create', 'submit', 'publish', 'read', 'propose']);
-  it.skipIf(missing.length > 0)(`a guide published through A is read at its new version through B (needs: ${missing.join(', ') || 'all present'})`, async () => {
-    const [author] = await insertAccounts(db.dataSource, 'member', 1, 'two-author');
-    const [moderator] = await insertAccounts(db.dataSource, 'moderator', 1, 'two-mod');
-    const writer = httpClient(a.baseUrl, viaProxy);
-    await writer.signIn(author.email, author.password);
-    const mod = httpClient(a.baseUrl, viaProxy);
-    await mod.signIn(moderator.email, moderator.password);
-    const reader = httpClient(b.baseUrl, viaProxy);
+  it.skipIf(missing.length > 0)(
+    `a guide published through A is read at its new version through B (needs: ${missing.join(', ') || 'all present'})`,
+    async () => {
+      const [author] = await insertAccounts(db.dataSource, 'member', 1, 'two-author');
+      const [moderator] = await insertAccounts(db.dataSource, 'moderator', 1, 'two-mod');
+      const writer = httpClient(a.baseUrl, viaProxy);
+      await writer.signIn(author.email, author.password);
+      const mod = httpClient(a.baseUrl, viaProxy);
+      await mod.signIn(moderator.email, moderator.password);
+      const reader = httpClient(b.baseUrl, viaProxy);
 
-    const draft = await createGuideDraft(writer, 'two-instances');
-    expectOk(await submitDraft(writer, draft.revisionId, 'First version for the club night'), 'submit v1');
-    expectOk(await publishRevision(mod, draft.revisionId), 'publish v1');
-    const v1 = await readGuide(reader, draft.slug);
-    expect(v1.status, v1.text).toBe(200);
-    expect(v1.text).toContain(draft.content.title);
+      const draft = await createGuideDraft(writer, 'two-instances');
+      expectOk(await submitDraft(writer, draft.revisionId, 'First version for the club night'), 'submit v1');
+      expectOk(await publishRevision(mod, draft.revisionId), 'publish v1');
+      const v1 = await readGuide(reader, draft.slug);
+      expect(v1.status, v1.text).toBe(200);
+      expect(v1.text).toContain(draft.content.title);
 
-    const edit = expectOk(await proposeGuideEdit(writer, draft.slug, draft.revisionId, { title: 'Harbour Flats clay baseline, second take' }), 'propose v2');
-    expectOk(await submitDraft(writer, edit.data.revision.id, 'Retitled after the second club night'), 'submit v2');
-    const published = Date.now();
-    expectOk(await publishRevision(mod, edit.data.revision.id), 'publish v2');
-    // B had v1 in hand (and maybe cached); it must serve v2 soon after the publish committed.
-    let lagMs = -1;
-    while (Date.now() - published < 3000) {
-      const now = await readGuide(reader, draft.slug);
-      if (now.text.includes('second take')) {
-        lagMs = Date.now() - published;
-        break;
+      const edit = expectOk(await proposeGuideEdit(writer, draft.slug, draft.revisionId, { title: 'Harbour Flats clay baseline, second take' }), 'propose v2');
+      expectOk(await submitDraft(writer, edit.data.revision.id, 'Retitled after the second club night'), 'submit v2');
+      const published = Date.now();
+      expectOk(await publishRevision(mod, edit.data.revision.id), 'publish v2');
+      // B had v1 in hand (and maybe cached); it must serve v2 soon after the publish committed.
+      let lagMs = -1;
+      while (Date.now() - published < 3000) {
+        const now = await readGuide(reader, draft.slug);
+        if (now.text.includes('second take')) {
+          lagMs = Date.now() - published;
+          break;
+        }
+        await new Promise((r) => setTimeout(r, 50));
       }
-      await new Promise((r) => setTimeout(r, 50));
-    }
-    console.log(`two instances: the new version reached the other instance after ${lagMs} ms`);
-    expect(lagMs).toBeGreaterThanOrEqual(0);
-  }, 60_000);
+      console.log(`two instances: the new version reached the other instance after ${lagMs} ms`);
+      expect(lagMs).toBeGreaterThanOrEqual(0);
+    },
+    60_000,
+  );
 });

@@ -43,8 +43,10 @@ function filesOnDisk(): string[] {
     .map((e) => path.relative(uploads, path.join(e.parentPath, e.name)).split(path.sep).join('/'))
     .sort();
 }
-const storedKeys = async (): Promise<string[]> => (await db.dataSource.query('SELECT storage_key FROM setups ORDER BY storage_key')).map((r: { storage_key: string }) => r.storage_key);
-const rowsOf = async (ownerId: string): Promise<number> => (await db.dataSource.query('SELECT count(*)::int AS n FROM setups WHERE owner_id = $1', [ownerId]))[0].n;
+const storedKeys = async (): Promise<string[]> =>
+  (await db.dataSource.query('SELECT storage_key FROM setups ORDER BY storage_key')).map((r: { storage_key: string }) => r.storage_key);
+const rowsOf = async (ownerId: string): Promise<number> =>
+  (await db.dataSource.query('SELECT count(*)::int AS n FROM setups WHERE owner_id = $1', [ownerId]))[0].n;
 
 async function signedInMember(baseUrl: string, label: string) {
   const [member] = await insertAccounts(db.dataSource, 'member', 1, label);
@@ -197,7 +199,9 @@ describe('POST /api/setups when the app process is killed mid-upload', () => {
       const orphan = await waitFor('the object on disk', () => filesOnDisk().find((f) => !before.includes(f) && !path.basename(f).startsWith('.')));
       await waitFor('the app INSERT waiting on the lock', async () => {
         // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
-        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        const rows = await db.dataSource.query(
+          `SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`,
+        );
         return rows.length ? true : undefined;
       });
       expect(fs.readFileSync(path.join(uploads, orphan))).toEqual(content);
@@ -207,7 +211,9 @@ describe('POST /api/setups when the app process is killed mid-upload', () => {
 
       // The waiting INSERT was never committed: its connection died with the process.
       await waitFor('the dead backend to go', async () => {
-        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND query ILIKE 'INSERT INTO "setups"%' AND pid <> pg_backend_pid()`);
+        const rows = await db.dataSource.query(
+          `SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND query ILIKE 'INSERT INTO "setups"%' AND pid <> pg_backend_pid()`,
+        );
         return rows.length === 0 ? true : undefined;
       });
       expect(await rowsOf(session.member.id)).toBe(0);
@@ -254,7 +260,14 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
   beforeAll(async () => {
     s3 = new S3rver({ address: '127.0.0.1', port: 0, silent: true, directory: s3Dir, configureBuckets: [{ name: BUCKET }] });
     endpoint = `http://127.0.0.1:${(await s3.run()).port}`;
-    bucket = new S3Client({ endpoint, region: 'us-east-1', forcePathStyle: true, credentials: FAKE_KEY, requestChecksumCalculation: 'WHEN_REQUIRED', responseChecksumValidation: 'WHEN_REQUIRED' });
+    bucket = new S3Client({
+      endpoint,
+      region: 'us-east-1',
+      forcePathStyle: true,
+      credentials: FAKE_KEY,
+      requestChecksumCalculation: 'WHEN_REQUIRED',
+      responseChecksumValidation: 'WHEN_REQUIRED',
+    });
   });
   afterAll(async () => {
     bucket?.destroy();
@@ -262,10 +275,18 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
     fs.rmSync(s3Dir, { recursive: true, force: true });
   });
 
-  const s3Env = () => ({ ...env(), STORAGE_DRIVER: 's3', STORAGE_S3_ENDPOINT: endpoint, STORAGE_S3_BUCKET: BUCKET, STORAGE_S3_ACCESS_KEY_ID: FAKE_KEY.accessKeyId, STORAGE_S3_SECRET_ACCESS_KEY: FAKE_KEY.secretAccessKey });
+  const s3Env = () => ({
+    ...env(),
+    STORAGE_DRIVER: 's3',
+    STORAGE_S3_ENDPOINT: endpoint,
+    STORAGE_S3_BUCKET: BUCKET,
+    STORAGE_S3_ACCESS_KEY_ID: FAKE_KEY.accessKeyId,
+    STORAGE_S3_SECRET_ACCESS_KEY: FAKE_KEY.secretAccessKey,
+  });
   const bucketKeys = async () => ((await bucket.send(new ListObjectsCommand({ Bucket: BUCKET }))).Contents ?? []).map((o) => o.Key!).sort();
   /** s3rver reports LastModified from the mtime of `<key>._S3rver_object` in its directory. */
-  const age = (key: string, when: Date) => fs.utimesSync(path.join(s3Dir, BUCKET, ...path.posix.dirname(key).split('/'), `${path.posix.basename(key)}._S3rver_object`), when, when);
+  const age = (key: string, when: Date) =>
+    fs.utimesSync(path.join(s3Dir, BUCKET, ...path.posix.dirname(key).split('/'), `${path.posix.basename(key)}._S3rver_object`), when, when);
 
   it('the restart removes the orphaned object from the bucket, spares an unreferenced object younger than the grace, and the next upload is stored (201)', async () => {
     await app?.stop();
@@ -285,7 +306,9 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
       orphan = await waitFor('the object in the bucket', async () => (await bucketKeys())[0]);
       await waitFor('the app INSERT waiting on the lock', async () => {
         // Asked on another connection: inside the locker's transaction pg_stat_activity is a snapshot taken at its first read.
-        const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`);
+        const rows = await db.dataSource.query(
+          `SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query ILIKE 'INSERT INTO "setups"%'`,
+        );
         return rows.length ? true : undefined;
       });
       await app.kill('SIGKILL');
@@ -295,7 +318,9 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
       await locker.end().catch(() => {});
     }
     await waitFor('the dead backend to go', async () => {
-      const rows = await db.dataSource.query(`SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND query ILIKE 'INSERT INTO "setups"%' AND pid <> pg_backend_pid()`);
+      const rows = await db.dataSource.query(
+        `SELECT 1 FROM pg_stat_activity WHERE datname = current_database() AND query ILIKE 'INSERT INTO "setups"%' AND pid <> pg_backend_pid()`,
+      );
       return rows.length === 0 ? true : undefined;
     });
     expect(await rowsOf(session.member.id)).toBe(0);
@@ -317,6 +342,9 @@ describe('POST /api/setups on S3 storage when the app process is killed between 
     const created = JSON.parse((after.res as { text: string }).text).data as { id: string };
     const [row] = await db.dataSource.query('SELECT storage_key FROM setups WHERE id = $1', [created.id]);
     expect(await bucketKeys()).toEqual([inFlight, row.storage_key].sort());
-    expect(filesOnDisk().filter((f) => f === row.storage_key), 'nothing went to local disk').toEqual([]);
+    expect(
+      filesOnDisk().filter((f) => f === row.storage_key),
+      'nothing went to local disk',
+    ).toEqual([]);
   }, 60_000);
 });

@@ -16,7 +16,9 @@ export async function insertAccounts(ds: DataSource, role: Role, count: number, 
   const out: Array<{ id: string; email: string; password: string }> = [];
   for (let i = 0; i < count; i++) {
     const n = crypto.randomBytes(3).toString('hex');
-    const user = await repo.save(repo.create({ email: `${label}-${i}-${n}@tidewater.test`, displayName: `Tidewater ${label} ${i}`, role, passwordHash, emailVerifiedAt: new Date() }));
+    const user = await repo.save(
+      repo.create({ email: `${label}-${i}-${n}@tidewater.test`, displayName: `Tidewater ${label} ${i}`, role, passwordHash, emailVerifiedAt: new Date() }),
+    );
     out.push({ id: user.id, email: user.email, password: ACCOUNT_PASSWORD });
   }
   return out;

@@ -46,7 +46,8 @@ export async function createGuideDraft(client: HttpClient, tag: string) {
   return { res, content, revisionId: body.data.revision.id, slug: body.data.guide?.slug ?? (body.data.revision as { slug?: string }).slug ?? '' };
 }
 
-export const autosaveDraft = (client: HttpClient, revisionId: string, fields: Record<string, unknown>) => client.patch(GUIDE_ROUTES.autosave[1].replace(':id', revisionId), fields);
+export const autosaveDraft = (client: HttpClient, revisionId: string, fields: Record<string, unknown>) =>
+  client.patch(GUIDE_ROUTES.autosave[1].replace(':id', revisionId), fields);
 export const submitDraft = (client: HttpClient, revisionId: string, note: string) => client.post(GUIDE_ROUTES.submit[1].replace(':id', revisionId), { note });
 export const publishRevision = (client: HttpClient, revisionId: string) => client.post(GUIDE_ROUTES.publish[1].replace(':revisionId', revisionId));
 export const proposeGuideEdit = (client: HttpClient, slug: string, baseRevisionId: string, fields: Record<string, unknown>) =>

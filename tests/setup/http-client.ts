@@ -38,7 +38,13 @@ export function httpClient(baseUrl: string, defaults: { headers?: Record<string,
       headers['content-type'] = opts.type ?? 'application/json';
     }
     const started = Date.now();
-    const res = await fetch(base + path, { method: method.toUpperCase(), headers, body, redirect: 'manual', signal: AbortSignal.timeout(opts.timeoutMs ?? 15_000) });
+    const res = await fetch(base + path, {
+      method: method.toUpperCase(),
+      headers,
+      body,
+      redirect: 'manual',
+      signal: AbortSignal.timeout(opts.timeoutMs ?? 15_000),
+    });
     keepCookies(res.headers);
     const text = await res.text();
     let parsed: unknown;

@@ -28,7 +28,10 @@ export type TestApp = {
 };
 
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
-export async function createTestApp(overrides: Record<string, string> = {}, opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase } = {}): Promise<TestApp> {
+export async function createTestApp(
+  overrides: Record<string, string> = {},
+  opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase } = {},
+): Promise<TestApp> {
   // Passing `db` puts a second app instance on the same database (as behind a load balancer).
   const db = opts.db ?? (await createTestDatabase());
   const dataSource = opts.db ? await createDataSource(db.url, { poolMax: 5 }).initialize() : db.dataSource;

@@ -98,7 +98,8 @@ export function strictDomScan(root: Element): string[] {
     for (const attr of Array.from(el.attributes)) {
       if (/^on/i.test(attr.name)) bad.push(`${tag}[${attr.name}]`);
       if (attr.name === 'style') bad.push(`${tag}[style]`);
-      if (['href', 'src', 'xlink:href', 'action', 'data', 'srcdoc'].includes(attr.name) && !/^(https?:|\/|#|[a-z0-9._-]+(\/|$))/i.test(attr.value.trim())) bad.push(`${tag}[${attr.name}=${attr.value.slice(0, 40)}]`);
+      if (['href', 'src', 'xlink:href', 'action', 'data', 'srcdoc'].includes(attr.name) && !/^(https?:|\/|#|[a-z0-9._-]+(\/|$))/i.test(attr.value.trim()))
+        bad.push(`${tag}[${attr.name}=${attr.value.slice(0, 40)}]`);
     }
   }
   return bad;
@@ -118,7 +119,15 @@ export function pageDomScan(root: Element): string[] {
       if (/^on/i.test(attr.name)) bad.push(`${tag}[${attr.name}]`);
       if (attr.name === 'srcdoc') bad.push(`${tag}[srcdoc]`);
       // Browsers drop spaces and control characters inside a URL's scheme, so compare without them.
-      if (['href', 'src', 'xlink:href', 'action', 'formaction', 'data', 'poster'].includes(attr.name) && /^(javascript|data|vbscript):/i.test(Array.from(attr.value).filter((c) => c.charCodeAt(0) > 0x20).join(''))) bad.push(`${tag}[${attr.name}=${attr.value.slice(0, 40)}]`);
+      if (
+        ['href', 'src', 'xlink:href', 'action', 'formaction', 'data', 'poster'].includes(attr.name) &&
+        /^(javascript|data|vbscript):/i.test(
+          Array.from(attr.value)
+            .filter((c) => c.charCodeAt(0) > 0x20)
+            .join(''),
+        )
+      )
+        bad.push(`${tag}[${attr.name}=${attr.value.slice(0, 40)}]`);
       if (attr.name === 'style' && /javascript:|expression\(/i.test(attr.value)) bad.push(`${tag}[style=${attr.value.slice(0, 40)}]`);
     }
   }

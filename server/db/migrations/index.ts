@@ -7,4 +7,11 @@ import { Motors1796408207857 } from './1796408207857-motors';
 import { Runs1796500000000 } from './1796500000000-runs';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
-export const migrations = [InitialSchema1764633600000, Setups1796166650149, SignInAttempts1796175945183, ReviewApprovals1796190000000, Motors1796408207857, Runs1796500000000];
+export const migrations = [
+  InitialSchema1764633600000,
+  Setups1796166650149,
+  SignInAttempts1796175945183,
+  ReviewApprovals1796190000000,
+  Motors1796408207857,
+  Runs1796500000000,
+];

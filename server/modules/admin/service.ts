@@ -27,7 +27,8 @@ export function adminService(ctx: AppContext) {
 
     /** Changes role and/or disabled state in one transaction, with an audit row for each change. */
     async updateUser(actorId: string, id: string, patch: { role?: Role; disabled?: boolean }) {
-      if (id === actorId) throw new AppError(409, 'cannot_change_self', 'You cannot change your own role or disable your own account. Ask another administrator.');
+      if (id === actorId)
+        throw new AppError(409, 'cannot_change_self', 'You cannot change your own role or disable your own account. Ask another administrator.');
       return ctx.dataSource.transaction(async (m) => {
         const repo = m.getRepository(UserEntity);
         const user = await repo.createQueryBuilder('u').where('u.id = :id', { id }).setLock('pessimistic_write').getOne();
@@ -38,7 +39,16 @@ export function adminService(ctx: AppContext) {
           user.role = patch.role;
         }
         if (patch.disabled !== undefined && patch.disabled !== (user.disabledAt !== null)) {
-          await audit.insert({ actorId, action: patch.disabled ? 'user.disable' : 'user.enable', subjectKind: 'user', subjectId: id, from: user.disabledAt ? 'disabled' : 'active', to: patch.disabled ? 'disabled' : 'active', reason: null, meta: {} });
+          await audit.insert({
+            actorId,
+            action: patch.disabled ? 'user.disable' : 'user.enable',
+            subjectKind: 'user',
+            subjectId: id,
+            from: user.disabledAt ? 'disabled' : 'active',
+            to: patch.disabled ? 'disabled' : 'active',
+            reason: null,
+            meta: {},
+          });
           user.disabledAt = patch.disabled ? new Date() : null;
           if (patch.disabled) await endSessions(m, id);
         }

@@ -10,7 +10,11 @@ export function verificationMail(to: string, url: string): MailMessage {
     to,
     subject: 'Confirm your e-mail for Tunewright',
     heading: 'Confirm your e-mail',
-    paragraphs: ['Hello,', 'Confirm your e-mail address to finish setting up your Tunewright account. The link works once and expires in 48 hours.', 'If you did not sign up for Tunewright, ignore this mail: no account is made without this confirmation.'],
+    paragraphs: [
+      'Hello,',
+      'Confirm your e-mail address to finish setting up your Tunewright account. The link works once and expires in 48 hours.',
+      'If you did not sign up for Tunewright, ignore this mail: no account is made without this confirmation.',
+    ],
     action: { label: 'Confirm e-mail', url },
   });
 }
@@ -35,7 +39,10 @@ export function resetMail(to: string, url: string): MailMessage {
     to,
     subject: 'Reset your Tunewright password',
     heading: 'Reset your password',
-    paragraphs: ['Hello,', 'Someone asked to reset the password of your Tunewright account. If it was you, choose a new password with this link; it works once and expires in one hour. If it was not you, ignore this mail.'],
+    paragraphs: [
+      'Hello,',
+      'Someone asked to reset the password of your Tunewright account. If it was you, choose a new password with this link; it works once and expires in one hour. If it was not you, ignore this mail.',
+    ],
     action: { label: 'Choose a new password', url },
   });
 }
@@ -57,7 +64,8 @@ export function formatChangeTime(at: Date): string {
  * changes to how they sign in): what changed, when, how, and what to do if it was not them.
  */
 export function passwordChangedMail(to: string, change: { at: Date; via: PasswordChangeRoute; appUrl: string }): MailMessage {
-  const how = change.via === 'reset' ? 'with a password-reset link sent to this address' : 'from the account page, by someone signed in who knew the old password';
+  const how =
+    change.via === 'reset' ? 'with a password-reset link sent to this address' : 'from the account page, by someone signed in who knew the old password';
   const resetUrl = `${change.appUrl}/forgot-password`;
   return composeMail({
     to,

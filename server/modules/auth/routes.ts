@@ -60,7 +60,8 @@ export const authRoutes = [
   defineRoute({
     method: 'post',
     path: '/api/auth/sign-up',
-    summary: 'Create an account and send the verification mail (answers 202 the same way for an address that already has an account, whose owner is mailed instead)',
+    summary:
+      'Create an account and send the verification mail (answers 202 the same way for an address that already has an account, whose owner is mailed instead)',
     tags: ['auth'],
     access: 'public',
     rateLimit: 'auth',
@@ -83,7 +84,9 @@ export const authRoutes = [
     response: userData,
     handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).verifyEmail(body.token)) } }),
   }),
-  mailByAddressRoute('/api/auth/resend-verification', 'Send a new verification mail (answers 202 whether or not the account exists)', (ctx, email) => authService(ctx).resendVerification(email)),
+  mailByAddressRoute('/api/auth/resend-verification', 'Send a new verification mail (answers 202 whether or not the account exists)', (ctx, email) =>
+    authService(ctx).resendVerification(email),
+  ),
   defineRoute({
     method: 'post',
     path: '/api/auth/sign-in',
@@ -98,7 +101,8 @@ export const authRoutes = [
         await authService(ctx)
           .authenticate(body.email, body.password)
           .catch((err: unknown) => {
-            if (err instanceof AppError && err.code === 'sign_in_throttled') res.setHeader('Retry-After', String((err.details as { retryAfterSeconds: number }).retryAfterSeconds));
+            if (err instanceof AppError && err.code === 'sign_in_throttled')
+              res.setHeader('Retry-After', String((err.details as { retryAfterSeconds: number }).retryAfterSeconds));
             throw err;
           }),
       );
@@ -130,7 +134,9 @@ export const authRoutes = [
     response: z.object({ user: userSchema.nullable() }),
     handler: ({ user }) => ({ data: { user } }),
   }),
-  mailByAddressRoute('/api/auth/forgot-password', 'Mail a password-reset link (answers 202 whether or not the account exists)', (ctx, email) => authService(ctx).forgotPassword(email)),
+  mailByAddressRoute('/api/auth/forgot-password', 'Mail a password-reset link (answers 202 whether or not the account exists)', (ctx, email) =>
+    authService(ctx).forgotPassword(email),
+  ),
   defineRoute({
     method: 'post',
     path: '/api/auth/reset-password',

@@ -91,7 +91,8 @@ export function authService(ctx: AppContext) {
       const ok = await verifyPassword(password, user?.passwordHash ?? (await dummyHash(ctx.config.bcryptCost)));
       if (!user || !ok || user.disabledAt) throw new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an account.');
       await throttle().clear(email);
-      if (!user.emailVerifiedAt) throw new AppError(403, 'email_unverified', 'Confirm your e-mail address first: open the link we sent you, or ask for a new one.');
+      if (!user.emailVerifiedAt)
+        throw new AppError(403, 'email_unverified', 'Confirm your e-mail address first: open the link we sent you, or ask for a new one.');
       return user;
     },
 
@@ -115,7 +116,9 @@ export function authService(ctx: AppContext) {
     },
 
     async resetPassword(token: string, password: string) {
-      const tokenRow = await ds.getRepository(UserTokenEntity).findOne({ where: { tokenHash: hashToken(token), purpose: 'reset_password', usedAt: IsNull(), expiresAt: MoreThan(new Date()) } });
+      const tokenRow = await ds
+        .getRepository(UserTokenEntity)
+        .findOne({ where: { tokenHash: hashToken(token), purpose: 'reset_password', usedAt: IsNull(), expiresAt: MoreThan(new Date()) } });
       const owner = tokenRow ? await users().findOneBy({ id: tokenRow.userId }) : null;
       if (owner) assertStrong(password, [owner.email, owner.displayName]);
       const passwordHash = await hashPassword(password, ctx.config.bcryptCost);

@@ -2,7 +2,15 @@ import { z } from 'zod';
 import { defineRoute } from '../../lib/route';
 import { CapturedMailEntity } from './captured-mail.entity';
 
-const mailSchema = z.object({ id: z.string(), to: z.string(), from: z.string(), subject: z.string(), text: z.string(), html: z.string().nullable(), receivedAt: z.string() });
+const mailSchema = z.object({
+  id: z.string(),
+  to: z.string(),
+  from: z.string(),
+  subject: z.string(),
+  text: z.string(),
+  html: z.string().nullable(),
+  receivedAt: z.string(),
+});
 
 export const devMailRoutes = [
   defineRoute({
@@ -18,7 +26,9 @@ export const devMailRoutes = [
       const qb = ctx.dataSource.getRepository(CapturedMailEntity).createQueryBuilder('m').orderBy('m.receivedAt', 'DESC').take(query.limit);
       if (query.to) qb.where('lower(m.to) LIKE :to', { to: `%${query.to.toLowerCase()}%` });
       const rows = await qb.getMany();
-      return { data: rows.map((m) => ({ id: m.id, to: m.to, from: m.from, subject: m.subject, text: m.text, html: m.html, receivedAt: m.receivedAt.toISOString() })) };
+      return {
+        data: rows.map((m) => ({ id: m.id, to: m.to, from: m.from, subject: m.subject, text: m.text, html: m.html, receivedAt: m.receivedAt.toISOString() })),
+      };
     },
   }),
 ];

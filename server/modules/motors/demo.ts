@@ -15,22 +15,18 @@ export async function seedDemoMotor(ds: DataSource, owner: UserEntity | undefine
   if (!owner) return 0;
   return ds.transaction(async (m) => {
     if (await m.getRepository(MotorEntity).existsBy({ ownerId: owner.id, label: LABEL })) return 0;
-    const motor = await m
-      .getRepository(MotorEntity)
-      .save(
-        m
-          .getRepository(MotorEntity)
-          .create({
-            ownerId: owner.id,
-            label: LABEL,
-            kvRpmPerV: null,
-            windTurns: 17.5,
-            poles: 2,
-            sensored: true,
-            rotorNotes: '12.5 mm stock rotor, one 0.1 mm shim at the endbell',
-            tolerances: {},
-          }),
-      );
+    const motor = await m.getRepository(MotorEntity).save(
+      m.getRepository(MotorEntity).create({
+        ownerId: owner.id,
+        label: LABEL,
+        kvRpmPerV: null,
+        windTurns: 17.5,
+        poles: 2,
+        sensored: true,
+        rotorNotes: '12.5 mm stock rotor, one 0.1 mm shim at the endbell',
+        tolerances: {},
+      }),
+    );
     const rows: Array<[rpm: number[], amps: number, timing: number, ohm: number, tempC: number, notes: string]> = [
       [[17_010, 17_030, 17_020], 2.1, 30, 0.0215, 21, 'New motor, first check'],
       [[17_040], 2.12, 30, 0.0216, 23, ''],

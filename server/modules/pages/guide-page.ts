@@ -12,7 +12,6 @@ import { anonymousPages } from './anonymous-pages';
 // Visitors all get the same page for a live guide, so it is kept until the guide (or the library) changes.
 const anonymous = anonymousPages();
 
-
 /**
  * The guide page (/guides/:slug or its permalink /guides/:slug/v/:n) as the browser's first render
  * will draw it — the app's own components fed the reads the browser would make, in the built shell

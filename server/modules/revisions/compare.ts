@@ -54,7 +54,12 @@ export function checkWorkedExamples(body: string): WorkedExampleCheck[] {
   });
 }
 
-export type ThreeWayMerge = { merged: Content; conflicts: MergeConflict[]; bodyRegions: BodyRegion[]; incoming: { changedFields: ChangedField[]; bodyDiff: DiffPart[] } };
+export type ThreeWayMerge = {
+  merged: Content;
+  conflicts: MergeConflict[];
+  bodyRegions: BodyRegion[];
+  incoming: { changedFields: ChangedField[]; bodyDiff: DiffPart[] };
+};
 
 /**
  * Three-way merge of a draft ("ours") and the live revision ("theirs") against the draft's base.

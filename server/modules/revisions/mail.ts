@@ -32,7 +32,10 @@ export function publishedMail(to: { email: string; displayName: string }, a: Abo
     to.email,
     `Now live: ${a.title} (version ${a.number})`,
     'Your revision is live',
-    [`Hello ${to.displayName},`, `${a.reviewerName} reviewed your version ${a.number} of "${a.title}" and published it. Readers now see it. Thank you for the work.`],
+    [
+      `Hello ${to.displayName},`,
+      `${a.reviewerName} reviewed your version ${a.number} of "${a.title}" and published it. Readers now see it. Thank you for the work.`,
+    ],
     { label: 'Read it', url: `${a.appUrl}${pagePath(a.kind, a.slug)}/v/${a.number}` },
   );
 }

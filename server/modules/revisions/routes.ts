@@ -79,7 +79,15 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       response: compareResultSchema,
       handler: async ({ params, query, user, ctx }) => {
         const r = await revisionService(ctx).compare(user, kind, params.slug, query.from, query.to);
-        return { data: { from: presentRevision(r.from), to: presentRevision(r.to), changedFields: r.changedFields, bodyDiff: r.bodyDiff, bodyDiffDetail: r.bodyDiffDetail } };
+        return {
+          data: {
+            from: presentRevision(r.from),
+            to: presentRevision(r.to),
+            changedFields: r.changedFields,
+            bodyDiff: r.bodyDiff,
+            bodyDiffDetail: r.bodyDiffDetail,
+          },
+        };
       },
     }),
     defineRoute({

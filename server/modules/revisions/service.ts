@@ -91,7 +91,10 @@ async function views(m: EntityManager, revs: RevisionEntity[], knownDocs: Docume
   const docs = new Map(knownDocs.map((d) => [d.id, d]));
   const missingDocs = [...new Set(revs.map((r) => r.documentId))].filter((id) => !docs.has(id));
   if (missingDocs.length) for (const d of await m.getRepository(DocumentEntity).findBy({ id: In(missingDocs) })) docs.set(d.id, d);
-  const who = await people(m, revs.flatMap((r) => [r.authorId, r.reviewedBy]));
+  const who = await people(
+    m,
+    revs.flatMap((r) => [r.authorId, r.reviewedBy]),
+  );
   const baseIds = [...new Set(revs.map((r) => r.baseRevisionId).filter((x): x is string => !!x))];
   const baseRows = baseIds.length ? await m.getRepository(RevisionEntity).find({ where: { id: In(baseIds) }, select: { id: true, number: true } }) : [];
   const baseNumbers = new Map(baseRows.map((r) => [r.id, r.number]));
@@ -118,12 +121,27 @@ function lockDocument(m: EntityManager, where: { id: string } | { kind: Document
 
 async function audit(
   m: EntityManager,
-  row: { actorId: string; action: string; subjectKind: 'revision' | 'document'; subjectId: string; from: string | null; to: string | null; reason?: string | null; meta?: Record<string, unknown> },
+  row: {
+    actorId: string;
+    action: string;
+    subjectKind: 'revision' | 'document';
+    subjectId: string;
+    from: string | null;
+    to: string | null;
+    reason?: string | null;
+    meta?: Record<string, unknown>;
+  },
 ) {
   await m.getRepository(AuditLogEntity).insert({ ...row, reason: row.reason ?? null, meta: row.meta ?? {} } as QueryDeepPartialEntity<AuditLogEntity>);
 }
 
-const revMeta = (doc: DocumentEntity, rev: RevisionEntity, extra: Record<string, unknown> = {}) => ({ documentId: doc.id, kind: doc.kind, slug: doc.slug, number: rev.number, ...extra });
+const revMeta = (doc: DocumentEntity, rev: RevisionEntity, extra: Record<string, unknown> = {}) => ({
+  documentId: doc.id,
+  kind: doc.kind,
+  slug: doc.slug,
+  number: rev.number,
+  ...extra,
+});
 
 /**
  * A sent-back revision becomes a draft again on the author's first change to it (text, fields or
@@ -145,7 +163,12 @@ async function nextNumber(m: EntityManager, documentId: string): Promise<number>
 async function staleBase(m: EntityManager, doc: DocumentEntity): Promise<AppError> {
   const live = doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: doc.publishedRevisionId }) : null;
   const current = live ? presentRevision(await view(m, live, doc)) : null;
-  return new AppError(409, 'stale_base', 'The live version changed after this draft was started. Merge your changes into the current version first; your text is kept.', { current });
+  return new AppError(
+    409,
+    'stale_base',
+    'The live version changed after this draft was started. Merge your changes into the current version first; your text is kept.',
+    { current },
+  );
 }
 
 async function assertFreshBase(m: EntityManager, rev: RevisionEntity, doc: DocumentEntity) {
@@ -190,7 +213,17 @@ export function revisionService(ctx: AppContext) {
       .getMany();
     for (const mod of moderators) {
       await ctx.mailer.send(
-        reviewRequestMail(mod, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: rev.id, authorName, note: rev.note, isNew: doc.publishedRevisionId === null }),
+        reviewRequestMail(mod, {
+          appUrl: ctx.config.appUrl,
+          kind: doc.kind,
+          slug: doc.slug,
+          title: titleOf(rev),
+          number: rev.number,
+          revisionId: rev.id,
+          authorName,
+          note: rev.note,
+          isNew: doc.publishedRevisionId === null,
+        }),
         m,
       );
     }
@@ -215,16 +248,40 @@ export function revisionService(ctx: AppContext) {
       for (let attempt = 0; ; attempt++) {
         try {
           return await ctx.dataSource.transaction(async (m) => {
-            const taken: Array<{ slug: string }> = await m.query(`SELECT slug FROM documents WHERE kind = $1 AND (slug = $2 OR slug LIKE $3)`, [kind, wanted, `${wanted}-%`]);
+            const taken: Array<{ slug: string }> = await m.query(`SELECT slug FROM documents WHERE kind = $1 AND (slug = $2 OR slug LIKE $3)`, [
+              kind,
+              wanted,
+              `${wanted}-%`,
+            ]);
             const used = new Set(taken.map((r) => r.slug));
             let slug = wanted;
             for (let n = 2; used.has(slug); n++) slug = `${wanted}-${n}`;
             const doc = await m.getRepository(DocumentEntity).save(m.getRepository(DocumentEntity).create({ kind, slug, createdBy: actor.id }));
-            const rev = await m.getRepository(RevisionEntity).save(
-              m.getRepository(RevisionEntity).create({ documentId: doc.id, number: 1, baseRevisionId: null, authorId: actor.id, state: 'draft', note: note ?? '', content }),
-            );
-            await audit(m, { actorId: actor.id, action: 'document.create', subjectKind: 'document', subjectId: doc.id, from: null, to: 'created', meta: { kind, slug } });
-            await audit(m, { actorId: actor.id, action: 'revision.create', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'draft', meta: revMeta(doc, rev) });
+            const rev = await m
+              .getRepository(RevisionEntity)
+              .save(
+                m
+                  .getRepository(RevisionEntity)
+                  .create({ documentId: doc.id, number: 1, baseRevisionId: null, authorId: actor.id, state: 'draft', note: note ?? '', content }),
+              );
+            await audit(m, {
+              actorId: actor.id,
+              action: 'document.create',
+              subjectKind: 'document',
+              subjectId: doc.id,
+              from: null,
+              to: 'created',
+              meta: { kind, slug },
+            });
+            await audit(m, {
+              actorId: actor.id,
+              action: 'revision.create',
+              subjectKind: 'revision',
+              subjectId: rev.id,
+              from: null,
+              to: 'draft',
+              meta: revMeta(doc, rev),
+            });
             return view(m, rev, doc);
           });
         } catch (err) {
@@ -259,7 +316,15 @@ export function revisionService(ctx: AppContext) {
             setup: base.setup,
           }),
         );
-        await audit(m, { actorId: actor.id, action: 'revision.create', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'draft', meta: revMeta(doc, rev, { baseNumber: base.number }) });
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.create',
+          subjectKind: 'revision',
+          subjectId: rev.id,
+          from: null,
+          to: 'draft',
+          meta: revMeta(doc, rev, { baseNumber: base.number }),
+        });
         return view(m, rev, doc);
       });
     },
@@ -285,7 +350,15 @@ export function revisionService(ctx: AppContext) {
           await reopenIfReturned(m, actor.id, rev, doc);
         }
         if (patch.baseRevisionId) {
-          await audit(m, { actorId: actor.id, action: 'revision.rebase', subjectKind: 'revision', subjectId: id, from: rev.baseRevisionId, to: patch.baseRevisionId, meta: revMeta(doc, rev) });
+          await audit(m, {
+            actorId: actor.id,
+            action: 'revision.rebase',
+            subjectKind: 'revision',
+            subjectId: id,
+            from: rev.baseRevisionId,
+            to: patch.baseRevisionId,
+            meta: revMeta(doc, rev),
+          });
         }
         return reload(m, id, doc);
       });
@@ -301,8 +374,24 @@ export function revisionService(ctx: AppContext) {
         await assertFreshBase(m, rev, doc);
         const from = rev.state;
         await clearApprovals(m, id);
-        await m.getRepository(RevisionEntity).update({ id }, { state: 'in_review', note, content, submittedAt: new Date(), reason: null, reviewedBy: null, reviewedAt: null } as QueryDeepPartialEntity<RevisionEntity>);
-        await audit(m, { actorId: actor.id, action: 'revision.submit', subjectKind: 'revision', subjectId: id, from, to: 'in_review', meta: revMeta(doc, rev, { note }) });
+        await m.getRepository(RevisionEntity).update({ id }, {
+          state: 'in_review',
+          note,
+          content,
+          submittedAt: new Date(),
+          reason: null,
+          reviewedBy: null,
+          reviewedAt: null,
+        } as QueryDeepPartialEntity<RevisionEntity>);
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.submit',
+          subjectKind: 'revision',
+          subjectId: id,
+          from,
+          to: 'in_review',
+          meta: revMeta(doc, rev, { note }),
+        });
         const v = await reload(m, id, doc);
         await mailModerators(m, v.rev, doc, v.author.displayName);
         return v;
@@ -315,7 +404,15 @@ export function revisionService(ctx: AppContext) {
         check(mayWithdraw(actor, rev));
         await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'draft', submittedAt: null });
-        await audit(m, { actorId: actor.id, action: 'revision.withdraw', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'draft', meta: revMeta(doc, rev) });
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.withdraw',
+          subjectKind: 'revision',
+          subjectId: id,
+          from: 'in_review',
+          to: 'draft',
+          meta: revMeta(doc, rev),
+        });
         return reload(m, id, doc);
       });
     },
@@ -337,17 +434,41 @@ export function revisionService(ctx: AppContext) {
           // Archive first: at most one published revision per document, checked row by row.
           await m.getRepository(RevisionEntity).update({ id: previousId }, { state: 'archived' });
           const prev = await m.getRepository(RevisionEntity).findOneByOrFail({ id: previousId });
-          await audit(m, { actorId: actor.id, action: 'revision.archive', subjectKind: 'revision', subjectId: previousId, from: 'published', to: 'archived', meta: revMeta(doc, prev, { supersededBy: rev.number }) });
+          await audit(m, {
+            actorId: actor.id,
+            action: 'revision.archive',
+            subjectKind: 'revision',
+            subjectId: previousId,
+            from: 'published',
+            to: 'archived',
+            meta: revMeta(doc, prev, { supersededBy: rev.number }),
+          });
         }
         await m.getRepository(RevisionEntity).update({ id }, { state: 'published', publishedAt: now, reviewedBy: actor.id, reviewedAt: now });
         await m.getRepository(DocumentEntity).update({ id: doc.id }, { publishedRevisionId: id });
-        await audit(m, { actorId: actor.id, action: 'revision.publish', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'published', meta: revMeta(doc, rev) });
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.publish',
+          subjectKind: 'revision',
+          subjectId: id,
+          from: 'in_review',
+          to: 'published',
+          meta: revMeta(doc, rev),
+        });
         await notifyDocumentChanged(m, { kind: doc.kind, documentId: doc.id, slug: doc.slug, action: 'published' });
         const author = await activeUser(m, rev.authorId);
         const fresh = await reload(m, id, { ...doc, publishedRevisionId: id });
         if (author) {
           await ctx.mailer.send(
-            publishedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator' }),
+            publishedMail(author, {
+              appUrl: ctx.config.appUrl,
+              kind: doc.kind,
+              slug: doc.slug,
+              title: titleOf(rev),
+              number: rev.number,
+              revisionId: id,
+              reviewerName: fresh.reviewer?.displayName ?? 'A moderator',
+            }),
             m,
           );
         }
@@ -363,12 +484,31 @@ export function revisionService(ctx: AppContext) {
         check(mayReview(actor, rev));
         await clearApprovals(m, id);
         await m.getRepository(RevisionEntity).update({ id }, { state: 'returned', reason, reviewedBy: actor.id, reviewedAt: new Date() });
-        await audit(m, { actorId: actor.id, action: 'revision.return', subjectKind: 'revision', subjectId: id, from: 'in_review', to: 'returned', reason, meta: revMeta(doc, rev) });
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.return',
+          subjectKind: 'revision',
+          subjectId: id,
+          from: 'in_review',
+          to: 'returned',
+          reason,
+          meta: revMeta(doc, rev),
+        });
         const fresh = await reload(m, id, doc);
         const author = await activeUser(m, rev.authorId);
         if (author) {
           await ctx.mailer.send(
-            returnedMail(author, { appUrl: ctx.config.appUrl, kind: doc.kind, slug: doc.slug, title: titleOf(rev), number: rev.number, revisionId: id, reviewerName: fresh.reviewer?.displayName ?? 'A moderator', reason, isNew: !rev.baseRevisionId }),
+            returnedMail(author, {
+              appUrl: ctx.config.appUrl,
+              kind: doc.kind,
+              slug: doc.slug,
+              title: titleOf(rev),
+              number: rev.number,
+              revisionId: id,
+              reviewerName: fresh.reviewer?.displayName ?? 'A moderator',
+              reason,
+              isNew: !rev.baseRevisionId,
+            }),
             m,
           );
         }
@@ -388,7 +528,15 @@ export function revisionService(ctx: AppContext) {
         const current = doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId }) : null;
         if (current) {
           await m.getRepository(RevisionEntity).update({ id: current.id }, { state: 'archived' });
-          await audit(m, { actorId: actor.id, action: 'revision.archive', subjectKind: 'revision', subjectId: current.id, from: 'published', to: 'archived', meta: revMeta(doc, current) });
+          await audit(m, {
+            actorId: actor.id,
+            action: 'revision.archive',
+            subjectKind: 'revision',
+            subjectId: current.id,
+            from: 'published',
+            to: 'archived',
+            meta: revMeta(doc, current),
+          });
         }
         const rev = await m.getRepository(RevisionEntity).save(
           m.getRepository(RevisionEntity).create({
@@ -408,7 +556,15 @@ export function revisionService(ctx: AppContext) {
           }),
         );
         await m.getRepository(DocumentEntity).update({ id: doc.id }, { publishedRevisionId: rev.id });
-        await audit(m, { actorId: actor.id, action: 'revision.restore', subjectKind: 'revision', subjectId: rev.id, from: null, to: 'published', meta: revMeta(doc, rev, { restoredFromNumber: target.number }) });
+        await audit(m, {
+          actorId: actor.id,
+          action: 'revision.restore',
+          subjectKind: 'revision',
+          subjectId: rev.id,
+          from: null,
+          to: 'published',
+          meta: revMeta(doc, rev, { restoredFromNumber: target.number }),
+        });
         await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: 'restored' });
         return view(m, rev, { ...doc, publishedRevisionId: rev.id });
       });
@@ -424,7 +580,16 @@ export function revisionService(ctx: AppContext) {
         check(mayHide(actor, d, hide));
         const patch = hide ? { hiddenAt: new Date(), hiddenBy: actor.id, hiddenReason: reason } : { hiddenAt: null, hiddenBy: null, hiddenReason: null };
         await m.getRepository(DocumentEntity).update({ id: d.id }, patch);
-        await audit(m, { actorId: actor.id, action: hide ? 'document.hide' : 'document.unhide', subjectKind: 'document', subjectId: d.id, from: hide ? 'visible' : 'hidden', to: hide ? 'hidden' : 'visible', reason, meta: { kind, slug } });
+        await audit(m, {
+          actorId: actor.id,
+          action: hide ? 'document.hide' : 'document.unhide',
+          subjectKind: 'document',
+          subjectId: d.id,
+          from: hide ? 'visible' : 'hidden',
+          to: hide ? 'hidden' : 'visible',
+          reason,
+          meta: { kind, slug },
+        });
         await notifyDocumentChanged(m, { kind, documentId: d.id, slug, action: hide ? 'hidden' : 'unhidden' });
         return m.getRepository(DocumentEntity).findOneByOrFail({ id: d.id });
       });
@@ -478,7 +643,8 @@ export function revisionService(ctx: AppContext) {
       const m = ctx.dataSource.manager;
       const doc = await visibleDocument(m, actor, kind, slug);
       const qb = m.getRepository(RevisionEntity).createQueryBuilder('r').where('r.document_id = :doc', { doc: doc.id });
-      if (!isModerator(actor)) qb.andWhere('(r.state IN (:...states) OR r.author_id = :me)', { states: PUBLIC_STATES, me: actor?.id ?? '00000000-0000-0000-0000-000000000000' });
+      if (!isModerator(actor))
+        qb.andWhere('(r.state IN (:...states) OR r.author_id = :me)', { states: PUBLIC_STATES, me: actor?.id ?? '00000000-0000-0000-0000-000000000000' });
       const revs = await qb.orderBy('r.number', 'DESC').getMany();
       return { doc, views: await views(m, revs, [doc]) };
     },
@@ -505,7 +671,9 @@ export function revisionService(ctx: AppContext) {
       const rev = await m.getRepository(RevisionEntity).findOneBy({ id });
       if (!rev || !(isAuthor(actor, rev) || isModerator(actor))) throw notFound('That revision');
       const v = await view(m, rev);
-      const live = v.doc.publishedRevisionId ? await m.getRepository(RevisionEntity).findOne({ where: { id: v.doc.publishedRevisionId }, select: { id: true, number: true } }) : null;
+      const live = v.doc.publishedRevisionId
+        ? await m.getRepository(RevisionEntity).findOne({ where: { id: v.doc.publishedRevisionId }, select: { id: true, number: true } })
+        : null;
       return { view: v, publishedNumber: live?.number ?? null };
     },
 
@@ -531,7 +699,11 @@ export function revisionService(ctx: AppContext) {
 
     /** How many proposals this moderator can review (their own are not counted). */
     async reviewCount(actor: NonNullable<Actor>) {
-      return ctx.dataSource.getRepository(RevisionEntity).createQueryBuilder('r').where("r.state = 'in_review' AND r.author_id <> :me", { me: actor.id }).getCount();
+      return ctx.dataSource
+        .getRepository(RevisionEntity)
+        .createQueryBuilder('r')
+        .where("r.state = 'in_review' AND r.author_id <> :me", { me: actor.id })
+        .getCount();
     },
 
     /** A proposal against the live revision: diff, changed metadata and what the calculators say about its worked examples. */
@@ -541,7 +713,10 @@ export function revisionService(ctx: AppContext) {
       // Drafts are not proposals; a moderator sees them only through the author's revision routes.
       if (!rev || rev.state === 'draft') throw notFound('That proposal');
       const v = await view(m, rev);
-      const liveRev = v.doc.publishedRevisionId && v.doc.publishedRevisionId !== rev.id ? await m.getRepository(RevisionEntity).findOneBy({ id: v.doc.publishedRevisionId }) : null;
+      const liveRev =
+        v.doc.publishedRevisionId && v.doc.publishedRevisionId !== rev.id
+          ? await m.getRepository(RevisionEntity).findOneBy({ id: v.doc.publishedRevisionId })
+          : null;
       const live = liveRev ? await view(m, liveRev, v.doc) : null;
       // A waiting proposal is judged against what readers see now; one already decided, against its own base.
       const baseRev = rev.state !== 'in_review' && rev.baseRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: rev.baseRevisionId }) : null;

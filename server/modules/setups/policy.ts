@@ -10,6 +10,12 @@ export function mayChangeBaseline(actor: Actor, rev: RevisionFacts): Decision {
   const who = authorOnly(actor, rev);
   if (!who.ok) return who;
   // A sent-back revision is the author's to fix, baseline included (it becomes a draft again).
-  if (!EDITABLE_STATES.includes(rev.state)) return { ok: false, status: 409, code: 'not_draft', message: 'The baseline can only change while the revision is a draft or sent back; start a new draft to change it.' };
+  if (!EDITABLE_STATES.includes(rev.state))
+    return {
+      ok: false,
+      status: 409,
+      code: 'not_draft',
+      message: 'The baseline can only change while the revision is a draft or sent back; start a new draft to change it.',
+    };
   return ALLOW;
 }

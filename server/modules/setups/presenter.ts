@@ -19,7 +19,15 @@ export function presentSummary(record: SetupRecord): SetupSummary {
 
 export function presentUpload(row: SetupEntity): SetupUpload {
   const record = row.record as SetupRecord;
-  return { id: row.id, originalName: row.originalName, format: row.fileFormat, byteSize: row.byteSize, createdAt: row.createdAt.toISOString(), summary: presentSummary(record), record };
+  return {
+    id: row.id,
+    originalName: row.originalName,
+    format: row.fileFormat,
+    byteSize: row.byteSize,
+    createdAt: row.createdAt.toISOString(),
+    summary: presentSummary(record),
+    record,
+  };
 }
 
 export function presentUploadListItem(row: SetupEntity): Omit<SetupUpload, 'record'> {
@@ -27,7 +35,14 @@ export function presentUploadListItem(row: SetupEntity): Omit<SetupUpload, 'reco
   return rest;
 }
 
-export function presentBaseline(b: { slug: string; number: number; title: string; record: SetupRecord; publishedAt: Date | null; authorDisplayName: string }): SetupBaseline {
+export function presentBaseline(b: {
+  slug: string;
+  number: number;
+  title: string;
+  record: SetupRecord;
+  publishedAt: Date | null;
+  authorDisplayName: string;
+}): SetupBaseline {
   return {
     guideSlug: b.slug,
     guideTitle: b.title,

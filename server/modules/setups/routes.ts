@@ -37,7 +37,12 @@ function sendFile(res: Response, body: string | Buffer, contentType: string, fil
 const compareQuery = z.object({
   a: setupRefSchema,
   b: setupRefSchema,
-  rpm: z.coerce.number({ error: 'rpm must be a number' }).int('rpm must be a whole number').min(0, 'rpm must be at least 0').max(150_000, 'rpm must be at most 150,000').optional(),
+  rpm: z.coerce
+    .number({ error: 'rpm must be a number' })
+    .int('rpm must be a whole number')
+    .min(0, 'rpm must be at least 0')
+    .max(150_000, 'rpm must be at most 150,000')
+    .optional(),
 });
 
 const recordBody = z.record(z.string(), z.unknown(), { error: 'Send the setup record as a JSON object' });
@@ -55,7 +60,10 @@ export const setupRoutes: RouteDef[] = [
       handler: ({ res, ctx }) => {
         const schema = setupRecordJsonSchema(`${ctx.config.appUrl}${SETUP_SCHEMA_PATHS[version]}`, version);
         res.setHeader('Cache-Control', 'public, max-age=3600');
-        res.type('application/schema+json').status(200).send(JSON.stringify(schema, null, 2));
+        res
+          .type('application/schema+json')
+          .status(200)
+          .send(JSON.stringify(schema, null, 2));
       },
     }),
   ),
@@ -169,7 +177,12 @@ export const setupRoutes: RouteDef[] = [
     download: true,
     handler: async ({ params, ctx, res }) => {
       const { record, baseline } = await guideBaseline(ctx.dataSource, params.slug);
-      sendFile(res, JSON.stringify(record, null, 2) + '\n', 'application/json; charset=utf-8', `${baseline.doc.slug}-v${baseline.revision.number}.tunewright.json`);
+      sendFile(
+        res,
+        JSON.stringify(record, null, 2) + '\n',
+        'application/json; charset=utf-8',
+        `${baseline.doc.slug}-v${baseline.revision.number}.tunewright.json`,
+      );
     },
   }),
   defineRoute({
@@ -182,7 +195,12 @@ export const setupRoutes: RouteDef[] = [
     download: true,
     handler: async ({ params, ctx, res }) => {
       const { record, baseline } = await guideBaseline(ctx.dataSource, params.slug);
-      sendFile(res, setupToCsv(record, computeSetup(record)), 'text/csv; charset=utf-8; header=present', `${baseline.doc.slug}-v${baseline.revision.number}.tunewright.csv`);
+      sendFile(
+        res,
+        setupToCsv(record, computeSetup(record)),
+        'text/csv; charset=utf-8; header=present',
+        `${baseline.doc.slug}-v${baseline.revision.number}.tunewright.csv`,
+      );
     },
   }),
   defineRoute({

@@ -73,13 +73,21 @@ export async function guideBaseline(db: Db, slug: string): Promise<{ record: Set
 
 /** Published baselines of every visible guide, newest first. */
 export async function listBaselines(db: Db) {
-  const rows: { slug: string; number: number; content: Record<string, unknown>; setup: SetupRecord; published_at: Date | null; display_name: string | null }[] = await db.query(
-    `SELECT d.slug, r.number, r.content, r.setup, r.published_at, u.display_name
+  const rows: { slug: string; number: number; content: Record<string, unknown>; setup: SetupRecord; published_at: Date | null; display_name: string | null }[] =
+    await db.query(
+      `SELECT d.slug, r.number, r.content, r.setup, r.published_at, u.display_name
        FROM documents d JOIN revisions r ON r.id = d.published_revision_id LEFT JOIN users u ON u.id = r.author_id
       WHERE d.kind = 'guide' AND d.hidden_at IS NULL AND r.setup IS NOT NULL
       ORDER BY r.published_at DESC NULLS LAST, d.slug`,
-  );
-  return rows.map((r) => ({ slug: r.slug, number: r.number, title: String(r.content.title ?? r.slug), record: r.setup, publishedAt: r.published_at, authorDisplayName: r.display_name ?? 'Unknown author' }));
+    );
+  return rows.map((r) => ({
+    slug: r.slug,
+    number: r.number,
+    title: String(r.content.title ?? r.slug),
+    record: r.setup,
+    publishedAt: r.published_at,
+    authorDisplayName: r.display_name ?? 'Unknown author',
+  }));
 }
 
 /**
@@ -94,7 +102,8 @@ export async function createUpload(ctx: AppContext, ownerId: string, file: Expre
   if ('issue' in content) throw invalidSetup(content.status, 'That file is not a setup record.', [content.issue]);
   const library = await loadSettingLibrary(ctx.dataSource);
   const result = parseSetupText(content.text, name.kind, library);
-  if (!result.ok) throw invalidSetup(result.status, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
+  if (!result.ok)
+    throw invalidSetup(result.status, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
 
   const record = canonicalRecord(result.record);
   const motorId = (record.motor as { registeredMotorId?: string }).registeredMotorId;
@@ -169,7 +178,8 @@ export async function attachToRevision(ctx: AppContext, user: Actor, revisionId:
   return ctx.dataSource.transaction(async (m) => {
     const { revision, doc } = await ownDraft(m, user, revisionId);
     const result = validateSetupObject(body, await loadSettingLibrary(m));
-    if (!result.ok) throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
+    if (!result.ok)
+      throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
     // Provenance is stamped on export from the revision itself; whatever came in is not kept.
     const { provenance: _ignored, ...record } = canonicalRecord(result.record);
     // A baseline is public once live; motors are private, so a guide's baseline never names one.

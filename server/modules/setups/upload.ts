@@ -22,10 +22,18 @@ export function parseSetupUpload(req: Request, res: Response, next: NextFunction
   parser(req, res, (err?: unknown) => {
     if (!err) return next();
     const e = err as { code?: string; field?: string; message?: string };
-    if (e.code === 'LIMIT_FILE_SIZE') return next(invalidSetup(413, 'That file is too large.', [{ path: 'file', message: `Setup files are at most ${LIMITS.uploadBytes / 1024} KB` }]));
-    if (e.code === 'LIMIT_UNEXPECTED_FILE') return next(invalidSetup(400, 'Send one file in the "file" field.', [{ path: e.field ?? 'file', message: 'Send one file, in the field named "file"' }]));
-    if (e.code?.startsWith('LIMIT_')) return next(invalidSetup(400, 'The upload was refused.', [{ path: e.field ?? 'file', message: e.message ?? 'Too many parts in the upload' }]));
-    if (/header/i.test(e.message ?? '')) return next(invalidSetup(400, 'The upload could not be read.', [{ path: 'file', message: 'A part header (such as the file name) holds characters that are not allowed; rename the file and try again' }]));
+    if (e.code === 'LIMIT_FILE_SIZE')
+      return next(invalidSetup(413, 'That file is too large.', [{ path: 'file', message: `Setup files are at most ${LIMITS.uploadBytes / 1024} KB` }]));
+    if (e.code === 'LIMIT_UNEXPECTED_FILE')
+      return next(invalidSetup(400, 'Send one file in the "file" field.', [{ path: e.field ?? 'file', message: 'Send one file, in the field named "file"' }]));
+    if (e.code?.startsWith('LIMIT_'))
+      return next(invalidSetup(400, 'The upload was refused.', [{ path: e.field ?? 'file', message: e.message ?? 'Too many parts in the upload' }]));
+    if (/header/i.test(e.message ?? ''))
+      return next(
+        invalidSetup(400, 'The upload could not be read.', [
+          { path: 'file', message: 'A part header (such as the file name) holds characters that are not allowed; rename the file and try again' },
+        ]),
+      );
     return next(invalidSetup(400, 'The upload could not be read.', [{ path: 'file', message: 'The multipart body is malformed or was cut off; try again' }]));
   });
 }
@@ -47,7 +55,10 @@ export function checkFileName(raw: string): { kind: 'json' | 'csv'; displayName:
     return { status: 400, issue: { path: 'file.name', message: 'The file name must not contain a folder path (/, \\ or ..); rename the file and try again' } };
   }
   if (ODD_CHARACTERS.test(raw)) {
-    return { status: 400, issue: { path: 'file.name', message: 'The file name contains control, invisible or undecodable characters; rename the file and try again' } };
+    return {
+      status: 400,
+      issue: { path: 'file.name', message: 'The file name contains control, invisible or undecodable characters; rename the file and try again' },
+    };
   }
   const name = raw.normalize('NFC').trim();
   if (name.length === 0 || name.length > 120) return { status: 400, issue: { path: 'file.name', message: 'The file name must be 1 to 120 characters long' } };
@@ -55,15 +66,27 @@ export function checkFileName(raw: string): { kind: 'json' | 'csv'; displayName:
   if (!match) return { status: 415, issue: { path: 'file.name', message: 'Only .json (our setup record) or .csv (our CSV layout) files are accepted' } };
   const kind = match[1].toLowerCase() as 'json' | 'csv';
   // What is left is shown on screen and used as a download name: letters, digits and a few safe marks only.
-  const stem = name.slice(0, -match[0].length).replace(/[^\p{L}\p{N} ._()+-]/gu, '_').replace(/\s+/g, ' ').replace(/^[.\s]+/, '').trim() || 'setup';
+  const stem =
+    name
+      .slice(0, -match[0].length)
+      .replace(/[^\p{L}\p{N} ._()+-]/gu, '_')
+      .replace(/\s+/g, ' ')
+      .replace(/^[.\s]+/, '')
+      .trim() || 'setup';
   return { kind, displayName: `${stem}.${kind}` };
 }
 
 /** Checks the declared type and the bytes; returns the text, or the reason the file is refused. */
-export function checkFileContent(file: { mimetype: string; buffer: Buffer }, kind: 'json' | 'csv'): { text: string } | { status: 400 | 415; issue: SetupIssue } {
+export function checkFileContent(
+  file: { mimetype: string; buffer: Buffer },
+  kind: 'json' | 'csv',
+): { text: string } | { status: 400 | 415; issue: SetupIssue } {
   const declared = (file.mimetype ?? '').split(';')[0].trim().toLowerCase();
   if (!ACCEPTED_TYPES[kind].includes(declared)) {
-    return { status: 415, issue: { path: 'file.type', message: `A .${kind} file was sent as ${declared}; send it as ${kind === 'json' ? 'application/json' : 'text/csv'}` } };
+    return {
+      status: 415,
+      issue: { path: 'file.type', message: `A .${kind} file was sent as ${declared}; send it as ${kind === 'json' ? 'application/json' : 'text/csv'}` },
+    };
   }
   if (file.buffer.length === 0) return { status: 400, issue: { path: 'file', message: 'The file is empty' } };
   if (file.buffer.includes(0)) return { status: 415, issue: { path: 'file', message: 'This is a binary file, not a text setup record' } };

@@ -8,7 +8,8 @@ export function AdminUsersPage() {
       {(me) => (
         <>
           <PageHeader eyebrow="Administration" title="Accounts">
-            Grant or remove the moderator role and disable abusive accounts. Disabling signs the account out everywhere at once. Every change is written to the audit log.
+            Grant or remove the moderator role and disable abusive accounts. Disabling signs the account out everywhere at once. Every change is written to the
+            audit log.
           </PageHeader>
           <UsersTable me={me} />
         </>

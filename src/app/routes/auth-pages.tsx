@@ -48,7 +48,13 @@ export function ResetPasswordPage() {
   const token = params.get('token');
   return (
     <AuthFrame title="Choose a new password" lead="At least 12 characters; a few unrelated words work well.">
-      {token ? <ResetPasswordForm token={token} /> : <Notice tone="danger">This link has no token. <Link to="/forgot-password">Ask for a new link</Link>.</Notice>}
+      {token ? (
+        <ResetPasswordForm token={token} />
+      ) : (
+        <Notice tone="danger">
+          This link has no token. <Link to="/forgot-password">Ask for a new link</Link>.
+        </Notice>
+      )}
     </AuthFrame>
   );
 }

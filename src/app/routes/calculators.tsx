@@ -13,8 +13,8 @@ export function CalculatorsPage() {
   return (
     <div>
       <PageHeader eyebrow="Work the numbers" title="Calculators">
-        The same calculators that power the worked examples in the library and the guides. Results update as you type, and every page keeps its inputs
-        in the link, so you can send a result to a clubmate.
+        The same calculators that power the worked examples in the library and the guides. Results update as you type, and every page keeps its inputs in the
+        link, so you can send a result to a clubmate.
       </PageHeader>
       <CalculatorIndex />
     </div>
@@ -52,8 +52,8 @@ export function CalculatorPage() {
       </PageHeader>
       <CalculatorWorkbench key={name} name={name} />
       <p className="mt-4 max-w-3xl text-xs leading-5 text-ink-muted">
-        Results are estimates from the standard relations, rounded for reading. Your equipment maker’s instructions and your track’s and sanctioning
-        body’s rules come first.
+        Results are estimates from the standard relations, rounded for reading. Your equipment maker’s instructions and your track’s and sanctioning body’s
+        rules come first.
       </p>
     </div>
   );

@@ -5,7 +5,8 @@ export function DevMailPage() {
   return (
     <>
       <PageHeader eyebrow="Local demo" title="Captured mail">
-        Mail sent by this local copy of Tunewright lands here instead of a real mailbox. Production sends through the configured SMTP server and has no such page.
+        Mail sent by this local copy of Tunewright lands here instead of a real mailbox. Production sends through the configured SMTP server and has no such
+        page.
       </PageHeader>
       <Mailbox />
     </>

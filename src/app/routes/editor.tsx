@@ -35,7 +35,8 @@ function BaselineSection({ revisionId, editable, initial }: { revisionId: string
         Baseline setup record
       </h2>
       <p className="mb-4 text-sm text-ink-soft">
-        The setup readers download with this version: fill it in, or load one of your files. Values are checked against the parameter library’s ranges, and the review shows every changed field.
+        The setup readers download with this version: fill it in, or load one of your files. Values are checked against the parameter library’s ranges, and the
+        review shows every changed field.
       </p>
       {!revisionId ? (
         <Notice>Give the guide a title, summary, class and surface first; once the draft is saved you can attach its baseline.</Notice>
@@ -70,11 +71,23 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
   const parameterOptions = useQuery(guideQueries.parameterOptions()).data ?? [];
 
   if (draftId && draft.isPending) return <Spinner label="Opening your draft…" />;
-  if (draftId && draft.isError) return <Notice tone="danger" title="This draft could not be opened">{draft.error.message}</Notice>;
+  if (draftId && draft.isError)
+    return (
+      <Notice tone="danger" title="This draft could not be opened">
+        {draft.error.message}
+      </Notice>
+    );
   if (slug && live.isPending && !draftId) return <Spinner label="Loading the live version…" />;
-  if (slug && live.isError && !draftId) return <Notice tone="danger" title="There is no live version to edit">{live.error.message}</Notice>;
+  if (slug && live.isError && !draftId)
+    return (
+      <Notice tone="danger" title="There is no live version to edit">
+        {live.error.message}
+      </Notice>
+    );
 
-  const existing = !draftId ? mine.data?.find((r) => r.kind === kind && r.slug === slug && (r.state === 'draft' || r.state === 'returned' || r.state === 'in_review')) : undefined;
+  const existing = !draftId
+    ? mine.data?.find((r) => r.kind === kind && r.slug === slug && (r.state === 'draft' || r.state === 'returned' || r.state === 'in_review'))
+    : undefined;
   const liveRevision = live.data ?? null;
 
   const handleCreated = (revision: Revision, newSlug: string) => {
@@ -92,7 +105,9 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
     <div className="flex flex-col gap-4">
       {existing && (
         <Notice tone="caution" title="You already have a revision of this in progress">
-          Version {existing.number} is on your workbench. <Link to={kind === 'guide' ? `/guides/${slug}/edit?draft=${existing.id}` : `/parameters/${slug}/edit?draft=${existing.id}`}>Continue that one</Link> rather than starting a second.
+          Version {existing.number} is on your workbench.{' '}
+          <Link to={kind === 'guide' ? `/guides/${slug}/edit?draft=${existing.id}` : `/parameters/${slug}/edit?draft=${existing.id}`}>Continue that one</Link>{' '}
+          rather than starting a second.
         </Notice>
       )}
       <DocumentEditor
@@ -107,7 +122,12 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
         onSubmitted={() => navigate('/me/revisions')}
         renderBaseline={(revisionId, editable) => (
           <>
-            <BaselineSection key={revisionId ?? 'new'} revisionId={revisionId} editable={editable} initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null} />
+            <BaselineSection
+              key={revisionId ?? 'new'}
+              revisionId={revisionId}
+              editable={editable}
+              initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null}
+            />
             {kind === 'guide' && <EvidencePicker revisionId={revisionId} editable={editable} />}
           </>
         )}
@@ -138,7 +158,8 @@ export function GuideEditPage() {
       {() => (
         <>
           <PageHeader eyebrow="Propose an edit" title="Edit the guide">
-            Your changes stay a draft on your workbench until you submit them; the live guide does not change until a moderator publishes them. <Link to={`/guides/${slug}`}>Back to the guide</Link>
+            Your changes stay a draft on your workbench until you submit them; the live guide does not change until a moderator publishes them.{' '}
+            <Link to={`/guides/${slug}`}>Back to the guide</Link>
           </PageHeader>
           <EditorScreen kind="guide" slug={slug} />
         </>
@@ -154,7 +175,8 @@ export function ParameterEditPage() {
       {() => (
         <>
           <PageHeader eyebrow="Propose an edit" title="Edit the setting’s entry">
-            A correction or an addition to the parameter library, reviewed by a moderator before it goes live. <Link to={`/parameters/${slug}`}>Back to the entry</Link>
+            A correction or an addition to the parameter library, reviewed by a moderator before it goes live.{' '}
+            <Link to={`/parameters/${slug}`}>Back to the entry</Link>
           </PageHeader>
           <EditorScreen kind="parameter" slug={slug} />
         </>

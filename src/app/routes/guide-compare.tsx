@@ -15,9 +15,16 @@ export function GuideComparePage() {
   return (
     <>
       <PageHeader eyebrow="Compare versions" title={detail.data?.revision.content.title ?? 'Guide'}>
-        {valid ? `Version ${from} against version ${to}.` : 'Pick two versions from the history.'} <Link to={`/guides/${slug}#history`}>Back to the guide and its history</Link>
+        {valid ? `Version ${from} against version ${to}.` : 'Pick two versions from the history.'}{' '}
+        <Link to={`/guides/${slug}#history`}>Back to the guide and its history</Link>
       </PageHeader>
-      {valid ? <CompareView slug={slug} from={from} to={to} /> : <Notice tone="caution" title="Two version numbers are needed">Open the guide’s history and choose the versions to compare.</Notice>}
+      {valid ? (
+        <CompareView slug={slug} from={from} to={to} />
+      ) : (
+        <Notice tone="caution" title="Two version numbers are needed">
+          Open the guide’s history and choose the versions to compare.
+        </Notice>
+      )}
     </>
   );
 }

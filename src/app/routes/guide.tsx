@@ -50,7 +50,10 @@ export function GuidePage() {
   const actions = (
     <>
       {me && (
-        <Link to={`/guides/${slug}/edit`} className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark">
+        <Link
+          to={`/guides/${slug}/edit`}
+          className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark"
+        >
           Propose an edit
         </Link>
       )}
@@ -67,7 +70,13 @@ export function GuidePage() {
             {canModerate && <UnhideGuideButton slug={slug} onShown={() => setSwapped('shown')} focusOnMount={swapped === 'hidden'} />}
           </Notice>
         )}
-        <GuideArticle revision={revision} liveNumber={number != null ? liveNumber : null} renderWorkedExample={renderWorkedExample} parameterNames={parameterNames} actions={actions} />
+        <GuideArticle
+          revision={revision}
+          liveNumber={number != null ? liveNumber : null}
+          renderWorkedExample={renderWorkedExample}
+          parameterNames={parameterNames}
+          actions={actions}
+        />
         {revision.number === liveNumber ? (
           <section id="setup" className="mt-10 scroll-mt-4" aria-label="Baseline setup">
             <SetupSheet slug={slug} />
@@ -93,7 +102,9 @@ export function GuidePage() {
           <p className="font-semibold">Version {revision.number}</p>
           <p className="text-ink-soft">Every edit is reviewed by a moderator before it goes live.</p>
           <a href="#history">See the history</a>
-          {liveNumber != null && liveNumber > 1 && <Link to={`/guides/${slug}/compare?from=${liveNumber - 1}&to=${liveNumber}`}>What changed in the last edit</Link>}
+          {liveNumber != null && liveNumber > 1 && (
+            <Link to={`/guides/${slug}/compare?from=${liveNumber - 1}&to=${liveNumber}`}>What changed in the last edit</Link>
+          )}
         </Card>
       </aside>
     </div>

@@ -3,10 +3,26 @@ import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 
 const JOURNEYS = [
-  { to: '/parameters', title: 'Look up a setting', body: 'What drag brake, punch, ramped advance or low-voltage cutoff does, which way to move it, and what it costs in heat and run time.' },
-  { to: '/guides', title: 'Read a tuner’s guide', body: 'Written for one class on one track, checked by a moderator before it goes live, with every earlier version kept.' },
-  { to: '/setups', title: 'Download a baseline', body: 'A setup record to start from, and a side-by-side comparison with your own: ratio, rollout, top speed and pack cutoff.' },
-  { to: '/calculators', title: 'Work the numbers', body: 'Gearing, motor speed, timing curve, pack voltages, throttle and brake, temperature — recomputed as you type.' },
+  {
+    to: '/parameters',
+    title: 'Look up a setting',
+    body: 'What drag brake, punch, ramped advance or low-voltage cutoff does, which way to move it, and what it costs in heat and run time.',
+  },
+  {
+    to: '/guides',
+    title: 'Read a tuner’s guide',
+    body: 'Written for one class on one track, checked by a moderator before it goes live, with every earlier version kept.',
+  },
+  {
+    to: '/setups',
+    title: 'Download a baseline',
+    body: 'A setup record to start from, and a side-by-side comparison with your own: ratio, rollout, top speed and pack cutoff.',
+  },
+  {
+    to: '/calculators',
+    title: 'Work the numbers',
+    body: 'Gearing, motor speed, timing curve, pack voltages, throttle and brake, temperature — recomputed as you type.',
+  },
 ];
 
 export function HomePage() {
@@ -17,7 +33,8 @@ export function HomePage() {
           <p className="text-xs font-semibold tracking-[0.14em] text-copper uppercase">Tidewater RC Club · Harbour Flats Indoor</p>
           <h1 className="mt-2 font-serif text-4xl leading-tight font-bold sm:text-5xl">The tuning notebook for speed controllers, motors and gearing.</h1>
           <p className="mt-4 max-w-xl text-lg text-ink-soft">
-            Every setting explained in plain words, worked examples you can recompute with your own numbers, and guides from experienced tuners — each edit reviewed by a moderator before it goes live.
+            Every setting explained in plain words, worked examples you can recompute with your own numbers, and guides from experienced tuners — each edit
+            reviewed by a moderator before it goes live.
           </p>
           <div className="mt-6 flex flex-wrap gap-3">
             <Link to="/parameters" className="rounded-md bg-copper px-4 py-2 font-medium text-white no-underline hover:bg-copper-dark">
@@ -49,7 +66,9 @@ export function HomePage() {
         ))}
       </section>
       <Notice tone="caution" title="Heat and lithium packs deserve respect">
-        Aggressive timing and tall gearing heat motors and controllers; over-discharging a lithium pack damages it and can start a fire. Check temperatures after a few minutes on track, charge on a fire-safe surface, and follow your equipment maker’s instructions and your track’s and sanctioning body’s rules.
+        Aggressive timing and tall gearing heat motors and controllers; over-discharging a lithium pack damages it and can start a fire. Check temperatures
+        after a few minutes on track, charge on a fire-safe surface, and follow your equipment maker’s instructions and your track’s and sanctioning body’s
+        rules.
       </Notice>
     </div>
   );

@@ -22,8 +22,8 @@ export function ParametersPage() {
   return (
     <div>
       <PageHeader eyebrow="Reference" title="Parameter library">
-        Every common speed-controller, motor, gearing and battery setting in plain words: what it does, which way to move it, what it costs in heat
-        and run time, and where it can hurt equipment or people. Settings are described generically — your controller may name them differently.
+        Every common speed-controller, motor, gearing and battery setting in plain words: what it does, which way to move it, what it costs in heat and run
+        time, and where it can hurt equipment or people. Settings are described generically — your controller may name them differently.
       </PageHeader>
       {list.isPending && <Spinner label="Loading the library…" />}
       {list.isError && (

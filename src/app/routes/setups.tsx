@@ -21,7 +21,10 @@ export function SetupsPage() {
             <Link to="/runs" className="rounded-md border border-ink/25 bg-paper-card px-4 py-2 font-medium text-ink no-underline hover:bg-paper-deep">
               Run logs
             </Link>
-            <Link to="/setups/compare" className="rounded-md border border-ink/25 bg-paper-card px-4 py-2 font-medium text-ink no-underline hover:bg-paper-deep">
+            <Link
+              to="/setups/compare"
+              className="rounded-md border border-ink/25 bg-paper-card px-4 py-2 font-medium text-ink no-underline hover:bg-paper-deep"
+            >
               Compare two setups
             </Link>
             <Link to="/setups/new" className="rounded-md bg-copper px-4 py-2 font-medium text-white no-underline hover:bg-copper-dark">
@@ -52,7 +55,8 @@ export function SetupsPage() {
               </Card>
             ) : (
               <Card className="p-4 text-sm">
-                <Link to="/sign-in?next=%2Fsetups">Sign in</Link> to upload your own setups and compare them with a baseline. Uploads are private to your account.
+                <Link to="/sign-in?next=%2Fsetups">Sign in</Link> to upload your own setups and compare them with a baseline. Uploads are private to your
+                account.
               </Card>
             )}
           </div>

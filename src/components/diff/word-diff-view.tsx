@@ -141,7 +141,10 @@ export function WordDiffView({
 function show(value: unknown): string {
   if (value === null || value === undefined || value === '') return '—';
   if (Array.isArray(value)) return value.length ? value.map(show).join(', ') : '—';
-  if (typeof value === 'object') return Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k}: ${show(v)}`).join(', ');
+  if (typeof value === 'object')
+    return Object.entries(value as Record<string, unknown>)
+      .map(([k, v]) => `${k}: ${show(v)}`)
+      .join(', ');
   return String(value);
 }
 
@@ -163,7 +166,17 @@ const FIELD_LABELS: Record<string, string> = {
 };
 
 /** The metadata fields that differ between two revisions, as a calm table. */
-export function FieldChangesTable({ changes, fromLabel, toLabel, caption = 'Changed details' }: { changes: FieldChange[]; fromLabel: string; toLabel: string; caption?: string }) {
+export function FieldChangesTable({
+  changes,
+  fromLabel,
+  toLabel,
+  caption = 'Changed details',
+}: {
+  changes: FieldChange[];
+  fromLabel: string;
+  toLabel: string;
+  caption?: string;
+}) {
   if (changes.length === 0) return <p className="text-sm text-ink-soft">No details changed besides the text.</p>;
   return (
     <div className="table-scroll">
@@ -171,15 +184,23 @@ export function FieldChangesTable({ changes, fromLabel, toLabel, caption = 'Chan
         <caption className="mb-2 text-left text-sm font-semibold text-ink">{caption}</caption>
         <thead>
           <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-            <th scope="col" className="px-3 py-2 font-semibold">Field</th>
-            <th scope="col" className="px-3 py-2 font-semibold">{fromLabel}</th>
-            <th scope="col" className="px-3 py-2 font-semibold">{toLabel}</th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Field
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              {fromLabel}
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              {toLabel}
+            </th>
           </tr>
         </thead>
         <tbody>
           {changes.map((c) => (
             <tr key={c.field} className="border-b border-paper-line align-top">
-              <th scope="row" className="px-3 py-2 text-left font-medium">{c.label ?? FIELD_LABELS[c.field] ?? c.field}</th>
+              <th scope="row" className="px-3 py-2 text-left font-medium">
+                {c.label ?? FIELD_LABELS[c.field] ?? c.field}
+              </th>
               <td className="px-3 py-2 text-danger">{show(c.from)}</td>
               <td className="px-3 py-2 text-ok">{show(c.to)}</td>
             </tr>

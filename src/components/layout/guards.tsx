@@ -11,7 +11,10 @@ export function SignInRequired() {
     <Card className="mx-auto max-w-lg p-8 text-center">
       <h1 className="font-serif text-2xl font-bold">Sign in to continue</h1>
       <p className="mt-2 text-ink-soft">This page belongs to a signed-in account.</p>
-      <Link to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`} className="mt-5 inline-block rounded-md bg-copper px-4 py-2 font-medium text-white no-underline hover:bg-copper-dark">
+      <Link
+        to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`}
+        className="mt-5 inline-block rounded-md bg-copper px-4 py-2 font-medium text-white no-underline hover:bg-copper-dark"
+      >
         Sign in
       </Link>
     </Card>
@@ -22,7 +25,10 @@ export function NotAllowed({ role }: { role: Role }) {
   return (
     <Card className="mx-auto max-w-lg p-8 text-center">
       <h1 className="font-serif text-2xl font-bold">Not allowed</h1>
-      <p className="mt-2 text-ink-soft">This page is for {role === 'admin' ? 'administrators' : role === 'moderator' ? 'moderators' : 'members'}. If you think you should have access, ask an administrator of the club.</p>
+      <p className="mt-2 text-ink-soft">
+        This page is for {role === 'admin' ? 'administrators' : role === 'moderator' ? 'moderators' : 'members'}. If you think you should have access, ask an
+        administrator of the club.
+      </p>
       <Link to="/" className="mt-5 inline-block">
         Back to the start page
       </Link>

@@ -11,7 +11,10 @@ const styles: Record<Variant, string> = {
 export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; pending?: boolean; size?: 'sm' | 'md' };
 
 /** The product's button; `pending` disables it and shows progress. */
-export const Button = forwardRef<HTMLButtonElement, ButtonProps>(function Button({ variant = 'primary', pending, size = 'md', className = '', children, disabled, ...rest }, ref) {
+export const Button = forwardRef<HTMLButtonElement, ButtonProps>(function Button(
+  { variant = 'primary', pending, size = 'md', className = '', children, disabled, ...rest },
+  ref,
+) {
   const pad = size === 'sm' ? 'px-3 py-1.5 text-sm' : 'px-4 py-2 text-[0.95rem]';
   return (
     <button

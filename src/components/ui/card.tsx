@@ -33,6 +33,11 @@ export function Spinner({ label = 'Loading…' }: { label?: string }) {
 }
 
 export function Chip({ children, tone = 'plain' }: { children: ReactNode; tone?: 'plain' | 'copper' | 'ink' }) {
-  const t = tone === 'copper' ? 'bg-copper-wash text-copper-dark border-copper/30' : tone === 'ink' ? 'bg-ink text-paper border-ink' : 'bg-paper-deep text-ink-soft border-paper-line';
+  const t =
+    tone === 'copper'
+      ? 'bg-copper-wash text-copper-dark border-copper/30'
+      : tone === 'ink'
+        ? 'bg-ink text-paper border-ink'
+        : 'bg-paper-deep text-ink-soft border-paper-line';
   return <span className={`inline-flex items-center rounded-full border px-2.5 py-0.5 text-xs font-medium ${t}`}>{children}</span>;
 }

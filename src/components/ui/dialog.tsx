@@ -4,7 +4,19 @@ import { useEffect, useId, useRef, type ReactNode } from 'react';
  * A modal dialog on the native <dialog> element: focus is trapped and Escape closes it
  * without any extra script, and the page behind is inert.
  */
-export function Dialog({ open, onClose, title, children, footer }: { open: boolean; onClose: () => void; title: ReactNode; children: ReactNode; footer?: ReactNode }) {
+export function Dialog({
+  open,
+  onClose,
+  title,
+  children,
+  footer,
+}: {
+  open: boolean;
+  onClose: () => void;
+  title: ReactNode;
+  children: ReactNode;
+  footer?: ReactNode;
+}) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
   useEffect(() => {

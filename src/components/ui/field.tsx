@@ -47,12 +47,21 @@ export const TextField = forwardRef<HTMLInputElement, TextFieldProps>(function T
 
 type SelectFieldProps = SelectHTMLAttributes<HTMLSelectElement> & { label: ReactNode; error?: string; hint?: ReactNode };
 
-export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(function SelectField({ label, error, hint, id, className = '', children, ...rest }, ref) {
+export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(function SelectField(
+  { label, error, hint, id, className = '', children, ...rest },
+  ref,
+) {
   const auto = useId();
   const fieldId = id ?? auto;
   return (
     <FieldShell label={label} error={error} hint={hint} id={fieldId}>
-      <select ref={ref} id={fieldId} aria-invalid={error ? true : undefined} className={`${control} ${error ? 'border-danger' : 'border-ink/25'} ${className}`} {...rest}>
+      <select
+        ref={ref}
+        id={fieldId}
+        aria-invalid={error ? true : undefined}
+        className={`${control} ${error ? 'border-danger' : 'border-ink/25'} ${className}`}
+        {...rest}
+      >
         {children}
       </select>
     </FieldShell>
@@ -61,12 +70,21 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
 
 type TextAreaFieldProps = TextareaHTMLAttributes<HTMLTextAreaElement> & { label: ReactNode; error?: string; hint?: ReactNode };
 
-export const TextAreaField = forwardRef<HTMLTextAreaElement, TextAreaFieldProps>(function TextAreaField({ label, error, hint, id, className = '', ...rest }, ref) {
+export const TextAreaField = forwardRef<HTMLTextAreaElement, TextAreaFieldProps>(function TextAreaField(
+  { label, error, hint, id, className = '', ...rest },
+  ref,
+) {
   const auto = useId();
   const fieldId = id ?? auto;
   return (
     <FieldShell label={label} error={error} hint={hint} id={fieldId}>
-      <textarea ref={ref} id={fieldId} aria-invalid={error ? true : undefined} className={`${control} ${error ? 'border-danger' : 'border-ink/25'} ${className}`} {...rest} />
+      <textarea
+        ref={ref}
+        id={fieldId}
+        aria-invalid={error ? true : undefined}
+        className={`${control} ${error ? 'border-danger' : 'border-ink/25'} ${className}`}
+        {...rest}
+      />
     </FieldShell>
   );
 });

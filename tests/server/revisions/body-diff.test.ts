@@ -18,7 +18,10 @@ function body(seed: number, chars: number, perLine = 12) {
   return out.slice(0, chars);
 }
 const text = (parts: { value: string; added?: boolean; removed?: boolean }[], side: 'from' | 'to') =>
-  parts.filter((p) => (side === 'from' ? !p.added : !p.removed)).map((p) => p.value).join('');
+  parts
+    .filter((p) => (side === 'from' ? !p.added : !p.removed))
+    .map((p) => p.value)
+    .join('');
 
 describe('bounded body diff', () => {
   it('marks the same words as an unbounded word diff when the edit is small', async () => {
@@ -28,7 +31,9 @@ describe('bounded body diff', () => {
     expect(r.detail).toBe('words');
     const changed = (parts: { value: string; added?: boolean; removed?: boolean }[]) => parts.filter((p) => p.added || p.removed);
     // The diff package's own unbounded word diff as the reference.
-    expect(changed(r.parts)).toEqual(changed(diffWordsWithSpace(from, to).map((c) => ({ value: c.value, ...(c.added ? { added: true } : {}), ...(c.removed ? { removed: true } : {}) }))));
+    expect(changed(r.parts)).toEqual(
+      changed(diffWordsWithSpace(from, to).map((c) => ({ value: c.value, ...(c.added ? { added: true } : {}), ...(c.removed ? { removed: true } : {}) }))),
+    );
   });
 
   it('always rebuilds both texts exactly, however coarse it had to be', async () => {
@@ -99,7 +104,9 @@ describe('GET /api/guides/:slug/compare and GET /api/reviews/:id with maximum-si
     expect(healthTimes.length).toBeGreaterThan(0);
     // Before the diff was bounded and moved off the request thread, one such review held every request for
     // minutes. The bounds are wide because this machine is shared; the figures are printed for the record.
-    console.log(`max-size review diff: ${Math.round(reviewMs)} ms; ${healthTimes.length} health checks meanwhile, slowest ${Math.round(Math.max(...healthTimes))} ms`);
+    console.log(
+      `max-size review diff: ${Math.round(reviewMs)} ms; ${healthTimes.length} health checks meanwhile, slowest ${Math.round(Math.max(...healthTimes))} ms`,
+    );
     expect(reviewMs).toBeLessThan(5000);
     expect(Math.max(...healthTimes)).toBeLessThan(500);
   });

@@ -64,7 +64,22 @@ describe('changedFields', () => {
 
 describe('workedExampleBlocks', () => {
   it('finds ``` and ~~~ worked-example fences, skipping other code and fences inside longer fences', () => {
-    const body = ['```worked-example', 'calc: motor', '```', '````md', '```worked-example', 'calc: nope', '```', '````', '~~~ worked-example', 'calc: pack', '~~~', '```js', 'x', '```'].join('\n');
+    const body = [
+      '```worked-example',
+      'calc: motor',
+      '```',
+      '````md',
+      '```worked-example',
+      'calc: nope',
+      '```',
+      '````',
+      '~~~ worked-example',
+      'calc: pack',
+      '~~~',
+      '```js',
+      'x',
+      '```',
+    ].join('\n');
     expect(workedExampleBlocks(body)).toEqual(['calc: motor', 'calc: pack']);
   });
 });

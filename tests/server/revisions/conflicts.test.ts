@@ -79,14 +79,19 @@ describe('POST /api/revisions/:id/rebase', () => {
   it('merges non-overlapping changes automatically (body by lines, metadata by field)', async () => {
     const aliceBody = BASE_BODY.replace('Spur 78, pinion 34.', 'Spur 81, pinion 34.');
     const bramBody = BASE_BODY.replace('Punch at level 3.', 'Punch at level 2 for the slick morning.');
-    const { b, a } = await twoEditors(aliceBody, bramBody, { alice: { tags: ['stock', 'spring'] }, bram: { summary: 'A calmer baseline for slick mornings on the tight indoor layout.' } });
+    const { b, a } = await twoEditors(aliceBody, bramBody, {
+      alice: { tags: ['stock', 'spring'] },
+      bram: { summary: 'A calmer baseline for slick mornings on the tight indoor layout.' },
+    });
     const res = await bram.post(`/api/revisions/${b.id}/rebase`);
     expect(res.status).toBe(200);
     const data = res.body.data;
     expect(data.conflicts).toEqual([]);
     expect(data.currentRevisionId).toBe(a.id);
     expect(data.stale).toBe(true);
-    expect(data.merged.body).toBe(BASE_BODY.replace('Spur 78, pinion 34.', 'Spur 81, pinion 34.').replace('Punch at level 3.', 'Punch at level 2 for the slick morning.'));
+    expect(data.merged.body).toBe(
+      BASE_BODY.replace('Spur 78, pinion 34.', 'Spur 81, pinion 34.').replace('Punch at level 3.', 'Punch at level 2 for the slick morning.'),
+    );
     expect(data.merged.tags).toEqual(['stock', 'spring']);
     expect(data.merged.summary).toBe('A calmer baseline for slick mornings on the tight indoor layout.');
     // What the merge brings into Bram's draft: Alice's tags and her gearing words, nothing of his own.
@@ -111,17 +116,35 @@ describe('POST /api/revisions/:id/rebase', () => {
   it('reports overlapping changes as conflicts (body hunk and metadata field), keeping our text in the merge', async () => {
     const aliceBody = BASE_BODY.replace('Drag brake at 10 %.', 'Drag brake at 5 %.');
     const bramBody = BASE_BODY.replace('Drag brake at 10 %.', 'Drag brake at 15 % for the hairpin.');
-    const { b } = await twoEditors(aliceBody, bramBody, { alice: { title: 'Stock buggy, Harbour Flats spring layout' }, bram: { title: 'Stock buggy, Harbour Flats with the new hairpin' } });
+    const { b } = await twoEditors(aliceBody, bramBody, {
+      alice: { title: 'Stock buggy, Harbour Flats spring layout' },
+      bram: { title: 'Stock buggy, Harbour Flats with the new hairpin' },
+    });
     const data = (await bram.post(`/api/revisions/${b.id}/rebase`)).body.data;
     expect(data.conflicts).toEqual([
-      { field: 'title', base: expect.stringMatching(/^Stock buggy on Harbour Flats clay/), ours: 'Stock buggy, Harbour Flats with the new hairpin', theirs: 'Stock buggy, Harbour Flats spring layout' },
+      {
+        field: 'title',
+        base: expect.stringMatching(/^Stock buggy on Harbour Flats clay/),
+        ours: 'Stock buggy, Harbour Flats with the new hairpin',
+        theirs: 'Stock buggy, Harbour Flats spring layout',
+      },
       { field: 'body', hunk: 0, base: 'Drag brake at 10 %.', ours: 'Drag brake at 15 % for the hairpin.', theirs: 'Drag brake at 5 %.' },
     ]);
     expect(data.merged.title).toBe('Stock buggy, Harbour Flats with the new hairpin');
     expect(data.merged.body).toBe(bramBody);
     const conflictRegion = data.bodyRegions.find((r: { kind: string }) => r.kind === 'conflict');
-    expect(conflictRegion).toMatchObject({ kind: 'conflict', hunk: 0, base: ['Drag brake at 10 %.'], ours: ['Drag brake at 15 % for the hairpin.'], theirs: ['Drag brake at 5 %.'] });
-    expect(conflictRegion.words.filter((w: { added?: boolean; removed?: boolean }) => w.added || w.removed).map((w: { value: string }) => w.value)).toEqual(['5', '15', ' for the hairpin']);
+    expect(conflictRegion).toMatchObject({
+      kind: 'conflict',
+      hunk: 0,
+      base: ['Drag brake at 10 %.'],
+      ours: ['Drag brake at 15 % for the hairpin.'],
+      theirs: ['Drag brake at 5 %.'],
+    });
+    expect(conflictRegion.words.filter((w: { added?: boolean; removed?: boolean }) => w.added || w.removed).map((w: { value: string }) => w.value)).toEqual([
+      '5',
+      '15',
+      ' for the hairpin',
+    ]);
     // Joining the regions with "theirs" chosen gives their body back.
     const theirs = data.bodyRegions.flatMap((r: { kind: string; lines?: string[]; theirs?: string[] }) => (r.kind === 'ok' ? r.lines! : r.theirs!)).join('\n');
     expect(theirs).toBe(aliceBody);

@@ -47,7 +47,13 @@ describe('document listener', () => {
 
   it('reconnects after its connection is killed (as when PostgreSQL restarts) and keeps fanning out', async () => {
     // Its own connection name, so only this listener is cut off (the app's own keeps listening).
-    const listener = createDocumentListener({ connectionString: t.db.url, logger: t.ctx.logger, minRetryMs: 50, maxRetryMs: 200, applicationName: 'tw-listener-under-test' });
+    const listener = createDocumentListener({
+      connectionString: t.db.url,
+      logger: t.ctx.logger,
+      minRetryMs: 50,
+      maxRetryMs: 200,
+      applicationName: 'tw-listener-under-test',
+    });
     const heard: string[] = [];
     let reconnects = 0;
     listener.onDocumentChanged((c) => heard.push(c.slug));
@@ -58,7 +64,9 @@ describe('document listener', () => {
     const admin = new pg.Client({ connectionString: t.db.url });
     await admin.connect();
     try {
-      const killed = await admin.query(`SELECT pg_terminate_backend(pid) AS ok FROM pg_stat_activity WHERE application_name = 'tw-listener-under-test' AND datname = current_database()`);
+      const killed = await admin.query(
+        `SELECT pg_terminate_backend(pid) AS ok FROM pg_stat_activity WHERE application_name = 'tw-listener-under-test' AND datname = current_database()`,
+      );
       expect(killed.rows.length).toBeGreaterThanOrEqual(1);
       await until(() => reconnects >= 1);
       expect(listener.listening).toBe(true);

@@ -31,17 +31,41 @@ describe('GET /api/taxonomy', () => {
 describe('POST /api/guides', () => {
   it('creates revision 1 as a draft with a kebab-case slug from the title, unique per guide', async () => {
     const title = 'Crawler on the Saltings rock garden: slow & steady';
-    const first = await author.post('/api/guides', { title, summary: 'Low speed control for the rock garden section.', class: 'crawler', surface: 'loose-dirt', tags: [], parameters: ['drag-brake'], body: '## Start' });
+    const first = await author.post('/api/guides', {
+      title,
+      summary: 'Low speed control for the rock garden section.',
+      class: 'crawler',
+      surface: 'loose-dirt',
+      tags: [],
+      parameters: ['drag-brake'],
+      body: '## Start',
+    });
     expect(first.status).toBe(201);
     expect(first.body.data.guide).toEqual({ slug: 'crawler-on-the-saltings-rock-garden-slow-steady' });
     expect(first.body.data.revision).toMatchObject({ number: 1, state: 'draft', baseRevisionId: null, content: { conditions: '', title } });
-    const second = await author.post('/api/guides', { title, summary: 'Same title, another author take.', class: 'crawler', surface: 'loose-dirt', tags: [], parameters: [], body: '' });
+    const second = await author.post('/api/guides', {
+      title,
+      summary: 'Same title, another author take.',
+      class: 'crawler',
+      surface: 'loose-dirt',
+      tags: [],
+      parameters: [],
+      body: '',
+    });
     expect(second.body.data.guide.slug).toBe('crawler-on-the-saltings-rock-garden-slow-steady-2');
   });
 
   it('names every bad field (400) and creates nothing', async () => {
     const before = Number((await t.db.dataSource.query('SELECT count(*) n FROM documents'))[0].n);
-    const res = await author.post('/api/guides', { title: 'abc', summary: 'short', class: 'monster', surface: 'ice', tags: 'x', parameters: ['Not A Slug'], body: 1 });
+    const res = await author.post('/api/guides', {
+      title: 'abc',
+      summary: 'short',
+      class: 'monster',
+      surface: 'ice',
+      tags: 'x',
+      parameters: ['Not A Slug'],
+      body: 1,
+    });
     expect(res.status).toBe(400);
     const paths = res.body.error.details.map((d: { path: string }) => d.path).sort();
     expect(paths).toEqual(['body.body', 'body.class', 'body.parameters.0', 'body.summary', 'body.surface', 'body.tags', 'body.title']);
@@ -55,8 +79,20 @@ describe('POST /api/guides', () => {
 
 describe('GET /api/guides', () => {
   it('lists live guides only, filtered by class, surface, parameter and q', async () => {
-    const a = await createPublishedGuide(author, mod, { title: 'Oval pan car on carpet, long straights', class: 'oval', surface: 'carpet', parameters: ['ramped-advance'], summary: 'Gearing and timing for the long straights of the oval.' });
-    const b = await createPublishedGuide(author, mod, { title: 'Drag car on car park asphalt', class: 'drag', surface: 'asphalt', parameters: ['throttle-punch', 'current-limit'], summary: 'Launch control for a short asphalt strip.' });
+    const a = await createPublishedGuide(author, mod, {
+      title: 'Oval pan car on carpet, long straights',
+      class: 'oval',
+      surface: 'carpet',
+      parameters: ['ramped-advance'],
+      summary: 'Gearing and timing for the long straights of the oval.',
+    });
+    const b = await createPublishedGuide(author, mod, {
+      title: 'Drag car on car park asphalt',
+      class: 'drag',
+      surface: 'asphalt',
+      parameters: ['throttle-punch', 'current-limit'],
+      summary: 'Launch control for a short asphalt strip.',
+    });
     const draft = await createDraftGuide(author, { title: 'Drag car draft never published', class: 'drag', surface: 'asphalt' });
 
     const all = await visitor.get('/api/guides').expect(200);
@@ -64,7 +100,12 @@ describe('GET /api/guides', () => {
     expect(slugs).toEqual(expect.arrayContaining([a.slug, b.slug]));
     expect(slugs).not.toContain(draft.slug);
     expect(all.body.meta.total).toBe(all.body.data.length);
-    expect(all.body.data.find((g: { slug: string }) => g.slug === b.slug)).toMatchObject({ title: 'Drag car on car park asphalt', class: 'drag', surface: 'asphalt', version: 1 });
+    expect(all.body.data.find((g: { slug: string }) => g.slug === b.slug)).toMatchObject({
+      title: 'Drag car on car park asphalt',
+      class: 'drag',
+      surface: 'asphalt',
+      version: 1,
+    });
 
     const bySlugs = async (qs: string) => (await visitor.get(`/api/guides?${qs}`).expect(200)).body.data.map((g: { slug: string }) => g.slug);
     expect(await bySlugs('class=oval')).toEqual([a.slug]);
@@ -81,7 +122,16 @@ describe('GET /api/guides/:slug', () => {
   it('returns the guide record and its live revision; a draft-only guide is 404', async () => {
     const { slug, revisionId } = await createPublishedGuide(author, mod, { title: 'Stadium truck, spring layout', class: 'stadium-truck', tags: ['17.5T'] });
     const res = await visitor.get(`/api/guides/${slug}`).expect(200);
-    expect(res.body.data.guide).toMatchObject({ slug, title: 'Stadium truck, spring layout', class: 'stadium-truck', surface: 'clay', tags: ['17.5T'], version: 1, hidden: false, publishedRevisionId: revisionId });
+    expect(res.body.data.guide).toMatchObject({
+      slug,
+      title: 'Stadium truck, spring layout',
+      class: 'stadium-truck',
+      surface: 'clay',
+      tags: ['17.5T'],
+      version: 1,
+      hidden: false,
+      publishedRevisionId: revisionId,
+    });
     expect(res.body.data.guide.publishedAt).toEqual(expect.any(String));
     expect(res.body.data.revision).toMatchObject({ id: revisionId, state: 'published', number: 1 });
     const draft = await createDraftGuide(author);
@@ -143,7 +193,8 @@ describe('GET /api/guides/:slug/revisions', () => {
     const { client: third } = await signedInClient(t, 'member');
     const draft = await proposeEdit(third, slug, { body: 'Somebody’s draft' });
 
-    const numbers = async (c: TestClient) => (await c.get(`/api/guides/${slug}/revisions`).expect(200)).body.data.map((r: { number: number; state: string }) => `${r.number}:${r.state}`);
+    const numbers = async (c: TestClient) =>
+      (await c.get(`/api/guides/${slug}/revisions`).expect(200)).body.data.map((r: { number: number; state: string }) => `${r.number}:${r.state}`);
     expect(await numbers(visitor)).toEqual(['2:published', '1:archived']);
     expect(await numbers(author)).toEqual(['2:published', '1:archived']);
     expect(await numbers(third)).toEqual([`${draft.number}:draft`, '2:published', '1:archived']);
@@ -158,7 +209,10 @@ describe('GET /api/guides/:slug/revisions (a guide that was never live)', () => 
     const { slug, revision } = await createDraftGuide(author);
     const { client: stranger } = await signedInClient(t, 'member');
     const unused = `never-used-${Date.now()}`;
-    for (const [who, c] of [['visitor', visitor], ['stranger', stranger]] as const) {
+    for (const [who, c] of [
+      ['visitor', visitor],
+      ['stranger', stranger],
+    ] as const) {
       for (const suffix of ['/revisions', '/revisions/1', '']) {
         const real = await c.get(`/api/guides/${slug}${suffix}`);
         const none = await c.get(`/api/guides/${unused}${suffix}`);
@@ -198,7 +252,12 @@ describe('GET /api/guides/:slug/compare', () => {
     const diff = res.body.data.bodyDiff as Array<{ value: string; added?: boolean; removed?: boolean }>;
     expect(diff.filter((p) => p.removed).map((p) => p.value)).toEqual(['ten']);
     expect(diff.filter((p) => p.added).map((p) => p.value)).toEqual(['five']);
-    expect(diff.filter((p) => !p.removed).map((p) => p.value).join('')).toBe('Run the drag brake at five percent on the clay.');
+    expect(
+      diff
+        .filter((p) => !p.removed)
+        .map((p) => p.value)
+        .join(''),
+    ).toBe('Run the drag brake at five percent on the clay.');
     expect((await visitor.get(`/api/guides/${slug}/compare?from=1`)).status).toBe(400);
     expect((await visitor.get(`/api/guides/${slug}/compare?from=1&to=9`)).status).toBe(404);
   });

@@ -35,11 +35,19 @@ describe('POST /api/parameters/:slug/revisions', () => {
     const bad = await member.patch(`/api/revisions/${draft.id}`, { range: { min: 10, max: 0, step: 1 }, class: 'oval' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['body.class', 'body.range.max']);
-    expect((await member.patch(`/api/revisions/${draft.id}`, { summary: 'Braking applied automatically at neutral throttle; more of it tightens corner entry but costs coasting speed.' })).status).toBe(200);
+    expect(
+      (
+        await member.patch(`/api/revisions/${draft.id}`, {
+          summary: 'Braking applied automatically at neutral throttle; more of it tightens corner entry but costs coasting speed.',
+        })
+      ).status,
+    ).toBe(200);
 
     expect((await member.post(`/api/revisions/${draft.id}/submit`, { note: 'Add a common alias and tighten the summary' })).status).toBe(200);
     const queue = (await mod.get('/api/reviews?kind=parameter').expect(200)).body.data;
-    expect(queue).toEqual([expect.objectContaining({ revisionId: draft.id, kind: 'parameter', slug: 'drag-brake', title: 'Drag brake', class: null, baseNumber: 1 })]);
+    expect(queue).toEqual([
+      expect.objectContaining({ revisionId: draft.id, kind: 'parameter', slug: 'drag-brake', title: 'Drag brake', class: null, baseNumber: 1 }),
+    ]);
     const review = (await mod.get(`/api/reviews/${draft.id}`).expect(200)).body.data;
     expect(review.changedFields.map((f: { field: string }) => f.field).sort()).toEqual(['aliases', 'summary']);
 
@@ -48,7 +56,10 @@ describe('POST /api/parameters/:slug/revisions', () => {
     await t.waitForMail(memberUser.email, /now live: drag brake/i);
 
     const after = (await visitor.get('/api/parameters/drag-brake/revisions').expect(200)).body.data;
-    expect(after.map((r: { number: number; state: string }) => [r.number, r.state])).toEqual([[2, 'published'], [1, 'archived']]);
+    expect(after.map((r: { number: number; state: string }) => [r.number, r.state])).toEqual([
+      [2, 'published'],
+      [1, 'archived'],
+    ]);
     const v2 = (await visitor.get('/api/parameters/drag-brake/revisions/2').expect(200)).body.data.revision;
     expect(v2.content.aliases).toContain('coast brake');
     const cmp = (await visitor.get('/api/parameters/drag-brake/compare?from=1&to=2').expect(200)).body.data;

@@ -31,7 +31,18 @@ afterAll(async () => {
   await t.close();
 });
 
-type Item = { revisionId: string; kind: string; slug: string; title: string; number: number; baseNumber: number | null; submittedAt: string; class: string | null; own: boolean; author: { displayName: string } };
+type Item = {
+  revisionId: string;
+  kind: string;
+  slug: string;
+  title: string;
+  number: number;
+  baseNumber: number | null;
+  submittedAt: string;
+  class: string | null;
+  own: boolean;
+  author: { displayName: string };
+};
 
 describe('GET /api/reviews', () => {
   it('lists the seeded proposals for the demo moderator, oldest first, with what the queue shows', async () => {

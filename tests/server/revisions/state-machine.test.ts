@@ -26,9 +26,18 @@ afterAll(async () => {
   await t.close();
 });
 
-type AuditRow = { actor_id: string | null; action: string; from_value: string | null; to_value: string | null; reason: string | null; meta: Record<string, unknown> };
+type AuditRow = {
+  actor_id: string | null;
+  action: string;
+  from_value: string | null;
+  to_value: string | null;
+  reason: string | null;
+  meta: Record<string, unknown>;
+};
 const auditFor = (subjectId: string): Promise<AuditRow[]> =>
-  t.db.dataSource.query('SELECT actor_id, action, from_value, to_value, reason, meta FROM audit_log WHERE subject_id = $1 ORDER BY created_at, id', [subjectId]);
+  t.db.dataSource.query('SELECT actor_id, action, from_value, to_value, reason, meta FROM audit_log WHERE subject_id = $1 ORDER BY created_at, id', [
+    subjectId,
+  ]);
 const stateOf = async (id: string) => (await t.db.dataSource.query('SELECT state FROM revisions WHERE id = $1', [id]))[0]?.state as string;
 
 describe('POST /api/revisions/:id/submit', () => {
@@ -197,7 +206,13 @@ describe('POST /api/reviews/:revisionId/return', () => {
     expect(res.status).toBe(200);
     expect(res.body.data.revision).toMatchObject({ state: 'returned', reason: 'Add the pinion you ran, and a heat check after five minutes.' });
     const row = (await auditFor(revision.id)).at(-1)!;
-    expect([row.action, row.from_value, row.to_value, row.reason, row.actor_id]).toEqual(['revision.return', 'in_review', 'returned', 'Add the pinion you ran, and a heat check after five minutes.', modUser.id]);
+    expect([row.action, row.from_value, row.to_value, row.reason, row.actor_id]).toEqual([
+      'revision.return',
+      'in_review',
+      'returned',
+      'Add the pinion you ran, and a heat check after five minutes.',
+      modUser.id,
+    ]);
 
     // The author sees the reason on their revision.
     const seen = await author.get(`/api/revisions/${revision.id}`);
@@ -225,7 +240,10 @@ describe('POST /api/reviews/:revisionId/return', () => {
       expect((await mod.post(`/api/reviews/${revision.id}/return`, { reason: 'The baseline still runs the old pinion.' })).status).toBe(200);
       const res =
         method === 'put'
-          ? await author.put(`/api/revisions/${revision.id}/setup`, buildSetupRecord({ escSettings: {}, gearing: { spurTeeth: 84, pinionTeeth: 30, internalRatio: 2.6, tyreDiameterMm: 62 } }))
+          ? await author.put(
+              `/api/revisions/${revision.id}/setup`,
+              buildSetupRecord({ escSettings: {}, gearing: { spurTeeth: 84, pinionTeeth: 30, internalRatio: 2.6, tyreDiameterMm: 62 } }),
+            )
           : await author.delete(`/api/revisions/${revision.id}/setup`);
       expect(res.status, `${method}: ${JSON.stringify(res.body)}`).toBe(method === 'put' ? 200 : 204);
       expect(await stateOf(revision.id)).toBe('draft');

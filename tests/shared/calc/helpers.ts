@@ -14,8 +14,7 @@ export const DISPLAY_REL = 1e-4;
 /** Runs a calculator through the registry on raw input and returns its output, failing the test on issues. */
 export function run<R>(name: CalculatorName, input: unknown): CalcOutput<R> {
   const result = runCalculator(name, input);
-  if (!result.ok)
-    throw new Error(`expected ${name} to accept ${JSON.stringify(input)}: ${JSON.stringify(result.issues)}`);
+  if (!result.ok) throw new Error(`expected ${name} to accept ${JSON.stringify(input)}: ${JSON.stringify(result.issues)}`);
   return result.output as CalcOutput<R>;
 }
 

@@ -1,12 +1,7 @@
 import fc from 'fast-check';
 import { evaluate } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import {
-  computeMotor,
-  electricalFrequencyHz,
-  torqueConstantFromKv,
-  type MotorResults,
-} from '../../../shared/calc/motor';
+import { computeMotor, electricalFrequencyHz, torqueConstantFromKv, type MotorResults } from '../../../shared/calc/motor';
 import { DISPLAY_REL, expectRelClose, issueAt, rejected, run } from './helpers';
 
 describe('motor calculator', () => {
@@ -60,12 +55,8 @@ describe('motor calculator', () => {
 
   it('rejects an odd pole count, out-of-range kV and an unknown key, naming each', () => {
     expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 3 }), 'poles').message).toMatch(/even/);
-    expect(issueAt(rejected('motor', { kv: 50, volts: 8.4, poles: 2 }), 'kv').message).toBe(
-      'Motor kV must be at least 100 rpm/V',
-    );
-    expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 2, kV: 1 }), 'kV').message).toMatch(
-      /Did you mean "kv"/,
-    );
+    expect(issueAt(rejected('motor', { kv: 50, volts: 8.4, poles: 2 }), 'kv').message).toBe('Motor kV must be at least 100 rpm/V');
+    expect(issueAt(rejected('motor', { kv: 4000, volts: 8.4, poles: 2, kV: 1 }), 'kV').message).toMatch(/Did you mean "kv"/);
     expect(issueAt(rejected('motor', { kv: 4000, poles: 2 }), 'volts').message).toBe('Voltage is required');
   });
 });

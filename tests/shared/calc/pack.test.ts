@@ -33,9 +33,7 @@ describe('pack calculator', () => {
     expect(nimh.nominalV).toBeCloseTo(7.2, 9); // Wikipedia, "Nickel–metal hydride battery": 1.2 V per cell nominal
     expect(nimh.cutoffWindowV.max).toBeCloseTo(6.0, 9); // Wikipedia, "Nickel–metal hydride battery": 1.0 V end point
     expect(nimh.storageV).toBeNull();
-    expect(computePack({ chemistry: 'nimh', cells: 6 }).warnings.find((w) => w.code === 'nimh-care')?.message).toMatch(
-      /storage/,
-    );
+    expect(computePack({ chemistry: 'nimh', cells: 6 }).warnings.find((w) => w.code === 'nimh-care')?.message).toMatch(/storage/);
   });
 
   it('reads chemistry names in any case and common aliases', () => {
@@ -62,9 +60,7 @@ describe('pack calculator', () => {
 
   it('always carries the lithium charging caution, deferring to the maker and the rules', () => {
     for (const chemistry of ['lipo', 'lihv', 'lifepo4'] as const) {
-      const care = computePack({ chemistry, cells: 2, cutoffPerCellV: 3.2 }).warnings.find(
-        (w) => w.code === 'lithium-care',
-      );
+      const care = computePack({ chemistry, cells: 2, cutoffPerCellV: 3.2 }).warnings.find((w) => w.code === 'lithium-care');
       expect(care?.level).toBe('info');
       expect(care?.message).toMatch(/maker's instructions/);
       expect(care?.message).toMatch(/sanctioning body/);
@@ -91,30 +87,24 @@ describe('pack calculator', () => {
 
   it('classifies any cutoff against the window consistently (property)', () => {
     fc.assert(
-      fc.property(
-        fc.constantFrom(...packChemistries),
-        fc.double({ min: 0.5, max: 4.5, noNaN: true }),
-        (chemistry, cutoff) => {
-          const { results, warnings } = computePack({ chemistry, cells: 2, cutoffPerCellV: cutoff });
-          const window = chemistryVoltages[chemistry].cutoffWindowV;
-          const expected = cutoff < window.min ? 'below-window' : cutoff > window.max ? 'above-window' : 'in-window';
-          expect(results.cutoffCheck).toBe(expected);
-          expect(warnings.some((w) => w.code === 'cutoff-below-window')).toBe(expected === 'below-window');
-        },
-      ),
+      fc.property(fc.constantFrom(...packChemistries), fc.double({ min: 0.5, max: 4.5, noNaN: true }), (chemistry, cutoff) => {
+        const { results, warnings } = computePack({ chemistry, cells: 2, cutoffPerCellV: cutoff });
+        const window = chemistryVoltages[chemistry].cutoffWindowV;
+        const expected = cutoff < window.min ? 'below-window' : cutoff > window.max ? 'above-window' : 'in-window';
+        expect(results.cutoffCheck).toBe(expected);
+        expect(warnings.some((w) => w.code === 'cutoff-below-window')).toBe(expected === 'below-window');
+      }),
     );
   });
 
   it('rejects unknown chemistry, fractional cells and a missing cell count, naming each', () => {
     const issues = rejected('pack', { chemistry: 'lead-acid', cells: 2.5 });
-    expect(issueAt(issues, 'chemistry').message).toBe(
-      'Chemistry must be one of: LiPo, LiHV, LiFePO4, NiMH (got "lead-acid")',
-    );
+    expect(issueAt(issues, 'chemistry').message).toBe('Chemistry must be one of: LiPo, LiHV, LiFePO4, NiMH (got "lead-acid")');
     expect(issueAt(issues, 'cells').message).toBe('Cells must be a whole number');
     expect(issueAt(rejected('pack', { chemistry: 'lipo' }), 'cells').message).toBe('Cells is required');
     expect(issueAt(rejected('pack', { cells: 2 }), 'chemistry').message).toMatch(/Chemistry is required/);
-    expect(
-      issueAt(rejected('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 5 }), 'cutoffPerCellV').message,
-    ).toBe('Cutoff per cell must be at most 4.5 V');
+    expect(issueAt(rejected('pack', { chemistry: 'lipo', cells: 2, cutoffPerCellV: 5 }), 'cutoffPerCellV').message).toBe(
+      'Cutoff per cell must be at most 4.5 V',
+    );
   });
 });

@@ -17,18 +17,7 @@ const contract: Record<string, { inputs: string[]; results: string[] }> = {
     results: ['noLoadRpm', 'finalDriveRatio', 'noLoadKmh', 'noLoadMph', 'loadedKmh', 'loadedMph'],
   },
   'timing-curve': {
-    inputs: [
-      'baseDeg',
-      'rampDeg',
-      'rampStartRpm',
-      'rampEndRpm',
-      'atRpm',
-      'endbellDeg',
-      'poles',
-      'stepDeg',
-      'stepDelayS',
-      'maxRpm',
-    ],
+    inputs: ['baseDeg', 'rampDeg', 'rampStartRpm', 'rampEndRpm', 'atRpm', 'endbellDeg', 'poles', 'stepDeg', 'stepDelayS', 'maxRpm'],
     results: ['points', 'maxTotalDeg'],
   },
   pack: {
@@ -84,10 +73,7 @@ describe('calculator registry', () => {
     it('names every missing required field', () => {
       const required = calculator.fields.filter((f) => !f.optional);
       const issues = rejected(name, {});
-      for (const field of required)
-        expect(issueAt(issues, field.key).message).toMatch(
-          new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`),
-        );
+      for (const field of required) expect(issueAt(issues, field.key).message).toMatch(new RegExp(`^${field.label.replace(/[()]/g, '\\$&')} is required`));
     });
 
     it('names every number field that is out of range', () => {
@@ -114,8 +100,6 @@ describe('calculator registry', () => {
   });
 
   it('keeps a boolean from being read as a number', () => {
-    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe(
-      'Motor kV must be a number (got true)',
-    );
+    expect(issueAt(rejected('motor', { kv: true, volts: 8.4, poles: 2 }), 'kv').message).toBe('Motor kV must be a number (got true)');
   });
 });

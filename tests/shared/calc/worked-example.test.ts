@@ -14,10 +14,7 @@ describe('parseWorkedExample', () => {
     });
     if (!result.ok) return;
     const run = runCalculator(result.calc, result.inputs);
-    expect(run.ok && (run.output.results as { finalDriveRatio: number }).finalDriveRatio).toBeCloseTo(
-      (78 / 34) * 2.6,
-      3,
-    ); // Wikipedia "Gear train"
+    expect(run.ok && (run.output.results as { finalDriveRatio: number }).finalDriveRatio).toBeCloseTo((78 / 34) * 2.6, 3); // Wikipedia "Gear train"
   });
 
   it('normalises choices and quoted numbers, and leaves optional fields out', () => {
@@ -42,16 +39,13 @@ describe('parseWorkedExample', () => {
     const result = parseWorkedExample('calc: gearbox\nspur: 78\n');
     expect(result).toMatchObject({ ok: false, calc: 'gearbox' });
     if (result.ok) return;
-    expect(result.issues).toEqual([
-      { path: 'calc', message: expect.stringMatching(/^Unknown calculator "gearbox"\. Known calculators: gearing, /) },
-    ]);
+    expect(result.issues).toEqual([{ path: 'calc', message: expect.stringMatching(/^Unknown calculator "gearbox"\. Known calculators: gearing, /) }]);
   });
 
   it('reports a missing calc line', () => {
     const result = parseWorkedExample('spur: 78\npinion: 34\n');
     expect(result.ok).toBe(false);
-    if (!result.ok)
-      expect(result.issues[0]).toEqual({ path: 'calc', message: 'Missing "calc:" line naming the calculator.' });
+    if (!result.ok) expect(result.issues[0]).toEqual({ path: 'calc', message: 'Missing "calc:" line naming the calculator.' });
   });
 
   it('reports an unknown key by name with a suggestion', () => {
@@ -64,12 +58,9 @@ describe('parseWorkedExample', () => {
   });
 
   it('reports a bad value on its field', () => {
-    const result = parseWorkedExample(
-      'calc: timing-curve\nbaseDeg: lots\nrampDeg: 30\nrampStartRpm: 10000\nrampEndRpm: 30000\n',
-    );
+    const result = parseWorkedExample('calc: timing-curve\nbaseDeg: lots\nrampDeg: 30\nrampStartRpm: 10000\nrampEndRpm: 30000\n');
     expect(result.ok).toBe(false);
-    if (!result.ok)
-      expect(result.issues).toEqual([{ path: 'baseDeg', message: 'Base timing must be a number (got "lots")' }]);
+    if (!result.ok) expect(result.issues).toEqual([{ path: 'baseDeg', message: 'Base timing must be a number (got "lots")' }]);
     const range = parseWorkedExample('calc: temperature\nvalue: 75\nunit: K\n');
     expect(!range.ok && range.issues).toEqual([{ path: 'unit', message: 'Unit must be one of: °C, °F (got "K")' }]);
   });
@@ -103,18 +94,12 @@ describe('parseWorkedExample', () => {
       }),
     );
     fc.assert(
-      fc.property(
-        fc.dictionary(
-          fc.constantFrom('calc', 'spur', 'pinion', 'kv', '[', '&a', '*a', '!!x'),
-          fc.string({ maxLength: 12 }),
-        ),
-        (entries) => {
-          const body = Object.entries(entries)
-            .map(([k, v]) => `${k}: ${v}`)
-            .join('\n');
-          expect(() => parseWorkedExample(body)).not.toThrow();
-        },
-      ),
+      fc.property(fc.dictionary(fc.constantFrom('calc', 'spur', 'pinion', 'kv', '[', '&a', '*a', '!!x'), fc.string({ maxLength: 12 })), (entries) => {
+        const body = Object.entries(entries)
+          .map(([k, v]) => `${k}: ${v}`)
+          .join('\n');
+        expect(() => parseWorkedExample(body)).not.toThrow();
+      }),
     );
   });
 });

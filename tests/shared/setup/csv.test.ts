@@ -57,7 +57,8 @@ describe('setup CSV layout', () => {
   });
 
   it('lists each unreadable row by path', () => {
-    const csv = 'path,value,unit,source\r\nformat,tunewright.setup,,record\r\nschemaVersion,1,,record\r\ngearing.spurTeeth,eighty,teeth,record\r\ngearing.tyreDiameterMm,2.4,in,record\r\nmotor.colour,red,,record\r\n';
+    const csv =
+      'path,value,unit,source\r\nformat,tunewright.setup,,record\r\nschemaVersion,1,,record\r\ngearing.spurTeeth,eighty,teeth,record\r\ngearing.tyreDiameterMm,2.4,in,record\r\nmotor.colour,red,,record\r\n';
     const { issues } = setupFromCsv(csv);
     expect(issues.map((i) => i.path)).toEqual(['gearing.spurTeeth', 'gearing.tyreDiameterMm', 'motor.colour']);
     expect(issues[1].message).toContain('"mm"');

@@ -24,7 +24,11 @@ describe('setupRecordSchema(library)', () => {
   });
 
   it("checks each setting against the library's range and unit", () => {
-    const issues = issuesOf(buildSetupRecord({ escSettings: { 'drag-brake': { value: 120, unit: '%' }, 'static-timing': { value: 10, unit: '°' }, 'reverse-mode': { value: 1.5, unit: '' } } }));
+    const issues = issuesOf(
+      buildSetupRecord({
+        escSettings: { 'drag-brake': { value: 120, unit: '%' }, 'static-timing': { value: 10, unit: '°' }, 'reverse-mode': { value: 1.5, unit: '' } },
+      }),
+    );
     expect(issues.map((i) => i.path).sort()).toEqual(['escSettings.drag-brake.value', 'escSettings.reverse-mode.value', 'escSettings.static-timing.unit']);
     expect(issues.find((i) => i.path === 'escSettings.drag-brake.value')?.message).toBe('Drag brake must be between 0 % and 100 % (got 120 %)');
   });
@@ -35,7 +39,10 @@ describe('setupRecordSchema(library)', () => {
   });
 
   it('lists every problem at once, across sections', () => {
-    const bad = buildSetupRecord({ gearing: { spurTeeth: 84, pinionTeeth: 3, internalRatio: 2.6, tyreDiameterMm: 62 }, escSettings: { nonsense: { value: 1, unit: '' } } });
+    const bad = buildSetupRecord({
+      gearing: { spurTeeth: 84, pinionTeeth: 3, internalRatio: 2.6, tyreDiameterMm: 62 },
+      escSettings: { nonsense: { value: 1, unit: '' } },
+    });
     const issues = issuesOf({ ...bad, motor: { poles: 3, sensored: true }, extra: 1 });
     const paths = issues.map((i) => i.path);
     expect(paths).toEqual(expect.arrayContaining(['gearing.pinionTeeth', 'escSettings.nonsense', 'motor.poles', 'motor.kvRpmPerV', '']));

@@ -21,10 +21,17 @@ export function UsersTable({ me }: { me: User }) {
   const update = useUpdateUser();
 
   const handleChange = async (user: AdminUser, patch: { role?: Role; disabled?: boolean }) => {
-    if (patch.disabled && !window.confirm(`Disable ${user.displayName}? They are signed out everywhere at once and cannot sign in until enabled again.`)) return;
+    if (patch.disabled && !window.confirm(`Disable ${user.displayName}? They are signed out everywhere at once and cannot sign in until enabled again.`))
+      return;
     try {
       await update.mutateAsync({ id: user.id, ...patch });
-      toast.success(patch.role ? `${user.displayName} is now ${patch.role}` : patch.disabled ? `${user.displayName} is disabled and signed out` : `${user.displayName} is enabled`);
+      toast.success(
+        patch.role
+          ? `${user.displayName} is now ${patch.role}`
+          : patch.disabled
+            ? `${user.displayName} is disabled and signed out`
+            : `${user.displayName} is enabled`,
+      );
     } catch (err) {
       toast.error((err as Error).message);
     }
@@ -64,7 +71,13 @@ export function UsersTable({ me }: { me: User }) {
             <div className="flex items-center gap-2">
               {u.disabled ? <Chip tone="ink">disabled</Chip> : <Chip>active</Chip>}
               {u.id !== me.id && (
-                <Button size="sm" variant="secondary" className={u.disabled ? '' : 'text-danger!'} onClick={() => handleChange(u, { disabled: !u.disabled })} disabled={update.isPending}>
+                <Button
+                  size="sm"
+                  variant="secondary"
+                  className={u.disabled ? '' : 'text-danger!'}
+                  onClick={() => handleChange(u, { disabled: !u.disabled })}
+                  disabled={update.isPending}
+                >
                   {u.disabled ? 'Enable' : 'Disable'}
                 </Button>
               )}
@@ -97,7 +110,9 @@ export function UsersTable({ me }: { me: User }) {
             className="w-64 rounded-md border border-ink/25 bg-white/80 px-3 py-1.5"
           />
         </label>
-        <span className="text-sm text-ink-muted">{total} account{total === 1 ? '' : 's'}</span>
+        <span className="text-sm text-ink-muted">
+          {total} account{total === 1 ? '' : 's'}
+        </span>
       </div>
       {list.isError && <Notice tone="danger">{list.error.message}</Notice>}
       {list.isPending ? (

@@ -77,7 +77,8 @@ export function useUpdateProfile() {
 export function useChangePassword() {
   const changed = useSessionChanged();
   return useMutation({
-    mutationFn: async (input: { currentPassword: string; newPassword: string }) => (await api.post<Envelope<{ user: User }>>('/api/account/password', input)).data.user,
+    mutationFn: async (input: { currentPassword: string; newPassword: string }) =>
+      (await api.post<Envelope<{ user: User }>>('/api/account/password', input)).data.user,
     onSuccess: (user) => changed(user),
   });
 }

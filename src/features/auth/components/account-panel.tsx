@@ -18,8 +18,14 @@ export function AccountPanel({ user }: { user: User }) {
   const update = useUpdateProfile();
   const change = useChangePassword();
   const [pwError, setPwError] = useState<string | null>(null);
-  const profile = useForm<z.input<typeof updateProfileSchema>>({ resolver: zodResolver(updateProfileSchema), defaultValues: { displayName: user.displayName } });
-  const password = useForm<z.input<typeof changePasswordSchema>>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: '', newPassword: '' } });
+  const profile = useForm<z.input<typeof updateProfileSchema>>({
+    resolver: zodResolver(updateProfileSchema),
+    defaultValues: { displayName: user.displayName },
+  });
+  const password = useForm<z.input<typeof changePasswordSchema>>({
+    resolver: zodResolver(changePasswordSchema),
+    defaultValues: { currentPassword: '', newPassword: '' },
+  });
 
   const handleProfile = profile.handleSubmit(async (values) => {
     try {
@@ -68,8 +74,20 @@ export function AccountPanel({ user }: { user: User }) {
         <h2 className="text-lg font-semibold">Change password</h2>
         <form onSubmit={handlePassword} noValidate className="mt-3 flex flex-col gap-3" aria-label="Change password">
           {pwError && <Notice tone="danger">{pwError}</Notice>}
-          <TextField label="Current password" type="password" autoComplete="current-password" error={password.formState.errors.currentPassword?.message} {...password.register('currentPassword')} />
-          <TextField label="New password" type="password" autoComplete="new-password" error={password.formState.errors.newPassword?.message} {...password.register('newPassword')} />
+          <TextField
+            label="Current password"
+            type="password"
+            autoComplete="current-password"
+            error={password.formState.errors.currentPassword?.message}
+            {...password.register('currentPassword')}
+          />
+          <TextField
+            label="New password"
+            type="password"
+            autoComplete="new-password"
+            error={password.formState.errors.newPassword?.message}
+            {...password.register('newPassword')}
+          />
           <div>
             <Button type="submit" variant="secondary" pending={password.formState.isSubmitting}>
               Change password

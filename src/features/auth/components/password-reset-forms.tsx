@@ -39,7 +39,9 @@ export function ForgotPasswordForm() {
   );
 }
 
-const resetForm = z.object({ password: passwordSchema, confirm: z.string() }).refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ' });
+const resetForm = z
+  .object({ password: passwordSchema, confirm: z.string() })
+  .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ' });
 
 export function ResetPasswordForm({ token }: { token: string }) {
   const reset = useResetPassword();
@@ -63,7 +65,13 @@ export function ResetPasswordForm({ token }: { token: string }) {
           {formError} <Link to="/forgot-password">Ask for a new link</Link>.
         </Notice>
       )}
-      <TextField label="New password" type="password" autoComplete="new-password" error={form.formState.errors.password?.message} {...form.register('password')} />
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        error={form.formState.errors.password?.message}
+        {...form.register('password')}
+      />
       <TextField label="Repeat it" type="password" autoComplete="new-password" error={form.formState.errors.confirm?.message} {...form.register('confirm')} />
       <div>
         <Button type="submit" pending={form.formState.isSubmitting}>

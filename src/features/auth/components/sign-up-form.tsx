@@ -29,7 +29,8 @@ export function SignUpForm() {
   if (sentTo) {
     return (
       <Notice tone="ok" title="Check your mail">
-        We sent a mail to <strong>{sentTo}</strong>. Open its confirmation link to finish setting up your account, then <Link to="/sign-in">sign in</Link>. If the address already has an account, the mail says so instead.
+        We sent a mail to <strong>{sentTo}</strong>. Open its confirmation link to finish setting up your account, then <Link to="/sign-in">sign in</Link>. If
+        the address already has an account, the mail says so instead.
       </Notice>
     );
   }
@@ -37,9 +38,19 @@ export function SignUpForm() {
   const { errors } = form.formState;
   return (
     <form onSubmit={handleSubmit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
-      {formError && <Notice tone="danger" title="Could not create the account">{formError}</Notice>}
+      {formError && (
+        <Notice tone="danger" title="Could not create the account">
+          {formError}
+        </Notice>
+      )}
       <TextField label="E-mail" type="email" autoComplete="email" error={errors.email?.message} {...form.register('email')} />
-      <TextField label="Display name" autoComplete="nickname" hint="Shown on the guides you write." error={errors.displayName?.message} {...form.register('displayName')} />
+      <TextField
+        label="Display name"
+        autoComplete="nickname"
+        hint="Shown on the guides you write."
+        error={errors.displayName?.message}
+        {...form.register('displayName')}
+      />
       <TextField
         label="Password"
         type="password"

@@ -81,12 +81,7 @@ function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
             labelFormatter={(l) => `${Number(l).toLocaleString('en-GB')} rpm`}
           />
           {at !== undefined && (
-            <ReferenceLine
-              x={at}
-              stroke={INK_FAINT}
-              strokeDasharray="4 3"
-              label={{ value: `${rpmTick(at)} rpm`, position: 'insideTopLeft', ...AXIS }}
-            />
+            <ReferenceLine x={at} stroke={INK_FAINT} strokeDasharray="4 3" label={{ value: `${rpmTick(at)} rpm`, position: 'insideTopLeft', ...AXIS }} />
           )}
           <Line type="linear" dataKey="deg" name="Throttle below full" stroke={COPPER} strokeWidth={2.5} dot={false} isAnimationActive={false} />
           {hasStep && (

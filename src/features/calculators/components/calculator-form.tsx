@@ -92,9 +92,7 @@ function renderField(
             aria-describedby={describedBy}
             onChange={(e) => onChange(field.key, e.target.value)}
           >
-            {!field.options?.some((o) => o.value === values[field.key]) && (
-              <option value={values[field.key] ?? ''}>{values[field.key] || 'Choose…'}</option>
-            )}
+            {!field.options?.some((o) => o.value === values[field.key]) && <option value={values[field.key] ?? ''}>{values[field.key] || 'Choose…'}</option>}
             {field.options?.map((o) => (
               <option key={o.value} value={o.value}>
                 {o.label}

@@ -69,16 +69,10 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
       <div className="flex min-w-0 flex-col gap-4" aria-live="polite">
         {results ? (
           <div className={calc.stale ? 'opacity-45 grayscale transition' : 'transition'} data-results-state={calc.stale ? 'stale' : 'fresh'}>
-            {calc.stale && (
-              <p className="mb-2 font-sans text-xs font-semibold text-ink-muted">Last good result — fix the highlighted input to update.</p>
-            )}
+            {calc.stale && <p className="mb-2 font-sans text-xs font-semibold text-ink-muted">Last good result — fix the highlighted input to update.</p>}
             <dl className="grid grid-cols-2 gap-x-4 gap-y-3">
               {resultLines(name, results, values).map((line) => (
-                <div
-                  key={line.key}
-                  className={`min-w-0 ${line.key === 'neutralFeel' || line.key === 'band' ? 'col-span-2' : ''}`}
-                  data-result={line.key}
-                >
+                <div key={line.key} className={`min-w-0 ${line.key === 'neutralFeel' || line.key === 'band' ? 'col-span-2' : ''}`} data-result={line.key}>
                   <dt className="font-sans text-xs font-medium tracking-wide text-ink-muted uppercase">{line.label}</dt>
                   <dd
                     className={`${line.primary ? 'font-mono text-xl font-semibold text-copper-dark' : line.key === 'neutralFeel' ? 'font-serif text-sm leading-6 text-ink' : 'font-mono text-base text-ink'} break-words`}
@@ -94,7 +88,13 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
                 <CalcErrorBoundary
                   fallback={() => <p className="p-4 text-sm text-ink-muted">The chart could not be drawn; the numbers above are still right.</p>}
                 >
-                  <Suspense fallback={<div role="status" className="h-[276px] animate-pulse rounded bg-paper-deep/60"><span className="sr-only">Loading chart…</span></div>}>
+                  <Suspense
+                    fallback={
+                      <div role="status" className="h-[276px] animate-pulse rounded bg-paper-deep/60">
+                        <span className="sr-only">Loading chart…</span>
+                      </div>
+                    }
+                  >
                     <CalcChart name={name} results={results} inputs={values} />
                   </Suspense>
                 </CalcErrorBoundary>

@@ -5,8 +5,7 @@ export type ResultLine = { key: string; label: string; value: string; note?: str
 
 type R = Record<string, unknown>;
 
-const num = (v: unknown, digits = 2) =>
-  typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—';
+const num = (v: unknown, digits = 2) => (typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { maximumFractionDigits: digits }) : '—');
 /** Volts read to the hundredth, as chargers and checkers show them (8.40 V, not 8.4 V). */
 const volts = (v: unknown) =>
   typeof v === 'number' && Number.isFinite(v) ? v.toLocaleString('en-GB', { minimumFractionDigits: 2, maximumFractionDigits: 2 }) : '—';
@@ -145,7 +144,13 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
         { key: 'runTimeToEmptyMin', label: 'To empty (never plan on this)', value: `${num(r.runTimeToEmptyMin, 1)} min` },
       ];
       if (has(r, 'maxAverageCurrentForRaceA')) {
-        lines.push({ key: 'maxAverageCurrentForRaceA', label: 'Most average current that lasts the race', value: `${num(r.maxAverageCurrentForRaceA, 1)} A`, note: r.lastsRace ? 'this pack lasts the race' : 'this pack runs short', primary: true });
+        lines.push({
+          key: 'maxAverageCurrentForRaceA',
+          label: 'Most average current that lasts the race',
+          value: `${num(r.maxAverageCurrentForRaceA, 1)} A`,
+          note: r.lastsRace ? 'this pack lasts the race' : 'this pack runs short',
+          primary: true,
+        });
       }
       return lines;
     }

@@ -54,10 +54,7 @@ function LiveCard({ calc, initial }: { calc: string; initial: CalcValues }) {
   const calculator = getCalculator(calc)!;
   const [values, setValues] = useState(initial);
   // Optional inputs the example leaves out wait under "More inputs", so the card shows what the text talks about.
-  const primaryKeys = useMemo(
-    () => new Set(calculator.fields.filter((f) => !f.optional || initial[f.key] !== '').map((f) => f.key)),
-    [calculator, initial],
-  );
+  const primaryKeys = useMemo(() => new Set(calculator.fields.filter((f) => !f.optional || initial[f.key] !== '').map((f) => f.key)), [calculator, initial]);
   const changed = useMemo(() => Object.keys(initial).some((k) => initial[k] !== values[k]), [initial, values]);
   const handleChange = useCallback((key: string, value: string) => setValues((v) => ({ ...v, [key]: value })), []);
   return (

@@ -5,5 +5,10 @@ export type CapturedMail = { id: string; to: string; from: string; subject: stri
 
 export const devMailQueries = {
   all: () => ['dev-mail'] as const,
-  list: () => queryOptions({ queryKey: [...devMailQueries.all(), 'list'] as const, queryFn: async () => (await api.get<Envelope<CapturedMail[]>>('/api/dev/mail')).data, refetchInterval: 3000 }),
+  list: () =>
+    queryOptions({
+      queryKey: [...devMailQueries.all(), 'list'] as const,
+      queryFn: async () => (await api.get<Envelope<CapturedMail[]>>('/api/dev/mail')).data,
+      refetchInterval: 3000,
+    }),
 };

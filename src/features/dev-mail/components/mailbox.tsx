@@ -35,7 +35,12 @@ export function Mailbox() {
         return (
           <li key={m.id}>
             <Card className="p-4">
-              <button type="button" className="flex w-full flex-wrap items-baseline justify-between gap-2 text-left" onClick={() => setOpenId(open ? '' : m.id)} aria-expanded={open}>
+              <button
+                type="button"
+                className="flex w-full flex-wrap items-baseline justify-between gap-2 text-left"
+                onClick={() => setOpenId(open ? '' : m.id)}
+                aria-expanded={open}
+              >
                 <span className="font-semibold">{m.subject}</span>
                 <span className="text-xs text-ink-muted">
                   to {m.to} · {new Date(m.receivedAt).toLocaleString()}

@@ -22,7 +22,8 @@ export const revisionQueries = {
   detail: (id: string) =>
     queryOptions({
       queryKey: [...revisionQueries.all(), 'detail', id] as const,
-      queryFn: async () => (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus; checks?: ContentCheckItem[] }>>(`/api/revisions/${id}`)).data,
+      queryFn: async () =>
+        (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus; checks?: ContentCheckItem[] }>>(`/api/revisions/${id}`)).data,
     }),
   /** The live revision a proposal starts from (read through the history, which both kinds share). */
   live: (kind: DocumentKind, slug: string) =>
@@ -45,7 +46,10 @@ export async function createGuide(content: EditableContent) {
 
 /** Starts a proposal against the live revision of a guide or parameter. */
 export async function createProposal(kind: DocumentKind, slug: string, baseRevisionId: string, content: EditableContent) {
-  const res = await api.post<Envelope<{ revision: Revision } | Revision>>(`/api/${plural(kind)}/${encodeURIComponent(slug)}/revisions`, { baseRevisionId, ...content });
+  const res = await api.post<Envelope<{ revision: Revision } | Revision>>(`/api/${plural(kind)}/${encodeURIComponent(slug)}/revisions`, {
+    baseRevisionId,
+    ...content,
+  });
   return 'revision' in res.data ? res.data.revision : res.data;
 }
 
@@ -68,7 +72,8 @@ function useInvalidateRevisions() {
 export function useSubmitRevision() {
   const invalidate = useInvalidateRevisions();
   return useMutation({
-    mutationFn: async ({ id, note }: { id: string; note: string }) => (await api.post<Envelope<{ revision: Revision }>>(`/api/revisions/${id}/submit`, { note })).data,
+    mutationFn: async ({ id, note }: { id: string; note: string }) =>
+      (await api.post<Envelope<{ revision: Revision }>>(`/api/revisions/${id}/submit`, { note })).data,
     onSuccess: invalidate,
   });
 }

@@ -3,7 +3,17 @@ import { lazy, Suspense, useId, type ReactNode } from 'react';
 const MarkdownEditor = lazy(() => import('./markdown-editor'));
 
 /** The body field: a plain textarea until the Markdown editor's chunk arrives, then the editor. */
-export function BodyField({ value, onChange, error, renderWorkedExample }: { value: string; onChange: (v: string) => void; error?: string; renderWorkedExample?: (body: string, index: number) => ReactNode }) {
+export function BodyField({
+  value,
+  onChange,
+  error,
+  renderWorkedExample,
+}: {
+  value: string;
+  onChange: (v: string) => void;
+  error?: string;
+  renderWorkedExample?: (body: string, index: number) => ReactNode;
+}) {
   const id = useId();
   const hintId = `${id}-hint`;
   return (
@@ -12,11 +22,18 @@ export function BodyField({ value, onChange, error, renderWorkedExample }: { val
         Body
       </label>
       <p id={hintId} className="text-xs text-ink-muted">
-        Markdown. A worked example is a fenced block with the info string <code>worked-example</code>: a <code>calc:</code> line naming the calculator, then its inputs, one per line.
+        Markdown. A worked example is a fenced block with the info string <code>worked-example</code>: a <code>calc:</code> line naming the calculator, then its
+        inputs, one per line.
       </p>
       <Suspense
         fallback={
-          <textarea id={id} aria-describedby={hintId} className="min-h-[520px] w-full rounded-md border border-ink/25 bg-white/80 p-3 font-mono text-sm" value={value} onChange={(e) => onChange(e.target.value)} />
+          <textarea
+            id={id}
+            aria-describedby={hintId}
+            className="min-h-[520px] w-full rounded-md border border-ink/25 bg-white/80 p-3 font-mono text-sm"
+            value={value}
+            onChange={(e) => onChange(e.target.value)}
+          />
         }
       >
         <MarkdownEditor id={id} value={value} onChange={onChange} renderWorkedExample={renderWorkedExample} describedBy={hintId} />

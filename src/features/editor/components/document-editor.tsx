@@ -13,7 +13,15 @@ import { Dialog } from '@/components/ui/dialog';
 import { TextAreaField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
-import { createGuide, createProposal, patchRevisionWithChecks, revisionQueries, useSubmitRevision, useWithdrawRevision, type EditableContent } from '../api/revisions';
+import {
+  createGuide,
+  createProposal,
+  patchRevisionWithChecks,
+  revisionQueries,
+  useSubmitRevision,
+  useWithdrawRevision,
+  type EditableContent,
+} from '../api/revisions';
 import { useAutosave } from '../hooks/use-autosave';
 import { clearLocalDraft, localDraftKey, readLocalDraft, shouldOfferRestore, type LocalDraft } from '../lib/autosave';
 import { AutosaveStatus } from './autosave-status';
@@ -62,11 +70,24 @@ function toForm(kind: DocumentKind, content: Record<string, unknown> | null | un
  * The writing screen for guides and parameter entries: fields, the Markdown body, autosave to the
  * server and the browser, submission with an edit note, and the merge screen when the live version moved on.
  */
-export function DocumentEditor({ kind, slug, draft, live, parameterOptions, renderWorkedExample, onCreated, onSubmitted, renderBaseline }: DocumentEditorProps) {
+export function DocumentEditor({
+  kind,
+  slug,
+  draft,
+  live,
+  parameterOptions,
+  renderWorkedExample,
+  onCreated,
+  onSubmitted,
+  renderBaseline,
+}: DocumentEditorProps) {
   const [revisionId, setRevisionId] = useState<string | null>(draft?.id ?? null);
   const [baseRevisionId, setBaseRevisionId] = useState<string | null>(draft ? draft.baseRevisionId : (live?.id ?? null));
   const [state, setState] = useState<Revision['state']>(draft?.state ?? 'draft');
-  const serverContent = useMemo(() => (draft ? toForm(kind, draft.content) : live ? toForm(kind, live.content) : kind === 'guide' ? emptyGuide : toParameterForm(null)), [draft, live, kind]);
+  const serverContent = useMemo(
+    () => (draft ? toForm(kind, draft.content) : live ? toForm(kind, live.content) : kind === 'guide' ? emptyGuide : toParameterForm(null)),
+    [draft, live, kind],
+  );
   const [content, setContent] = useState<Content>(serverContent);
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [mode, setMode] = useState<'edit' | 'merge'>('edit');
@@ -153,7 +174,9 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
     }
     const saved = await autosave.flush();
     if (!saved || !revisionId) {
-      setNoteError('The draft could not be saved to the server just now, so it cannot be submitted. It is kept in this browser; try again when the connection is back.');
+      setNoteError(
+        'The draft could not be saved to the server just now, so it cannot be submitted. It is kept in this browser; try again when the connection is back.',
+      );
       return;
     }
     try {
@@ -235,7 +258,8 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
       {offer && (
         <Notice tone="caution" title="This browser holds newer text for this draft">
           <p>
-            It was typed {typedAt.format(new Date(offer.editedAt))} and never reached the server (a reload or a dropped connection). Restore it to carry on from there; it is saved to the server once the connection allows.
+            It was typed {typedAt.format(new Date(offer.editedAt))} and never reached the server (a reload or a dropped connection). Restore it to carry on from
+            there; it is saved to the server once the connection allows.
           </p>
           <div className="mt-2 flex flex-wrap gap-2">
             <Button
@@ -268,7 +292,11 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           <p className="mt-1 text-ink-soft">Change what is asked, then submit it again; it goes back into the review queue as this same version.</p>
         </Notice>
       )}
-      {state === 'in_review' && <Notice title="Waiting for review">A moderator will publish it or send it back with a reason. Withdraw it if you want to change something first.</Notice>}
+      {state === 'in_review' && (
+        <Notice title="Waiting for review">
+          A moderator will publish it or send it back with a reason. Withdraw it if you want to change something first.
+        </Notice>
+      )}
       {staleBase && editable && (
         <Notice tone="caution" title={`The live version changed since you started (now version ${live?.number})`}>
           <p>Merge your draft with it before submitting; non-overlapping changes merge by themselves.</p>
@@ -296,7 +324,10 @@ export function DocumentEditor({ kind, slug, draft, live, parameterOptions, rend
           <h2 id="editor-checks" className="text-lg font-semibold">
             Automatic checks
           </h2>
-          <p className="text-sm text-ink-soft">Run on every save against the calculators and the parameter library. Errors must be fixed before you submit; warnings go to the moderator with your proposal.</p>
+          <p className="text-sm text-ink-soft">
+            Run on every save against the calculators and the parameter library. Errors must be fixed before you submit; warnings go to the moderator with your
+            proposal.
+          </p>
           <ContentChecks checks={checks} audience="author" />
         </section>
       )}

@@ -18,7 +18,19 @@ export function splitList(text: string): string[] {
 }
 
 /** A comma-separated list typed as text; the text is kept as typed so a trailing comma does not vanish. */
-export function CommaListField({ label, hint, value, onChange, error }: { label: string; hint?: string; value: string[]; onChange: (v: string[]) => void; error?: string }) {
+export function CommaListField({
+  label,
+  hint,
+  value,
+  onChange,
+  error,
+}: {
+  label: string;
+  hint?: string;
+  value: string[];
+  onChange: (v: string[]) => void;
+  error?: string;
+}) {
   const [text, setText] = useState(value.join(', '));
   useEffect(() => {
     // Only follow outside changes (a restored draft), not our own keystrokes.
@@ -40,12 +52,26 @@ export function CommaListField({ label, hint, value, onChange, error }: { label:
 }
 
 /** Pick parameters from the library: checkboxes grouped by category, with a filter. */
-export function ParameterPicker({ label, options, value, onChange, exclude }: { label: string; options: ParameterSummary[]; value: string[]; onChange: (v: string[]) => void; exclude?: string }) {
+export function ParameterPicker({
+  label,
+  options,
+  value,
+  onChange,
+  exclude,
+}: {
+  label: string;
+  options: ParameterSummary[];
+  value: string[];
+  onChange: (v: string[]) => void;
+  exclude?: string;
+}) {
   const [filter, setFilter] = useState('');
   const filterId = useId();
   const byCategory = useMemo(() => {
     const f = filter.trim().toLowerCase();
-    const shown = options.filter((o) => o.slug !== exclude && (!f || o.name.toLowerCase().includes(f) || o.slug.includes(f) || o.aliases.some((a) => a.toLowerCase().includes(f))));
+    const shown = options.filter(
+      (o) => o.slug !== exclude && (!f || o.name.toLowerCase().includes(f) || o.slug.includes(f) || o.aliases.some((a) => a.toLowerCase().includes(f))),
+    );
     return PARAMETER_CATEGORIES.map((c) => ({ category: c, items: shown.filter((o) => o.category === c) })).filter((g) => g.items.length > 0);
   }, [options, filter, exclude]);
   const toggle = (slug: string, on: boolean) => onChange(on ? [...value, slug] : value.filter((v) => v !== slug));
@@ -58,7 +84,14 @@ export function ParameterPicker({ label, options, value, onChange, exclude }: { 
       <label htmlFor={filterId} className="sr-only">
         Filter the settings
       </label>
-      <input id={filterId} type="search" value={filter} onChange={(e) => setFilter(e.target.value)} placeholder="Filter: brake, timing…" className="w-full rounded-md border border-ink/25 bg-white/80 px-3 py-1.5 text-sm sm:w-64" />
+      <input
+        id={filterId}
+        type="search"
+        value={filter}
+        onChange={(e) => setFilter(e.target.value)}
+        placeholder="Filter: brake, timing…"
+        className="w-full rounded-md border border-ink/25 bg-white/80 px-3 py-1.5 text-sm sm:w-64"
+      />
       <div className="grid max-h-64 gap-3 overflow-y-auto pr-1 sm:grid-cols-2">
         {byCategory.map((g) => (
           <div key={g.category}>
@@ -67,7 +100,12 @@ export function ParameterPicker({ label, options, value, onChange, exclude }: { 
               {g.items.map((o) => (
                 <li key={o.slug}>
                   <label className="flex items-center gap-2 text-sm">
-                    <input type="checkbox" checked={value.includes(o.slug)} onChange={(e) => toggle(o.slug, e.target.checked)} className="h-4 w-4 accent-copper" />
+                    <input
+                      type="checkbox"
+                      checked={value.includes(o.slug)}
+                      onChange={(e) => toggle(o.slug, e.target.checked)}
+                      className="h-4 w-4 accent-copper"
+                    />
                     {o.name}
                   </label>
                 </li>

@@ -44,7 +44,12 @@ export default function MarkdownEditor({ id, value, onChange, renderWorkedExampl
         height={520}
         preview={typeof window !== 'undefined' && window.matchMedia('(min-width: 768px)').matches ? 'live' : 'edit'}
         visibleDragbar
-        textareaProps={{ id, 'aria-describedby': describedBy, spellCheck: true, placeholder: 'Write the guide in Markdown: ## headings, lists, tables and ```worked-example blocks.' }}
+        textareaProps={{
+          id,
+          'aria-describedby': describedBy,
+          spellCheck: true,
+          placeholder: 'Write the guide in Markdown: ## headings, lists, tables and ```worked-example blocks.',
+        }}
         previewOptions={{ rehypePlugins: [[rehypeSanitize]] }}
         components={{ preview: (source) => <Markdown renderWorkedExample={renderWorkedExample}>{source}</Markdown> }}
       />

@@ -7,7 +7,22 @@ import { patchRevision, useRebaseRevision, type RebaseResult } from '../api/revi
 import { aroundChanges, handEditStart, resolveBody, resolveFields, type ConflictChoice, type ConflictRegion, type WordPart } from '../lib/merge';
 import { writeLocalDraft } from '../lib/autosave';
 
-const LABELS: Record<string, string> = { title: 'Title', summary: 'Summary', class: 'Class', surface: 'Surface', conditions: 'Conditions', tags: 'Tags', parameters: 'Settings discussed', name: 'Name', aliases: 'Also called', category: 'Category', unit: 'Unit', range: 'Typical range', related: 'Related settings', calculator: 'Calculator' };
+const LABELS: Record<string, string> = {
+  title: 'Title',
+  summary: 'Summary',
+  class: 'Class',
+  surface: 'Surface',
+  conditions: 'Conditions',
+  tags: 'Tags',
+  parameters: 'Settings discussed',
+  name: 'Name',
+  aliases: 'Also called',
+  category: 'Category',
+  unit: 'Unit',
+  range: 'Typical range',
+  related: 'Related settings',
+  calculator: 'Calculator',
+};
 
 function show(v: unknown) {
   if (Array.isArray(v)) return v.join(', ') || '—';
@@ -20,43 +35,77 @@ function show(v: unknown) {
  * has are marked, so a one-number difference inside a long paragraph is found at a glance.
  */
 function Lines({ lines, tone, words, label }: { lines: string[]; tone?: 'theirs' | 'ours'; words?: WordPart[]; label: string }) {
-  const cls = tone === 'theirs' ? 'border-ink/30 bg-paper-card' : tone === 'ours' ? 'border-copper/50 bg-copper-wash/40' : 'border-paper-line bg-paper-deep/60 text-ink-soft';
+  const cls =
+    tone === 'theirs'
+      ? 'border-ink/30 bg-paper-card'
+      : tone === 'ours'
+        ? 'border-copper/50 bg-copper-wash/40'
+        : 'border-paper-line bg-paper-deep/60 text-ink-soft';
   const mine = tone === 'theirs' ? (w: WordPart) => !!w.removed : (w: WordPart) => !!w.added;
   const other = tone === 'theirs' ? (w: WordPart) => !!w.added : (w: WordPart) => !!w.removed;
   const marked = words && tone && lines.length > 0 && words.some((w) => w.added || w.removed);
   return (
     // Focusable and named: a long passage scrolls inside its box, and keyboard users must be able to scroll it too.
-    <pre tabIndex={0} role="region" aria-label={label} className={`max-h-72 overflow-auto rounded-md border p-3 font-mono text-[0.8rem] leading-6 whitespace-pre-wrap ${cls}`}>
+    <pre
+      tabIndex={0}
+      role="region"
+      aria-label={label}
+      className={`max-h-72 overflow-auto rounded-md border p-3 font-mono text-[0.8rem] leading-6 whitespace-pre-wrap ${cls}`}
+    >
       {!lines.length
         ? '(nothing — removed on this side)'
         : marked
-          ? words.filter((w) => !other(w)).map((w, i) =>
-              mine(w) ? (
-                <mark key={i} className={`rounded-sm px-0.5 font-semibold text-ink ${tone === 'theirs' ? 'bg-ink/15' : 'bg-copper/30'}`}>
-                  {w.value}
-                </mark>
-              ) : (
-                <span key={i}>{w.value}</span>
-              ),
-            )
+          ? words
+              .filter((w) => !other(w))
+              .map((w, i) =>
+                mine(w) ? (
+                  <mark key={i} className={`rounded-sm px-0.5 font-semibold text-ink ${tone === 'theirs' ? 'bg-ink/15' : 'bg-copper/30'}`}>
+                    {w.value}
+                  </mark>
+                ) : (
+                  <span key={i}>{w.value}</span>
+                ),
+              )
           : lines.join('\n')}
     </pre>
   );
 }
 
-function Hunk({ region, number, liveNumber, choice, onChoose }: { region: ConflictRegion; number: number; liveNumber: number; choice?: ConflictChoice; onChoose: (c: ConflictChoice) => void }) {
+function Hunk({
+  region,
+  number,
+  liveNumber,
+  choice,
+  onChoose,
+}: {
+  region: ConflictRegion;
+  number: number;
+  liveNumber: number;
+  choice?: ConflictChoice;
+  onChoose: (c: ConflictChoice) => void;
+}) {
   const picked = choice?.pick;
   return (
     <section aria-label={`Overlapping change ${number}`} className="flex flex-col gap-3 rounded-lg border-2 border-caution-line bg-caution-wash/40 p-4">
       <h4 className="text-sm font-semibold">
-        Overlapping change {number} {picked ? <span className="font-normal text-ok">— {picked === 'theirs' ? 'live text kept' : picked === 'ours' ? 'your text kept' : 'edited by hand'}</span> : <span className="font-normal text-caution">— choose what to keep</span>}
+        Overlapping change {number}{' '}
+        {picked ? (
+          <span className="font-normal text-ok">— {picked === 'theirs' ? 'live text kept' : picked === 'ours' ? 'your text kept' : 'edited by hand'}</span>
+        ) : (
+          <span className="font-normal text-caution">— choose what to keep</span>
+        )}
       </h4>
       {region.words?.some((w) => w.added || w.removed) && <p className="text-xs text-ink-soft">Marked: the words that differ between the two sides.</p>}
       <div className="grid gap-3 md:grid-cols-2">
         <div className="flex min-w-0 flex-col gap-2">
           <p className="text-xs font-semibold tracking-wider text-ink-muted uppercase">Live version {liveNumber} (theirs)</p>
           <Lines lines={region.theirs} tone="theirs" words={region.words} label={`Overlapping change ${number}, live version ${liveNumber}`} />
-          <Button size="sm" variant={picked === 'theirs' ? 'primary' : 'secondary'} aria-pressed={picked === 'theirs'} onClick={() => onChoose({ pick: 'theirs' })}>
+          <Button
+            size="sm"
+            variant={picked === 'theirs' ? 'primary' : 'secondary'}
+            aria-pressed={picked === 'theirs'}
+            onClick={() => onChoose({ pick: 'theirs' })}
+          >
             Keep the live text
           </Button>
         </div>
@@ -71,7 +120,11 @@ function Hunk({ region, number, liveNumber, choice, onChoose }: { region: Confli
       {picked === 'custom' ? (
         <label className="flex flex-col gap-1 text-sm font-medium">
           Your combined text
-          <textarea className="min-h-40 rounded-md border border-ink/25 bg-white/90 p-3 font-mono text-[0.8rem] leading-6" value={choice?.pick === 'custom' ? choice.text : ''} onChange={(e) => onChoose({ pick: 'custom', text: e.target.value })} />
+          <textarea
+            className="min-h-40 rounded-md border border-ink/25 bg-white/90 p-3 font-mono text-[0.8rem] leading-6"
+            value={choice?.pick === 'custom' ? choice.text : ''}
+            onChange={(e) => onChoose({ pick: 'custom', text: e.target.value })}
+          />
         </label>
       ) : (
         <Button size="sm" variant="ghost" className="self-start" onClick={() => onChoose({ pick: 'custom', text: handEditStart(region) })}>
@@ -87,7 +140,19 @@ function Hunk({ region, number, liveNumber, choice, onChoose }: { region: Confli
  * each overlapping change is shown side by side to resolve. Saving replaces the draft's content and
  * moves its base to the live revision; until then the draft (and a browser copy) keep the author's text.
  */
-export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }: { revisionId: string; kindLabel: string; yours: Record<string, unknown>; onSaved: (content: Record<string, unknown>, currentRevisionId: string) => void; onCancel: () => void }) {
+export function MergeScreen({
+  revisionId,
+  kindLabel,
+  yours,
+  onSaved,
+  onCancel,
+}: {
+  revisionId: string;
+  kindLabel: string;
+  yours: Record<string, unknown>;
+  onSaved: (content: Record<string, unknown>, currentRevisionId: string) => void;
+  onCancel: () => void;
+}) {
   const rebase = useRebaseRevision();
   const [bodyChoices, setBodyChoices] = useState<Record<number, ConflictChoice>>({});
   const [fieldChoices, setFieldChoices] = useState<Record<string, 'theirs' | 'ours'>>({});
@@ -112,7 +177,10 @@ export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }:
   if (rebase.isError)
     return (
       <Notice tone="danger" title="The merge could not be prepared">
-        {rebase.error.message} Your draft is unchanged. <button type="button" className="underline" onClick={onCancel}>Back to the editor</button>
+        {rebase.error.message} Your draft is unchanged.{' '}
+        <button type="button" className="underline" onClick={onCancel}>
+          Back to the editor
+        </button>
       </Notice>
     );
   const result: RebaseResult = rebase.data;
@@ -156,8 +224,13 @@ export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }:
         </h3>
         {incomingText || incomingFields.length > 0 ? (
           <>
-            <p className="text-sm text-ink-soft">Where version {result.currentNumber} changed something you had not touched, its text is taken. Green is new; struck through is what it replaces in your draft.</p>
-            {incomingFields.length > 0 && <FieldChangesTable changes={incomingFields} fromLabel="Your draft" toLabel="After the merge" caption="Details taken from the live version" />}
+            <p className="text-sm text-ink-soft">
+              Where version {result.currentNumber} changed something you had not touched, its text is taken. Green is new; struck through is what it replaces in
+              your draft.
+            </p>
+            {incomingFields.length > 0 && (
+              <FieldChangesTable changes={incomingFields} fromLabel="Your draft" toLabel="After the merge" caption="Details taken from the live version" />
+            )}
             {incomingText && <WordDiffView changes={aroundChanges(result.incoming.bodyDiff)} fromLabel="Your draft" toLabel="After the merge" />}
           </>
         ) : (
@@ -175,10 +248,21 @@ export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }:
                   {LABELS[c.field] ?? c.field}
                 </p>
                 {(['theirs', 'ours'] as const).map((side) => (
-                  <label key={side} className={`flex cursor-pointer gap-2 rounded-md border p-2 text-sm ${fieldChoices[c.field] === side ? 'border-copper bg-copper-wash/50' : 'border-paper-line bg-paper-card'}`}>
-                    <input type="radio" name={`field-${c.field}`} className="mt-1 accent-copper" checked={fieldChoices[c.field] === side} onChange={() => setFieldChoices((f) => ({ ...f, [c.field]: side }))} />
+                  <label
+                    key={side}
+                    className={`flex cursor-pointer gap-2 rounded-md border p-2 text-sm ${fieldChoices[c.field] === side ? 'border-copper bg-copper-wash/50' : 'border-paper-line bg-paper-card'}`}
+                  >
+                    <input
+                      type="radio"
+                      name={`field-${c.field}`}
+                      className="mt-1 accent-copper"
+                      checked={fieldChoices[c.field] === side}
+                      onChange={() => setFieldChoices((f) => ({ ...f, [c.field]: side }))}
+                    />
                     <span>
-                      <span className="block text-xs font-semibold text-ink-muted uppercase">{side === 'theirs' ? `Live version ${result.currentNumber}` : 'Your draft'}</span>
+                      <span className="block text-xs font-semibold text-ink-muted uppercase">
+                        {side === 'theirs' ? `Live version ${result.currentNumber}` : 'Your draft'}
+                      </span>
                       {show(side === 'theirs' ? c.theirs : c.ours)}
                     </span>
                   </label>
@@ -192,7 +276,14 @@ export function MergeScreen({ revisionId, kindLabel, yours, onSaved, onCancel }:
         <div className="flex flex-col gap-4">
           <h3 className="text-base font-semibold">Overlapping changes in the text ({hunks.length})</h3>
           {hunks.map((h, i) => (
-            <Hunk key={h.hunk} region={h} number={i + 1} liveNumber={result.currentNumber} choice={bodyChoices[h.hunk]} onChoose={(c) => setBodyChoices((b) => ({ ...b, [h.hunk]: c }))} />
+            <Hunk
+              key={h.hunk}
+              region={h}
+              number={i + 1}
+              liveNumber={result.currentNumber}
+              choice={bodyChoices[h.hunk]}
+              onChoose={(c) => setBodyChoices((b) => ({ ...b, [h.hunk]: c }))}
+            />
           ))}
         </div>
       ) : (

@@ -36,10 +36,26 @@ export function toParameterForm(content: Record<string, unknown> | null | undefi
   };
 }
 
-type Props = { slug: string; value: ParameterForm; onChange: (patch: Partial<ParameterForm>) => void; errors: Record<string, string>; parameterOptions: ParameterSummary[] };
+type Props = {
+  slug: string;
+  value: ParameterForm;
+  onChange: (patch: Partial<ParameterForm>) => void;
+  errors: Record<string, string>;
+  parameterOptions: ParameterSummary[];
+};
 
 function NumberInput({ label, value, onChange, error }: { label: string; value: number | null; onChange: (v: number | null) => void; error?: string }) {
-  return <TextField label={label} type="number" inputMode="decimal" step="any" value={value ?? ''} onChange={(e) => onChange(e.target.value === '' ? null : Number(e.target.value))} error={error} />;
+  return (
+    <TextField
+      label={label}
+      type="number"
+      inputMode="decimal"
+      step="any"
+      value={value ?? ''}
+      onChange={(e) => onChange(e.target.value === '' ? null : Number(e.target.value))}
+      error={error}
+    />
+  );
 }
 
 /** Name, other names, category, unit, typical range, summary, related settings and calculator. */
@@ -48,7 +64,13 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
   return (
     <div className="flex flex-col gap-4">
       <TextField label="Name" value={value.name} onChange={(e) => onChange({ name: e.target.value })} error={errors.name} maxLength={80} />
-      <CommaListField label="Also called" value={value.aliases} onChange={(aliases) => onChange({ aliases })} error={errors.aliases} hint="Other common names and common misspellings, separated by commas." />
+      <CommaListField
+        label="Also called"
+        value={value.aliases}
+        onChange={(aliases) => onChange({ aliases })}
+        error={errors.aliases}
+        hint="Other common names and common misspellings, separated by commas."
+      />
       <div className="grid gap-4 sm:grid-cols-2">
         <SelectField label="Category" value={value.category} onChange={(e) => onChange({ category: e.target.value })} error={errors.category}>
           <option value="">Choose…</option>
@@ -58,7 +80,14 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
             </option>
           ))}
         </SelectField>
-        <TextField label="Unit" value={value.unit} onChange={(e) => onChange({ unit: e.target.value })} error={errors.unit} hint="%, deg, rpm, V, kHz, A, °C, s — empty for a mode." maxLength={12} />
+        <TextField
+          label="Unit"
+          value={value.unit}
+          onChange={(e) => onChange({ unit: e.target.value })}
+          error={errors.unit}
+          hint="%, deg, rpm, V, kHz, A, °C, s — empty for a mode."
+          maxLength={12}
+        />
       </div>
       <fieldset className="grid gap-4 sm:grid-cols-3">
         <legend className="mb-1 text-sm font-medium">Typical range</legend>
@@ -66,8 +95,21 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
         <NumberInput label="To" value={value.range.max} onChange={(max) => setRange({ max })} error={errors['range.max']} />
         <NumberInput label="Step" value={value.range.step} onChange={(step) => setRange({ step })} error={errors['range.step']} />
       </fieldset>
-      <TextAreaField label="Summary" rows={2} value={value.summary} onChange={(e) => onChange({ summary: e.target.value })} error={errors.summary} hint="What it does and its main trade-off." maxLength={400} />
-      <SelectField label="Calculator that illustrates it" value={value.calculator ?? ''} onChange={(e) => onChange({ calculator: e.target.value || null })} error={errors.calculator}>
+      <TextAreaField
+        label="Summary"
+        rows={2}
+        value={value.summary}
+        onChange={(e) => onChange({ summary: e.target.value })}
+        error={errors.summary}
+        hint="What it does and its main trade-off."
+        maxLength={400}
+      />
+      <SelectField
+        label="Calculator that illustrates it"
+        value={value.calculator ?? ''}
+        onChange={(e) => onChange({ calculator: e.target.value || null })}
+        error={errors.calculator}
+      >
         <option value="">None</option>
         {calculatorNames.map((n) => (
           <option key={n} value={n}>

@@ -11,7 +11,11 @@ import { revisionQueries, useWithdrawRevision, type MyRevision } from '../api/re
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
 function editHref(r: MyRevision) {
-  return r.kind === 'guide' ? (r.number === 1 && !r.baseRevisionId ? `/guides/new?draft=${r.id}` : `/guides/${r.slug}/edit?draft=${r.id}`) : `/parameters/${r.slug}/edit?draft=${r.id}`;
+  return r.kind === 'guide'
+    ? r.number === 1 && !r.baseRevisionId
+      ? `/guides/new?draft=${r.id}`
+      : `/guides/${r.slug}/edit?draft=${r.id}`
+    : `/parameters/${r.slug}/edit?draft=${r.id}`;
 }
 
 function viewHref(r: MyRevision) {
@@ -55,7 +59,10 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
             </span>
           </p>
           <h3 className="mt-1 font-serif text-lg font-bold">{r.title || 'Untitled draft'}</h3>
-          <p className="text-xs text-ink-muted">Last changed {when.format(new Date(r.updatedAt))}{r.submittedAt ? ` · submitted ${when.format(new Date(r.submittedAt))}` : ''}</p>
+          <p className="text-xs text-ink-muted">
+            Last changed {when.format(new Date(r.updatedAt))}
+            {r.submittedAt ? ` · submitted ${when.format(new Date(r.submittedAt))}` : ''}
+          </p>
           {r.note && <p className="mt-1 text-sm text-ink-soft">Edit note: {r.note}</p>}
           {r.state === 'returned' && r.reason && (
             <Notice tone="caution" title="The moderator’s reason" className="mt-2">
@@ -66,7 +73,12 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
         </div>
         <div className="flex shrink-0 flex-wrap gap-2">
           {editable && (
-            <Link ref={editRef} to={editHref(r)} aria-label={`Continue editing: ${r.title || 'untitled draft'}`} className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark">
+            <Link
+              ref={editRef}
+              to={editHref(r)}
+              aria-label={`Continue editing: ${r.title || 'untitled draft'}`}
+              className="rounded-md border border-copper-dark bg-copper px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-copper-dark"
+            >
               Continue editing
             </Link>
           )}
@@ -76,7 +88,11 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
             </Button>
           )}
           {(r.state === 'published' || r.state === 'archived') && (
-            <Link to={viewHref(r)} aria-label={`View: ${r.title}, version ${r.number}`} className="rounded-md border border-ink/25 px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep">
+            <Link
+              to={viewHref(r)}
+              aria-label={`View: ${r.title}, version ${r.number}`}
+              className="rounded-md border border-ink/25 px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep"
+            >
               View
             </Link>
           )}
@@ -98,7 +114,12 @@ export function Workbench() {
   const mine = useQuery(revisionQueries.mine());
   const [withdrawnId, setWithdrawnId] = useState<string | null>(null);
   if (mine.isPending) return <Spinner label="Loading your workbench…" />;
-  if (mine.isError) return <Notice tone="danger" title="Your workbench could not be loaded">{mine.error.message}</Notice>;
+  if (mine.isError)
+    return (
+      <Notice tone="danger" title="Your workbench could not be loaded">
+        {mine.error.message}
+      </Notice>
+    );
   return (
     <div className="flex flex-col gap-8">
       {GROUPS.map((g) => {
@@ -109,7 +130,15 @@ export function Workbench() {
             <h2 id={`wb-${g.states[0]}`} className="text-lg font-semibold">
               {g.title} <span className="text-sm font-normal text-ink-muted">({rows.length})</span>
             </h2>
-            {rows.length === 0 ? <p className="text-sm text-ink-soft">{g.empty}</p> : <ul className="flex flex-col gap-3">{rows.map((r) => <Row key={r.id} r={r} focusEdit={r.id === withdrawnId} onWithdrawn={setWithdrawnId} />)}</ul>}
+            {rows.length === 0 ? (
+              <p className="text-sm text-ink-soft">{g.empty}</p>
+            ) : (
+              <ul className="flex flex-col gap-3">
+                {rows.map((r) => (
+                  <Row key={r.id} r={r} focusEdit={r.id === withdrawnId} onWithdrawn={setWithdrawnId} />
+                ))}
+              </ul>
+            )}
           </section>
         );
       })}

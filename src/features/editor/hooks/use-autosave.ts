@@ -31,7 +31,18 @@ const storage = () => (typeof window === 'undefined' ? null : window.localStorag
  * Keeps a draft safe: every change goes to localStorage at once, and to the server a few seconds after
  * typing stops. A failed save keeps the browser copy and retries when the connection returns.
  */
-export function useAutosave<C>({ storageKey, content, savedContent, savedAt, startingContent, save, canSave = true, cannotSaveReason, delayMs = 2500, retryMs = 10_000 }: Options<C>) {
+export function useAutosave<C>({
+  storageKey,
+  content,
+  savedContent,
+  savedAt,
+  startingContent,
+  save,
+  canSave = true,
+  cannotSaveReason,
+  delayMs = 2500,
+  retryMs = 10_000,
+}: Options<C>) {
   // A draft the server holds is saved until it is changed: say so, rather than "no changes yet".
   const [status, setStatus] = useState<SaveStatus>(() =>
     savedContent !== null && sameContent(content, savedContent) ? { kind: 'saved', at: savedAt ? Date.parse(savedAt) : Date.now() } : { kind: 'idle' },

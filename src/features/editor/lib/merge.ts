@@ -7,7 +7,8 @@
 /** A run of a word diff (live → draft inside a conflict; draft → merged for what comes in). */
 export type WordPart = { value: string; added?: boolean; removed?: boolean };
 
-export type MergeRegion = { kind: 'ok'; lines: string[] } | { kind: 'conflict'; hunk: number; base: string[]; ours: string[]; theirs: string[]; words?: WordPart[] };
+export type MergeRegion =
+  { kind: 'ok'; lines: string[] } | { kind: 'conflict'; hunk: number; base: string[]; ours: string[]; theirs: string[]; words?: WordPart[] };
 export type ConflictRegion = Extract<MergeRegion, { kind: 'conflict' }>;
 
 /** A field conflict (for the body, one entry per hunk; `hunk` says which). */
@@ -46,7 +47,11 @@ export function resolveBody(regions: MergeRegion[], choices: Record<number, Conf
  * The merged metadata with each conflicting field set to the chosen side (the server's `merged`
  * already holds the draft's value for every conflict).
  */
-export function resolveFields(merged: Record<string, unknown>, conflicts: FieldConflict[], choices: Record<string, 'theirs' | 'ours' | undefined>): { content: Record<string, unknown>; unresolved: number } {
+export function resolveFields(
+  merged: Record<string, unknown>,
+  conflicts: FieldConflict[],
+  choices: Record<string, 'theirs' | 'ours' | undefined>,
+): { content: Record<string, unknown>; unresolved: number } {
   const content = { ...merged };
   let unresolved = 0;
   for (const c of conflicts) {

@@ -11,7 +11,12 @@ import { StateBadge } from './revision-history';
 export function CompareView({ slug, from, to }: { slug: string; from: number; to: number }) {
   const cmp = useQuery(guideQueries.compare(slug, from, to));
   if (cmp.isPending) return <Spinner label="Comparing…" />;
-  if (cmp.isError) return <Notice tone="danger" title="These versions could not be compared">{cmp.error.message}</Notice>;
+  if (cmp.isError)
+    return (
+      <Notice tone="danger" title="These versions could not be compared">
+        {cmp.error.message}
+      </Notice>
+    );
   const { from: a, to: b, bodyDiff, bodyDiffDetail, changedFields } = cmp.data;
   const fromLabel = `Version ${a.number}`;
   const toLabel = `Version ${b.number}`;

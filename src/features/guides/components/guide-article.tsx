@@ -35,7 +35,8 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
             {isLive && revision.restoredFromNumber != null ? (
               // A restore is a moderator's copy of older text: naming them as its author (and reviewer) would misattribute it.
               <>
-                Version {revision.number}, published on {date} · restores version {revision.restoredFromNumber}, brought back by <span className="font-medium text-ink">{revision.author.displayName}</span>
+                Version {revision.number}, published on {date} · restores version {revision.restoredFromNumber}, brought back by{' '}
+                <span className="font-medium text-ink">{revision.author.displayName}</span>
               </>
             ) : isLive ? (
               <>

@@ -55,7 +55,12 @@ export function GuideFiltersBar() {
           </option>
         ))}
       </SelectField>
-      <button type="button" onClick={clear} disabled={!active} className="rounded-md border border-ink/25 bg-paper-card px-3 py-2 text-sm font-medium hover:bg-paper-deep disabled:opacity-50">
+      <button
+        type="button"
+        onClick={clear}
+        disabled={!active}
+        className="rounded-md border border-ink/25 bg-paper-card px-3 py-2 text-sm font-medium hover:bg-paper-deep disabled:opacity-50"
+      >
         Clear filters
       </button>
     </form>

@@ -10,7 +10,12 @@ export function GuideList({ filters }: { filters: GuideFilters }) {
   const list = useQuery(guideQueries.list(filters));
   const taxonomy = useQuery(guideQueries.taxonomy()).data;
   if (list.isPending) return <Spinner label="Loading guides…" />;
-  if (list.isError) return <Notice tone="danger" title="The guides could not be loaded">{list.error.message}</Notice>;
+  if (list.isError)
+    return (
+      <Notice tone="danger" title="The guides could not be loaded">
+        {list.error.message}
+      </Notice>
+    );
   const guides = list.data;
   if (guides.length === 0)
     return (

@@ -6,7 +6,6 @@ export type { ReviewItem, WorkedExampleCheck };
 
 export type ReviewFilters = { kind?: string; class?: string };
 
-
 /** One changed field of the attached setup record. */
 export type SetupChange = NonNullable<SharedReviewDetail['setupChanges']>[number];
 

@@ -44,15 +44,23 @@ function SetupChangesTable({ changes }: { changes: SetupChange[] }) {
         <caption className="sr-only">Changed setup-record fields</caption>
         <thead>
           <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-            <th scope="col" className="px-3 py-2 font-semibold">Field</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Live</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Proposed</th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Field
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Live
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Proposed
+            </th>
           </tr>
         </thead>
         <tbody>
           {changes.map((c) => (
             <tr key={c.path} className="border-b border-paper-line">
-              <th scope="row" className="px-3 py-2 text-left font-medium">{c.label ?? c.path}</th>
+              <th scope="row" className="px-3 py-2 text-left font-medium">
+                {c.label ?? c.path}
+              </th>
               <td className="px-3 py-2 font-mono text-danger">
                 {show(c.from)} {c.unit}
               </td>
@@ -101,7 +109,10 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
       toast.success('Published: it is live now');
       navigate('/review');
     } catch (err) {
-      if (err instanceof ApiError && err.code === 'stale_base') setConflict('The live version changed after this proposal was written. Return it so the author can merge their edit with the new live text; nothing they wrote is lost.');
+      if (err instanceof ApiError && err.code === 'stale_base')
+        setConflict(
+          'The live version changed after this proposal was written. Return it so the author can merge their edit with the new live text; nothing they wrote is lost.',
+        );
       else toast.error((err as Error).message);
     }
   };
@@ -124,11 +135,7 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   return (
     <Card className="flex flex-col gap-3 p-4">
       <h2 className="text-base font-semibold">Decision</h2>
-      {!waiting && (
-        <Notice title={`This revision is ${REVISION_STATE_LABELS[revision.state].toLowerCase()}`}>
-          It is no longer waiting for review.
-        </Notice>
-      )}
+      {!waiting && <Notice title={`This revision is ${REVISION_STATE_LABELS[revision.state].toLowerCase()}`}>It is no longer waiting for review.</Notice>}
       {own && (
         <Notice tone="caution" title="This is your own revision">
           Another moderator has to review it: nobody publishes or returns their own edit.
@@ -136,13 +143,24 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
       )}
       {(conflict || (detail.stale && waiting)) && (
         <Notice tone="caution" title="Based on an older live version">
-          {conflict ?? 'The live version changed after this proposal was written, so it cannot be published as it is. Send it back so the author can merge their edit with the new live text; nothing they wrote is lost.'}
+          {conflict ??
+            'The live version changed after this proposal was written, so it cannot be published as it is. Send it back so the author can merge their edit with the new live text; nothing they wrote is lost.'}
         </Notice>
       )}
       <SecondApproval approval={detail.approval} />
       <div className="flex flex-wrap gap-2">
-        <Button onClick={handlePublish} pending={publish.isPending} disabled={own || !waiting || detail.stale || approvedByMe} aria-describedby={own ? 'own-revision-why' : undefined}>
-          {detail.approval?.needed === 2 && (approvedByMe ? 'Approved: waiting for a second moderator' : detail.approval.approvals.length === 0 ? 'Approve (1 of 2)' : 'Approve and publish (2 of 2)')}
+        <Button
+          onClick={handlePublish}
+          pending={publish.isPending}
+          disabled={own || !waiting || detail.stale || approvedByMe}
+          aria-describedby={own ? 'own-revision-why' : undefined}
+        >
+          {detail.approval?.needed === 2 &&
+            (approvedByMe
+              ? 'Approved: waiting for a second moderator'
+              : detail.approval.approvals.length === 0
+                ? 'Approve (1 of 2)'
+                : 'Approve and publish (2 of 2)')}
           {detail.approval?.needed !== 2 && 'Publish'}
         </Button>
         <Button variant="secondary" onClick={() => setReturning(true)} disabled={own || !waiting}>
@@ -207,10 +225,23 @@ function SecondApproval({ approval }: { approval?: Detail['approval'] }) {
 }
 
 /** The review page: what the proposal changes against the live revision, and the decision. */
-export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExample }: { revisionId: string; currentUserId: string; renderWorkedExample?: (body: string, index: number) => ReactNode }) {
+export function ReviewDetailView({
+  revisionId,
+  currentUserId,
+  renderWorkedExample,
+}: {
+  revisionId: string;
+  currentUserId: string;
+  renderWorkedExample?: (body: string, index: number) => ReactNode;
+}) {
   const q = useQuery(reviewQueries.detail(revisionId));
   if (q.isPending) return <Spinner label="Loading the proposal…" />;
-  if (q.isError) return <Notice tone="danger" title="This proposal could not be loaded">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" title="This proposal could not be loaded">
+        {q.error.message}
+      </Notice>
+    );
   const d = q.data;
   const { revision, live } = d;
   const title = String(revision.content.title ?? revision.content.name ?? 'Untitled');
@@ -246,7 +277,12 @@ export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExampl
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-8">
           <Section id="review-details" title="Changed details">
-            <FieldChangesTable changes={d.changedFields ?? []} fromLabel={liveLabel} toLabel={proposedLabel} caption="Fields that differ from the live version" />
+            <FieldChangesTable
+              changes={d.changedFields ?? []}
+              fromLabel={liveLabel}
+              toLabel={proposedLabel}
+              caption="Fields that differ from the live version"
+            />
           </Section>
           <Section id="review-text" title="Changed text">
             <WordDiffView changes={d.bodyDiff ?? []} detail={d.bodyDiffDetail} fromLabel={liveLabel} toLabel={proposedLabel} />
@@ -256,7 +292,9 @@ export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExampl
           </Section>
           <Section id="review-warnings" title="Calculator warnings">
             {warningCount === 0 ? (
-              <p className="text-sm text-ink-soft">The calculators raise no warnings on this proposal’s worked examples{d.setupChanges ? ' or setup record' : ''}.</p>
+              <p className="text-sm text-ink-soft">
+                The calculators raise no warnings on this proposal’s worked examples{d.setupChanges ? ' or setup record' : ''}.
+              </p>
             ) : (
               <div className="flex flex-col gap-4">
                 {examples
@@ -267,7 +305,11 @@ export function ReviewDetailView({ revisionId, currentUserId, renderWorkedExampl
                         Worked example {w.index + 1}
                         {w.calc ? ` · ${w.calc}` : ''}
                       </h3>
-                      {w.issues.length > 0 && <WarningList warnings={w.issues.map((i) => ({ level: 'danger' as const, code: 'input', message: i.message, field: i.path || undefined }))} />}
+                      {w.issues.length > 0 && (
+                        <WarningList
+                          warnings={w.issues.map((i) => ({ level: 'danger' as const, code: 'input', message: i.message, field: i.path || undefined }))}
+                        />
+                      )}
                       <WarningList warnings={w.warnings} />
                     </div>
                   ))}

@@ -45,20 +45,34 @@ export function ReviewQueue() {
       {queue.isPending ? (
         <Spinner label="Loading the queue…" />
       ) : queue.isError ? (
-        <Notice tone="danger" title="The queue could not be loaded">{queue.error.message}</Notice>
+        <Notice tone="danger" title="The queue could not be loaded">
+          {queue.error.message}
+        </Notice>
       ) : rows.length === 0 ? (
-        <Notice tone="ok" title="Nothing waiting">Every proposal matching these filters has been reviewed.</Notice>
+        <Notice tone="ok" title="Nothing waiting">
+          Every proposal matching these filters has been reviewed.
+        </Notice>
       ) : (
         <div className="table-scroll">
           <table className="w-full border-collapse text-sm">
             <caption className="sr-only">Proposals waiting for review, oldest first</caption>
             <thead>
               <tr className="border-b-2 border-ink/30 bg-paper-deep text-left">
-                <th scope="col" className="px-3 py-2 font-semibold">Proposal</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Kind</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Author</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Waiting</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Edit note</th>
+                <th scope="col" className="px-3 py-2 font-semibold">
+                  Proposal
+                </th>
+                <th scope="col" className="px-3 py-2 font-semibold">
+                  Kind
+                </th>
+                <th scope="col" className="px-3 py-2 font-semibold">
+                  Author
+                </th>
+                <th scope="col" className="px-3 py-2 font-semibold">
+                  Waiting
+                </th>
+                <th scope="col" className="px-3 py-2 font-semibold">
+                  Edit note
+                </th>
               </tr>
             </thead>
             <tbody>

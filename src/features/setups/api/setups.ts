@@ -11,7 +11,8 @@ export type CompareResult = SetupComparison & { a: CompareSide; b: CompareSide }
 /** Query-option factories for setups (keys general → specific). */
 export const setupQueries = {
   all: () => ['setups'] as const,
-  library: () => queryOptions({ queryKey: [...setupQueries.all(), 'library'] as const, queryFn: async () => (await api.get<Envelope<SetupLibrary>>('/api/setups')).data }),
+  library: () =>
+    queryOptions({ queryKey: [...setupQueries.all(), 'library'] as const, queryFn: async () => (await api.get<Envelope<SetupLibrary>>('/api/setups')).data }),
   escSettings: () =>
     queryOptions({
       queryKey: [...setupQueries.all(), 'esc-settings'] as const,
@@ -102,7 +103,9 @@ export function useAttachSetup(revisionId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: async (record: SetupRecord | null) =>
-      record ? (await api.put<Envelope<SetupRecord>>(`/api/revisions/${revisionId}/setup`, record)).data : (await api.delete<void>(`/api/revisions/${revisionId}/setup`), null),
+      record
+        ? (await api.put<Envelope<SetupRecord>>(`/api/revisions/${revisionId}/setup`, record)).data
+        : (await api.delete<void>(`/api/revisions/${revisionId}/setup`), null),
     onSuccess: () => qc.invalidateQueries({ queryKey: setupQueries.all() }),
   });
 }

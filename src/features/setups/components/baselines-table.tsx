@@ -1,6 +1,14 @@
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { createColumnHelper, flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
 import { CLASSES, SURFACES } from '@shared/constants';
 import type { SetupBaseline } from '@shared/schemas/setup';
 import { guideSetupLinks } from '../api/setups';
@@ -30,7 +38,12 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
       col.accessor((b) => classLabel(b.summary.class), { id: 'class', header: 'Class' }),
       col.accessor((b) => surfaceLabel(b.summary.surface), { id: 'surface', header: 'Surface' }),
       col.accessor((b) => b.summary.motor, { id: 'motor', header: 'Motor', enableSorting: false }),
-      col.accessor((b) => b.summary.finalDriveRatio, { id: 'fdr', header: 'Final drive', cell: (c) => (c.getValue() === null ? '—' : `${fmt(c.getValue(), 2)}:1`), sortUndefined: 'last' }),
+      col.accessor((b) => b.summary.finalDriveRatio, {
+        id: 'fdr',
+        header: 'Final drive',
+        cell: (c) => (c.getValue() === null ? '—' : `${fmt(c.getValue(), 2)}:1`),
+        sortUndefined: 'last',
+      }),
       col.accessor((b) => b.summary.rolloutMm, { id: 'rollout', header: 'Rollout', cell: (c) => (c.getValue() === null ? '—' : `${fmt(c.getValue(), 1)} mm`) }),
       col.display({
         id: 'actions',
@@ -55,7 +68,10 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
     [],
   );
 
-  const data = useMemo(() => baselines.filter((b) => (!cls || b.summary.class === cls) && (!surface || b.summary.surface === surface)), [baselines, cls, surface]);
+  const data = useMemo(
+    () => baselines.filter((b) => (!cls || b.summary.class === cls) && (!surface || b.summary.surface === surface)),
+    [baselines, cls, surface],
+  );
   const table = useReactTable({
     data,
     columns,
@@ -74,7 +90,13 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
       <div className="flex flex-wrap gap-3" role="group" aria-label="Filter baselines">
         <label className="flex min-w-48 flex-1 flex-col text-sm font-medium">
           Search
-          <input type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Guide, motor, class…" className="mt-1 rounded-md border border-ink/25 bg-white/80 px-3 py-1.5 font-normal" />
+          <input
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="Guide, motor, class…"
+            className="mt-1 rounded-md border border-ink/25 bg-white/80 px-3 py-1.5 font-normal"
+          />
         </label>
         <label className="flex flex-col text-sm font-medium">
           Class
@@ -89,7 +111,11 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
         </label>
         <label className="flex flex-col text-sm font-medium">
           Surface
-          <select value={surface} onChange={(e) => setSurface(e.target.value)} className="mt-1 rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal">
+          <select
+            value={surface}
+            onChange={(e) => setSurface(e.target.value)}
+            className="mt-1 rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal"
+          >
             <option value="">All surfaces</option>
             {SURFACES.map((s) => (
               <option key={s.slug} value={s.slug}>
@@ -108,7 +134,12 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
                 {hg.headers.map((h) => {
                   const sorted = h.column.getIsSorted();
                   return (
-                    <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined} className="px-3 py-2 text-left font-semibold whitespace-nowrap">
+                    <th
+                      key={h.id}
+                      scope="col"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                      className="px-3 py-2 text-left font-semibold whitespace-nowrap"
+                    >
                       {h.column.getCanSort() ? (
                         <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 hover:text-copper-dark">
                           {flexRender(h.column.columnDef.header, h.getContext())}

@@ -25,7 +25,11 @@ export function CautionList({ cautions, sideLabels }: { cautions: Caution[]; sid
   return (
     <div className="flex flex-col gap-3" data-testid="cautions">
       {serious.map((c, i) => (
-        <Notice key={`${c.code}-${c.side ?? ''}-${i}`} tone={c.level === 'danger' ? 'danger' : 'caution'} title={`${TITLES[c.code] ?? 'Check this'}${c.side && sideLabels ? ` — ${sideLabels[c.side]}` : ''}`}>
+        <Notice
+          key={`${c.code}-${c.side ?? ''}-${i}`}
+          tone={c.level === 'danger' ? 'danger' : 'caution'}
+          title={`${TITLES[c.code] ?? 'Check this'}${c.side && sideLabels ? ` — ${sideLabels[c.side]}` : ''}`}
+        >
           <p>{c.message}</p>
         </Notice>
       ))}

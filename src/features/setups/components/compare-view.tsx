@@ -14,7 +14,12 @@ function SetupPicker({ label, name, value, onChange }: { label: string; name: st
   return (
     <label className="flex min-w-0 flex-1 flex-col text-sm font-medium">
       {label}
-      <select name={name} value={value} onChange={(e) => onChange(e.target.value)} className="mt-1 w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal">
+      <select
+        name={name}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="mt-1 w-full rounded-md border border-ink/25 bg-white/80 px-2 py-1.5 font-normal"
+      >
         <option value="">Choose a setup…</option>
         <optgroup label="Published baselines">
           {library.data?.baselines.map((b) => (
@@ -44,7 +49,8 @@ function deltaText(d: SetupDelta) {
   const unit = d.unit === ':1' ? '' : d.unit === 'deg' ? '°' : ` ${d.unit}`;
   return `${d.delta > 0 ? '+' : '−'}${fmt(Math.abs(d.delta), digits)}${unit}`;
 }
-const valueText = (v: number | null, unit: string) => (v === null ? '—' : unit === ':1' ? `${fmt(v, 2)}:1` : unit === 'deg' ? `${fmt(v, 1)}°` : `${fmt(v, unit === 'rpm' ? 0 : 2)} ${unit}`);
+const valueText = (v: number | null, unit: string) =>
+  v === null ? '—' : unit === ':1' ? `${fmt(v, 2)}:1` : unit === 'deg' ? `${fmt(v, 1)}°` : `${fmt(v, unit === 'rpm' ? 0 : 2)} ${unit}`;
 
 /** The rpm the timing is read at: a draft while typing, committed to the URL on Enter or leaving the field. */
 function RpmField({ rpm, onCommit }: { rpm: number | undefined; onCommit: (value: string) => void }) {
@@ -139,16 +145,26 @@ export function CompareView() {
               <table className="w-full text-sm" data-testid="deltas-table">
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
-                    <th scope="col" className="px-3 py-2">Value</th>
-                    <th scope="col" className="px-3 py-2">A</th>
-                    <th scope="col" className="px-3 py-2">B</th>
-                    <th scope="col" className="px-3 py-2">Change A → B</th>
+                    <th scope="col" className="px-3 py-2">
+                      Value
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      A
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      B
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      Change A → B
+                    </th>
                   </tr>
                 </thead>
                 <tbody>
                   {cmp.data.deltas.map((d) => (
                     <tr key={d.key} className={`border-b border-paper-line ${d.delta ? 'bg-copper-wash/60' : ''}`}>
-                      <th scope="row" className="px-3 py-2 text-left font-medium">{d.label}</th>
+                      <th scope="row" className="px-3 py-2 text-left font-medium">
+                        {d.label}
+                      </th>
                       <td className="px-3 py-2 tabular-nums">{valueText(d.a, d.unit)}</td>
                       <td className="px-3 py-2 tabular-nums">{valueText(d.b, d.unit)}</td>
                       <td className="px-3 py-2 font-semibold tabular-nums">{deltaText(d)}</td>
@@ -157,7 +173,10 @@ export function CompareView() {
                 </tbody>
               </table>
             </div>
-            <p className="mt-1 text-xs text-ink-muted">Speeds at each pack's nominal voltage, with the motor reaching {Math.round((cmp.data.computed.a.speed?.loadFactor ?? 0.85) * 100)} % of its no-load rpm. Estimates, not measurements.</p>
+            <p className="mt-1 text-xs text-ink-muted">
+              Speeds at each pack's nominal voltage, with the motor reaching {Math.round((cmp.data.computed.a.speed?.loadFactor ?? 0.85) * 100)} % of its
+              no-load rpm. Estimates, not measurements.
+            </p>
           </section>
 
           <section aria-labelledby="fields-title">
@@ -173,9 +192,15 @@ export function CompareView() {
               <table className="w-full text-sm" data-testid="fields-table">
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
-                    <th scope="col" className="w-1/3 min-w-32 px-3 py-2">Field</th>
-                    <th scope="col" className="px-3 py-2">A</th>
-                    <th scope="col" className="px-3 py-2">B</th>
+                    <th scope="col" className="w-1/3 min-w-32 px-3 py-2">
+                      Field
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      A
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      B
+                    </th>
                   </tr>
                 </thead>
                 {SETUP_SECTIONS.map((section) => {
@@ -189,9 +214,17 @@ export function CompareView() {
                         </th>
                       </tr>
                       {rows.map((f) => (
-                        <tr key={f.path} className={`border-b border-paper-line ${f.changed ? 'bg-copper-wash font-medium' : ''}`} data-changed={f.changed || undefined}>
+                        <tr
+                          key={f.path}
+                          className={`border-b border-paper-line ${f.changed ? 'bg-copper-wash font-medium' : ''}`}
+                          data-changed={f.changed || undefined}
+                        >
                           <th scope="row" className="px-3 py-1.5 text-left font-normal">
-                            {f.changed && <span className="mr-1 text-copper-dark" aria-label="changed">●</span>}
+                            {f.changed && (
+                              <span className="mr-1 text-copper-dark" aria-label="changed">
+                                ●
+                              </span>
+                            )}
                             {f.label}
                           </th>
                           <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.a, f.unit)}</td>

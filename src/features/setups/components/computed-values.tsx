@@ -8,14 +8,22 @@ export function ComputedValues({ computed, dense = false }: { computed: SetupCom
     ['Final drive ratio', gearing ? `${fmt(gearing.finalDriveRatio, 2)}:1` : '—'],
     ['Rollout', gearing ? `${fmt(gearing.rolloutMm, 1)} mm` : '—', gearing ? `${fmt(gearing.rolloutIn, 3)} in per motor turn` : undefined],
     ['No-load motor speed', motor ? `${fmt(motor.noLoadRpm, 0)} rpm` : '—', motor ? `at ${fmt(motor.volts)} V nominal` : 'needs the motor kV'],
-    ['Estimated top speed', speed ? `${fmt(speed.loadedKmh, 1)} km/h` : '—', speed ? `${fmt(speed.loadedMph, 1)} mph; ${Math.round(speed.loadFactor * 100)} % of no-load rpm` : undefined],
+    [
+      'Estimated top speed',
+      speed ? `${fmt(speed.loadedKmh, 1)} km/h` : '—',
+      speed ? `${fmt(speed.loadedMph, 1)} mph; ${Math.round(speed.loadFactor * 100)} % of no-load rpm` : undefined,
+    ],
     ['Pack', pack ? `${fmt(pack.fullV)} V full · ${fmt(pack.nominalV)} V nominal` : '—', pack?.storageV ? `storage ${fmt(pack.storageV)} V` : undefined],
     [
       'Low-voltage cutoff',
       pack?.cutoffV ? `${fmt(pack.cutoffV)} V (${fmt(pack.cutoffPerCellV)} V per cell)` : 'not set',
       pack ? `usual window ${fmt(pack.cutoffWindowPerCellV.min)}–${fmt(pack.cutoffWindowPerCellV.max)} V per cell` : undefined,
     ],
-    ['Total timing', timing ? `${fmt(timing.totalDeg, 1)}°` : '—', timing ? `at ${fmt(timing.atRpm, 0)} rpm: ${fmt(timing.controllerDeg, 1)}° controller + ${fmt(timing.endbellElectricalDeg, 1)}° endbell` : undefined],
+    [
+      'Total timing',
+      timing ? `${fmt(timing.totalDeg, 1)}°` : '—',
+      timing ? `at ${fmt(timing.atRpm, 0)} rpm: ${fmt(timing.controllerDeg, 1)}° controller + ${fmt(timing.endbellElectricalDeg, 1)}° endbell` : undefined,
+    ],
   ];
   return (
     <dl className={`grid gap-x-6 ${dense ? 'gap-y-1 sm:grid-cols-2' : 'gap-y-3 sm:grid-cols-2 lg:grid-cols-3'}`} data-testid="computed-values">

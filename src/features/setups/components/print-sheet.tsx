@@ -15,7 +15,9 @@ export function PrintSheet({ slug }: { slug: string }) {
     return (
       <div className="mx-auto max-w-xl p-8">
         <h1 className="font-serif text-2xl font-bold">No setup sheet</h1>
-        <p className="mt-2">{q.error instanceof ApiError && q.error.status === 404 ? 'This guide has no published baseline setup.' : 'The setup could not be loaded.'}</p>
+        <p className="mt-2">
+          {q.error instanceof ApiError && q.error.status === 404 ? 'This guide has no published baseline setup.' : 'The setup could not be loaded.'}
+        </p>
         <Link to="/setups">Back to the setup library</Link>
       </div>
     );
@@ -44,7 +46,8 @@ export function PrintSheet({ slug }: { slug: string }) {
         <p className="text-xs tracking-[0.14em] uppercase">Tunewright setup sheet · tunewright.setup v{record.schemaVersion}</p>
         <h1 className="font-serif text-2xl leading-tight font-bold">{p?.guideTitle ?? slug}</h1>
         <p className="text-sm">
-          Version {p?.revisionNumber} by {p?.authorDisplayName} · exported {p?.exportedAt ? new Date(p.exportedAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric' }) : ''}
+          Version {p?.revisionNumber} by {p?.authorDisplayName} · exported{' '}
+          {p?.exportedAt ? new Date(p.exportedAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric' }) : ''}
         </p>
       </header>
       <section className="mb-4 grid grid-cols-3 gap-3 border border-black p-3 text-sm sm:grid-cols-6 print:grid-cols-6" aria-label="Computed values">
@@ -63,7 +66,8 @@ export function PrintSheet({ slug }: { slug: string }) {
         ))}
         {computed.timing && (
           <p className="col-span-full text-xs">
-            Total timing at {fmt(computed.timing.atRpm, 0)} rpm: {fmt(computed.timing.totalDeg, 1)}° ({fmt(computed.timing.controllerDeg, 1)}° controller + {fmt(computed.timing.endbellElectricalDeg, 1)}° endbell, electrical). Speeds at the pack's nominal voltage.
+            Total timing at {fmt(computed.timing.atRpm, 0)} rpm: {fmt(computed.timing.totalDeg, 1)}° ({fmt(computed.timing.controllerDeg, 1)}° controller +{' '}
+            {fmt(computed.timing.endbellElectricalDeg, 1)}° endbell, electrical). Speeds at the pack's nominal voltage.
           </p>
         )}
       </section>

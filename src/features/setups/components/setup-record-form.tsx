@@ -67,13 +67,18 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
   const escOptions = useMemo(() => definitions.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD)), [definitions]);
   const bySlug = useMemo(() => new Map(definitions.map((d) => [d.slug, d])), [definitions]);
   // Explicit generics (input, context, output) as zod 4 resolvers need; the record type is the same both ways.
-  const form = useForm<SetupRecord, unknown, SetupRecord>({ resolver: zodResolver(schema) as Resolver<SetupRecord, unknown, SetupRecord>, defaultValues: defaultValue ?? EMPTY, mode: 'onBlur' });
+  const form = useForm<SetupRecord, unknown, SetupRecord>({
+    resolver: zodResolver(schema) as Resolver<SetupRecord, unknown, SetupRecord>,
+    defaultValues: defaultValue ?? EMPTY,
+    mode: 'onBlur',
+  });
   const { register, handleSubmit, formState, reset, setValue, unregister, watch } = form;
   const [slugs, setSlugs] = useState<string[]>(() => Object.keys(defaultValue?.escSettings ?? {}));
   const [adding, setAdding] = useState('');
   const [fileIssues, setFileIssues] = useState<SetupIssue[] | null>(null);
   const errors = formState.errors as FieldErrors;
-  const err = (path: string): string | undefined => (get(errors, path) as { message?: string } | undefined)?.message ?? (get(errors, `${path}.root`) as { message?: string } | undefined)?.message;
+  const err = (path: string): string | undefined =>
+    (get(errors, path) as { message?: string } | undefined)?.message ?? (get(errors, `${path}.root`) as { message?: string } | undefined)?.message;
 
   const values = watch();
   const preview = useMemo(() => {
@@ -109,7 +114,11 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
   const num = (path: string) => register(path as never, { setValueAs: toNumber });
 
   return (
-    <form onSubmit={handleSubmit(async (record) => onSubmit(canonicalRecord(JSON.parse(JSON.stringify(record)) as SetupRecord)))} className="flex flex-col gap-4" noValidate>
+    <form
+      onSubmit={handleSubmit(async (record) => onSubmit(canonicalRecord(JSON.parse(JSON.stringify(record)) as SetupRecord)))}
+      className="flex flex-col gap-4"
+      noValidate
+    >
       <div className="flex flex-wrap items-center gap-3 rounded-lg border border-dashed border-ink/30 p-3 text-sm">
         <label htmlFor="setup-fill-file" className="font-medium">
           Fill from a file
@@ -151,7 +160,13 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
         <TextField label="kV (rpm/V)" inputMode="decimal" hint="kV or wind, or both" error={err('motor.kvRpmPerV')} {...num('motor.kvRpmPerV')} />
         <TextField label="Wind (turns)" inputMode="decimal" error={err('motor.windTurns')} {...num('motor.windTurns')} />
         <TextField label="Rotor poles" inputMode="numeric" error={err('motor.poles')} {...num('motor.poles')} />
-        <TextField label="Endbell timing (°)" inputMode="decimal" hint="Mechanical degrees on the motor" error={err('motor.endbellTimingDeg')} {...num('motor.endbellTimingDeg')} />
+        <TextField
+          label="Endbell timing (°)"
+          inputMode="decimal"
+          hint="Mechanical degrees on the motor"
+          error={err('motor.endbellTimingDeg')}
+          {...num('motor.endbellTimingDeg')}
+        />
         <label className="flex items-center gap-2 text-sm font-medium">
           <input type="checkbox" {...register('motor.sensored')} /> Sensored
         </label>
@@ -204,8 +219,20 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
       <Section title="Gearing">
         <TextField label="Spur (teeth)" inputMode="numeric" error={err('gearing.spurTeeth')} {...num('gearing.spurTeeth')} />
         <TextField label="Pinion (teeth)" inputMode="numeric" error={err('gearing.pinionTeeth')} {...num('gearing.pinionTeeth')} />
-        <TextField label="Internal ratio (:1)" inputMode="decimal" hint="1 for direct drive" error={err('gearing.internalRatio')} {...num('gearing.internalRatio')} />
-        <TextField label="Tyre diameter (mm)" inputMode="decimal" hint="Measured on the car" error={err('gearing.tyreDiameterMm')} {...num('gearing.tyreDiameterMm')} />
+        <TextField
+          label="Internal ratio (:1)"
+          inputMode="decimal"
+          hint="1 for direct drive"
+          error={err('gearing.internalRatio')}
+          {...num('gearing.internalRatio')}
+        />
+        <TextField
+          label="Tyre diameter (mm)"
+          inputMode="decimal"
+          hint="Measured on the car"
+          error={err('gearing.tyreDiameterMm')}
+          {...num('gearing.tyreDiameterMm')}
+        />
       </Section>
 
       <Section title="Battery">

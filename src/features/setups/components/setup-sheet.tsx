@@ -6,7 +6,8 @@ import { guideSetupLinks, setupQueries } from '../api/setups';
 import { CautionList } from './caution-list';
 import { ComputedValues } from './computed-values';
 
-const linkButton = 'inline-flex items-center rounded-md border border-ink/25 bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep';
+const linkButton =
+  'inline-flex items-center rounded-md border border-ink/25 bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep';
 
 /**
  * The baseline box for a guide page: download buttons (JSON, CSV, print), the key computed
@@ -15,7 +16,8 @@ const linkButton = 'inline-flex items-center rounded-md border border-ink/25 bg-
 export function SetupSheet({ slug }: { slug: string }) {
   const q = useQuery(setupQueries.guide(slug));
   if (q.isPending) return <Spinner label="Loading the baseline setup…" />;
-  if (q.error) return q.error instanceof ApiError && q.error.status === 404 ? null : <p className="text-sm text-danger">The baseline setup could not be loaded.</p>;
+  if (q.error)
+    return q.error instanceof ApiError && q.error.status === 404 ? null : <p className="text-sm text-danger">The baseline setup could not be loaded.</p>;
   const { record, computed } = q.data;
   const links = guideSetupLinks(slug);
   return (
@@ -26,7 +28,8 @@ export function SetupSheet({ slug }: { slug: string }) {
             Baseline setup
           </h2>
           <p className="text-sm text-ink-muted">
-            Version {record.provenance?.revisionNumber} by {record.provenance?.authorDisplayName}. A starting point, not a rule: your equipment maker's instructions and your track's rules come first.
+            Version {record.provenance?.revisionNumber} by {record.provenance?.authorDisplayName}. A starting point, not a rule: your equipment maker's
+            instructions and your track's rules come first.
           </p>
         </div>
         <div className="flex flex-wrap gap-2">

@@ -52,9 +52,17 @@ export function UploadForm({ onUploaded }: { onUploaded?: (upload: SetupUpload) 
         <label htmlFor={`${id}-file`} className="text-sm font-medium">
           Setup file
         </label>
-        <input ref={input} id={`${id}-file`} name="file" type="file" accept=".json,.csv,application/json,text/csv" className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink/25 file:bg-paper-card file:px-3 file:py-1.5 file:font-medium" />
+        <input
+          ref={input}
+          id={`${id}-file`}
+          name="file"
+          type="file"
+          accept=".json,.csv,application/json,text/csv"
+          className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink/25 file:bg-paper-card file:px-3 file:py-1.5 file:font-medium"
+        />
         <p id={`${id}-hint`} className="text-xs text-ink-muted">
-          A Tunewright setup record (.json) or our CSV layout (.csv), up to {LIMITS.uploadBytes / 1024} KB. Download a baseline to start from, or <Link to="/setups/new">build one</Link>.
+          A Tunewright setup record (.json) or our CSV layout (.csv), up to {LIMITS.uploadBytes / 1024} KB. Download a baseline to start from, or{' '}
+          <Link to="/setups/new">build one</Link>.
         </p>
       </div>
       {progress !== null && (

@@ -21,7 +21,8 @@ export function UploadsList({ uploads }: { uploads: Omit<SetupUpload, 'record'>[
           <span className="min-w-0 flex-1">
             <span className="font-medium break-all">{u.originalName}</span>
             <span className="block text-xs text-ink-muted">
-              {classLabel(u.summary.class)} · {u.summary.motor} · {u.summary.finalDriveRatio === null ? '—' : `${fmt(u.summary.finalDriveRatio)}:1`} · {u.summary.pack} · {new Date(u.createdAt).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
+              {classLabel(u.summary.class)} · {u.summary.motor} · {u.summary.finalDriveRatio === null ? '—' : `${fmt(u.summary.finalDriveRatio)}:1`} ·{' '}
+              {u.summary.pack} · {new Date(u.createdAt).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
             </span>
           </span>
           <Link to={`/setups/compare?b=${u.id}`}>Compare</Link>
