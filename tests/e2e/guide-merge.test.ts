@@ -121,20 +121,21 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
 
     const L1 = 'Raise punch a step and straighten the curve a little.';
     const L2 = 'Take drag brake to zero.';
-    const L3 = 'Under 75 °C after a race is fine for this setup';
+    const L3 = 'Under about 71 °C (160 °F) after a race is comfortable';
+    const J3 = 'Under about 65 °C (150 °F) after a race is comfortable';
     await openProposal(jonah, suite.server.baseUrl, slug, L1);
     await openProposal(calum, suite.server.baseUrl, slug, L1);
     for (const [from, to] of [
       [L1, 'Raise punch two steps and straighten the curve a little.'],
       [L2, 'Take drag brake to zero and soften the initial brake.'],
-      [L3, 'Under 70 °C after a race is fine for this setup'],
+      [L3, J3],
     ])
       await editBody(jonah, from, to);
     await jonah.getByLabel('Summary').fill('A 2WD short-course baseline for the summer field track, tuned for the dusty afternoons.');
     for (const [from, to] of [
       [L1, 'Raise punch one step and leave the curve alone.'],
       [L2, 'Take drag brake to zero; keep brake strength at 60 %.'],
-      [L3, 'Under 80 °C after a race is fine for this setup'],
+      [L3, 'Under about 75 °C (167 °F) after a race is comfortable'],
     ])
       await editBody(calum, from, to);
     const calumSummary = 'A 2WD short-course baseline for Saltings Meadow, written for the morning hardpack.';
@@ -172,13 +173,11 @@ describe('conflict and merge in Chromium: two members edit the same live guide f
     const third = calum.getByRole('region', { name: 'Overlapping change 3', exact: true });
     await third.getByRole('button', { name: /Edit by hand/ }).click();
     const combined = third.getByLabel('Your combined text');
-    await expect.poll(() => combined.inputValue()).toContain('Under 70 °C');
+    await expect.poll(() => combined.inputValue()).toContain('Under about 65 °C');
     // Keep the live line and fold both limits into it; the draft's second line goes.
     const liveLine = (await combined.inputValue()).split('\n')[0];
-    expect(liveLine).toContain('Under 70 °C after a race is fine for this setup');
-    await combined.fill(
-      liveLine.replace('Under 70 °C after a race is fine for this setup', 'Under 75 °C after a race is fine on a cool morning, under 70 °C on a hot afternoon'),
-    );
+    expect(liveLine).toContain(J3);
+    await combined.fill(liveLine.replace(J3, 'Under 75 °C after a race is fine on a cool morning, under 70 °C on a hot afternoon'));
     await expect.poll(() => save.isDisabled()).toBe(false);
     expect(await calum.getByText(/left to decide/).count()).toBe(0);
     await calum.setViewportSize(VIEWPORTS.desktop);

@@ -77,7 +77,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await screenshot(rosa, 'guides-editor-returned');
     expect(await seriousViolations(rosa)).toBe('');
 
-    // She fixes the checklist, and the draft saves while it is still "sent back".
+    // She fixes the checklist; the first change makes it a draft again, with the moderator's reason kept.
     const body = await rosa.getByLabel('Body').inputValue();
     const checklistLine = body.split('\n').find((l) => l.startsWith('- ') && /initial brake/i.test(l));
     expect(checklistLine, 'the checklist names the initial brake').toBeTruthy();
@@ -85,7 +85,7 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await editBody(rosa, checklistLine!, fixedLine);
     await waitSaved(rosa);
     const edited = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === proposal.id)!;
-    expect(edited.state).toBe('returned');
+    expect(edited).toMatchObject({ state: 'draft', reason });
     expect(edited.content.body).toContain(fixedLine);
 
     // Resubmit with a new note.
