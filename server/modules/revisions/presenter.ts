@@ -1,27 +1,16 @@
 import { LRUCache } from 'lru-cache';
 import type { GuideRecord, GuideSummary } from '../../../shared/schemas/guide';
-import type { DocumentStatus, MyRevision, Person, ReadableRevision, ReviewItem, Revision, RevisionHistoryItem } from '../../../shared/schemas/revision';
+import type { DocumentStatus, MyRevision, ReadableRevision, ReviewItem, Revision, RevisionHistoryItem } from '../../../shared/schemas/revision';
 import { resolveParameterHref } from '../../../shared/markdown/links';
 import { renderMarkdownHtml } from '../../lib/markdown-html';
+import { titleOf } from './content';
 import type { DocumentEntity } from './document.entity';
-import type { RevisionEntity } from './revision.entity';
+import type { RevisionView } from './views';
 
-/** A revision with what presenting it needs: its document, people and the base revision's number. */
-export type RevisionView = {
-  rev: RevisionEntity;
-  doc: DocumentEntity;
-  author: Person;
-  reviewer: Person | null;
-  baseNumber: number | null;
-};
+export type { RevisionView } from './views';
+export { titleOf } from './content';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
-
-/** Guide title or parameter name: what a list row calls the document. */
-export function titleOf(rev: RevisionEntity): string {
-  const c = rev.content as { title?: unknown; name?: unknown };
-  return String(c.title ?? c.name ?? '');
-}
 
 export function presentRevision(v: RevisionView): Revision {
   const { rev, doc } = v;

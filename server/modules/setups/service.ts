@@ -4,17 +4,17 @@ import type { SettingDefinitionRow } from '../../../shared/schemas/setup';
 import { compareSetups } from '../../../shared/setup/compare';
 import { parseSetupText, validateSetupObject } from '../../../shared/setup/import';
 import type { AppContext } from '../../context';
-import { AppError, notFound } from '../../lib/errors';
+import { notFound } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
 import { DocumentEntity } from '../revisions/document.entity';
 import { RevisionEntity } from '../revisions/revision.entity';
-import { reopenIfReturned } from '../revisions/service';
+import { changeBaseline } from '../revisions/commands/baseline';
+import type { Member } from '../revisions/transition';
 import { UserEntity } from '../auth/user.entity';
 import { SetupEntity } from './setup.entity';
 import { checkFileContent, checkFileName, invalidSetup } from './upload';
-import { canReadUpload, mayChangeBaseline } from './policy';
+import { canReadUpload } from './policy';
 import { ownsMotor } from '../motors/service';
-import type { Actor } from '../revisions/policy';
 
 type Db = DataSource | EntityManager;
 
@@ -161,22 +161,9 @@ export async function compareRefs(db: Db, user: { id: string } | null, a: string
   return { a: { ref: sa.ref, label: sa.label, kind: sa.kind }, b: { ref: sb.ref, label: sb.label, kind: sb.kind }, ...comparison };
 }
 
-/** The author's own draft guide revision, or the reason it cannot take a baseline. */
-async function ownDraft(m: EntityManager, user: Actor, revisionId: string) {
-  const revision = await m.getRepository(RevisionEntity).findOne({ where: { id: revisionId }, lock: { mode: 'pessimistic_write' } });
-  if (!revision) throw notFound('That revision');
-  // Who first: a stranger learns nothing about someone else's draft, not even its kind.
-  const decision = mayChangeBaseline(user, revision);
-  if (!decision.ok) throw new AppError(decision.status, decision.code, decision.message);
-  const doc = await m.getRepository(DocumentEntity).findOneByOrFail({ id: revision.documentId });
-  if (doc.kind !== 'guide') throw new AppError(409, 'not_a_guide', 'Only guide revisions carry a baseline setup.');
-  return { revision, doc };
-}
-
-/** Attaches (or replaces) the baseline of the author's own draft, after validating it against the library. */
-export async function attachToRevision(ctx: AppContext, user: Actor, revisionId: string, body: unknown) {
-  return ctx.dataSource.transaction(async (m) => {
-    const { revision, doc } = await ownDraft(m, user, revisionId);
+/** Attaches (or replaces) the baseline of the author's own draft, after validating it against the library (a revision command). */
+export async function attachToRevision(ctx: AppContext, user: Member, revisionId: string, body: unknown): Promise<SetupRecord> {
+  const record = await changeBaseline(ctx, user, revisionId, async (m) => {
     const result = validateSetupObject(body, await loadSettingLibrary(m));
     if (!result.ok)
       throw invalidSetup(400, `The setup record has ${result.issues.length === 1 ? 'a problem' : `${result.issues.length} problems`}.`, result.issues);
@@ -188,16 +175,11 @@ export async function attachToRevision(ctx: AppContext, user: Actor, revisionId:
         { path: 'motor.registeredMotorId', message: 'A guide’s baseline is public: remove the registered motor (it is private to you)' },
       ]);
     }
-    await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: record });
-    await reopenIfReturned(m, user!.id, revision, doc);
     return record as SetupRecord;
   });
+  return record!;
 }
 
-export async function detachFromRevision(ctx: AppContext, user: Actor, revisionId: string) {
-  await ctx.dataSource.transaction(async (m) => {
-    const { revision, doc } = await ownDraft(m, user, revisionId);
-    await m.getRepository(RevisionEntity).update({ id: revision.id }, { setup: null });
-    await reopenIfReturned(m, user!.id, revision, doc);
-  });
+export async function detachFromRevision(ctx: AppContext, user: Member, revisionId: string) {
+  await changeBaseline(ctx, user, revisionId, async () => null);
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { changedFields, threeWayMerge, workedExampleBlocks } from '../../../server/modules/revisions/compare';
-import { slugify } from '../../../server/modules/revisions/service';
+import { slugify } from '../../../server/modules/revisions/content';
 
 describe('threeWayMerge', () => {
   const base = { title: 'T', tags: ['a'], body: 'one\ntwo\nthree\nfour' };

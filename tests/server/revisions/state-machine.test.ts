@@ -247,8 +247,11 @@ describe('POST /api/reviews/:revisionId/return', () => {
           : await author.delete(`/api/revisions/${revision.id}/setup`);
       expect(res.status, `${method}: ${JSON.stringify(res.body)}`).toBe(method === 'put' ? 200 : 204);
       expect(await stateOf(revision.id)).toBe('draft');
-      const row = (await auditFor(revision.id)).at(-1)!;
-      expect([row.action, row.from_value, row.to_value]).toEqual(['revision.reopen', 'returned', 'draft']);
+      // One transaction writes both rows (same created_at): the reopening and the baseline change itself.
+      const rows = (await auditFor(revision.id)).slice(-2);
+      const row = rows.find((r) => r.action === 'revision.reopen')!;
+      expect([row?.action, row?.from_value, row?.to_value]).toEqual(['revision.reopen', 'returned', 'draft']);
+      expect(rows.map((r) => r.action)).toContain(method === 'put' ? 'revision.baseline' : 'revision.baseline_removed');
       const stored = (await t.db.dataSource.query('SELECT setup FROM revisions WHERE id = $1', [revision.id]))[0].setup;
       if (method === 'put') expect(stored.gearing.pinionTeeth).toBe(30);
       else expect(stored).toBeNull();
