@@ -31,22 +31,25 @@ export type Ownership = { resource: OwnedResource; rule: OwnershipRule };
 
 export type HandlerResult = { status?: number; data?: unknown; meta?: unknown } | void;
 
-export type HandlerInput<B, Q, P> = {
+/** The caller: always a signed-in account on a route whose access is a role, possibly nobody on a public one. */
+export type CallerFor<A extends Access> = A extends 'public' ? User | null : User;
+
+export type HandlerInput<B, Q, P, A extends Access = Access> = {
   body: B;
   query: Q;
   params: P;
-  user: User | null;
+  user: CallerFor<A>;
   req: Request;
   res: Response;
   ctx: AppContext;
 };
 
-export type RouteDef<B = unknown, Q = unknown, P = unknown> = {
+export type RouteDef<B = unknown, Q = unknown, P = unknown, A extends Access = Access> = {
   method: Method;
   path: string;
   summary: string;
   tags: string[];
-  access: Access;
+  access: A;
   /** Required on every route that takes an owned resource's id (the authorization matrix fails without it). */
   owner?: Ownership;
   body?: z.ZodType<B>;
@@ -66,11 +69,11 @@ export type RouteDef<B = unknown, Q = unknown, P = unknown> = {
   download?: boolean;
   /** Extra Express middleware run after access checks and before validation (e.g. multer). */
   before?: Array<(req: Request, res: Response, next: NextFunction) => void>;
-  handler: (input: HandlerInput<B, Q, P>) => Promise<HandlerResult> | HandlerResult;
+  handler: (input: HandlerInput<B, Q, P, A>) => Promise<HandlerResult> | HandlerResult;
 };
 
 /** Declares one API route; the route table, validation, OpenAPI and generated tests all read this. */
-export function defineRoute<B = undefined, Q = undefined, P = undefined>(def: RouteDef<B, Q, P>): RouteDef {
+export function defineRoute<B = undefined, Q = undefined, P = undefined, A extends Access = Access>(def: RouteDef<B, Q, P, A>): RouteDef {
   return def as unknown as RouteDef;
 }
 

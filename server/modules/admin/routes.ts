@@ -29,6 +29,6 @@ export const adminRoutes = [
     params: uuidParam,
     body: adminUserPatchSchema,
     response: z.object({ user: adminUserSchema }),
-    handler: async ({ params, body, user, ctx }) => ({ data: { user: presentAdminUser(await adminService(ctx).updateUser(user!.id, params.id, body)) } }),
+    handler: async ({ params, body, user, ctx }) => ({ data: { user: presentAdminUser(await adminService(ctx).updateUser(user.id, params.id, body)) } }),
   }),
 ];

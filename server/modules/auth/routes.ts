@@ -158,7 +158,7 @@ export const authRoutes = [
     body: updateProfileSchema,
     response: userData,
     handler: async ({ body, user, req, ctx }) => {
-      const updated = presentUser(await authService(ctx).updateProfile(user!.id, body.displayName));
+      const updated = presentUser(await authService(ctx).updateProfile(user.id, body.displayName));
       req.user = updated;
       return { data: { user: updated } };
     },
@@ -174,7 +174,7 @@ export const authRoutes = [
     body: changePasswordSchema,
     response: userData,
     handler: async ({ body, user, req, ctx }) => {
-      const updated = presentUser(await authService(ctx).changePassword(user!.id, body.currentPassword, body.newPassword));
+      const updated = presentUser(await authService(ctx).changePassword(user.id, body.currentPassword, body.newPassword));
       await logIn(req, updated);
       return { data: { user: updated } };
     },

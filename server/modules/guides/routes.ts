@@ -43,7 +43,7 @@ export const guideRoutes = [
     status: 201,
     response: z.object({ guide: z.object({ slug: z.string() }), revision: revisionSchema }),
     handler: async ({ body, user, ctx }) => {
-      const v = await revisionService(ctx).createDocument(user!, 'guide', body);
+      const v = await revisionService(ctx).createDocument(user, 'guide', body);
       return { data: { guide: { slug: v.doc.slug }, revision: presentRevision(v) } };
     },
   }),

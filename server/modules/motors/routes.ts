@@ -43,7 +43,7 @@ export const motorRoutes: RouteDef[] = [
     owner: { resource: 'motor', rule: 'self' },
     response: z.array(motorSchema),
     handler: async ({ user, ctx }) => {
-      const motors = (await listMotors(ctx.dataSource, user!.id)).map(presentMotor);
+      const motors = (await listMotors(ctx.dataSource, user.id)).map(presentMotor);
       return { data: motors, meta: { total: motors.length } };
     },
   }),
@@ -58,7 +58,7 @@ export const motorRoutes: RouteDef[] = [
     response: motorSchema,
     handler: async ({ body, user, ctx }) => ({
       status: 201,
-      data: presentMotor({ row: await createMotor(ctx.dataSource, user!.id, body), stats: { checkCount: 0, lastTestedAt: null } }),
+      data: presentMotor({ row: await createMotor(ctx.dataSource, user.id, body), stats: { checkCount: 0, lastTestedAt: null } }),
     }),
   }),
   defineRoute({
@@ -83,7 +83,7 @@ export const motorRoutes: RouteDef[] = [
     body: motorPatchSchema,
     response: motorSchema,
     handler: async ({ params, body, user, ctx }) => ({
-      data: presentMotor(await motorWithStats(ctx.dataSource, await updateMotor(ctx.dataSource, user!, params.id, body))),
+      data: presentMotor(await motorWithStats(ctx.dataSource, await updateMotor(ctx.dataSource, user, params.id, body))),
     }),
   }),
   defineRoute({
@@ -96,7 +96,7 @@ export const motorRoutes: RouteDef[] = [
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {
-      await deleteMotor(ctx.dataSource, user!, params.id);
+      await deleteMotor(ctx.dataSource, user, params.id);
     },
   }),
   defineRoute({
@@ -111,7 +111,7 @@ export const motorRoutes: RouteDef[] = [
     body: checkCreateSchema,
     response: checkSchema,
     handler: async ({ params, body, user, ctx }) => {
-      const row = await addCheck(ctx.dataSource, user!, params.id, body as CheckCreate);
+      const row = await addCheck(ctx.dataSource, user, params.id, body as CheckCreate);
       const motor = await getMotor(ctx.dataSource, user, params.id);
       return { status: 201, data: presentCheck(row, referenceOf(motor, await listChecks(ctx.dataSource, motor.id))?.id) };
     },
@@ -166,7 +166,7 @@ export const motorRoutes: RouteDef[] = [
     params: checkParams,
     status: 204,
     handler: async ({ params, user, ctx }) => {
-      await deleteCheck(ctx.dataSource, user!, params.id, params.checkId);
+      await deleteCheck(ctx.dataSource, user, params.id, params.checkId);
     },
   }),
   defineRoute({
@@ -180,7 +180,7 @@ export const motorRoutes: RouteDef[] = [
     query: compareQuery,
     response: motorCompareSchema,
     handler: async ({ params, query, user, ctx }) => {
-      const { motor, checks, from, to } = await comparePair(ctx.dataSource, user!, params.id, query.from, query.to);
+      const { motor, checks, from, to } = await comparePair(ctx.dataSource, user, params.id, query.from, query.to);
       const ref = referenceOf(motor, checks)?.id;
       const rows = compareChecks(checkValues(from), checkValues(to), effectiveTolerances(motor.tolerances));
       return { data: { from: presentCheck(from, ref), to: presentCheck(to, ref), quantities: rows, findings: compareFindings(rows) } };

@@ -101,7 +101,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       status: 201,
       response: revisionEnvelope,
       handler: async ({ params, body, user, ctx }) => ({
-        data: { revision: presentRevision(await revisionService(ctx).createDraft(user!, kind, params.slug, body)) },
+        data: { revision: presentRevision(await revisionService(ctx).createDraft(user, kind, params.slug, body)) },
       }),
     }),
     defineRoute({
@@ -115,7 +115,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       status: 201,
       response: revisionEnvelope,
       handler: async ({ params, body, user, ctx }) => ({
-        data: { revision: presentRevision(await revisionService(ctx).restore(user!, kind, params.slug, body.number, body.note)) },
+        data: { revision: presentRevision(await revisionService(ctx).restore(user, kind, params.slug, body.number, body.note)) },
       }),
     }),
     ...([true, false] as const).map((hide) =>
@@ -129,7 +129,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
         body: hide ? hideDocumentSchema : unhideDocumentSchema,
         response: hiddenState,
         handler: async ({ params, body, user, ctx }) => {
-          const doc = await revisionService(ctx).setHidden(user!, kind, params.slug, hide, (body as { reason?: string }).reason ?? null);
+          const doc = await revisionService(ctx).setHidden(user, kind, params.slug, hide, (body as { reason?: string }).reason ?? null);
           return { data: { document: { ...presentDocumentStatus(doc, null), hiddenAt: doc.hiddenAt?.toISOString() ?? null, hiddenReason: doc.hiddenReason } } };
         },
       }),
@@ -167,7 +167,7 @@ export const revisionRoutes: RouteDef[] = [
     response: revisionEnvelope.extend({ checks: z.array(contentCheckSchema) }),
     handler: async ({ params, body, user, ctx }) => {
       // The checks run on every save, so the editor lists them as the author writes.
-      const view = await revisionService(ctx).updateDraft(user!, params.id, body);
+      const view = await revisionService(ctx).updateDraft(user, params.id, body);
       return { data: { revision: presentRevision(view), checks: await checkRevisionContent(ctx.dataSource, view.doc.kind, view.rev.content, view.rev.setup) } };
     },
   }),
@@ -181,7 +181,7 @@ export const revisionRoutes: RouteDef[] = [
     params: revisionIdParam,
     body: submitRevisionSchema,
     response: revisionEnvelope,
-    handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).submit(user!, params.id, body.note)) } }),
+    handler: async ({ params, body, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).submit(user, params.id, body.note)) } }),
   }),
   defineRoute({
     method: 'post',
@@ -192,7 +192,7 @@ export const revisionRoutes: RouteDef[] = [
     owner: { resource: 'revision', rule: 'owner' },
     params: revisionIdParam,
     response: revisionEnvelope,
-    handler: async ({ params, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).withdraw(user!, params.id)) } }),
+    handler: async ({ params, user, ctx }) => ({ data: { revision: presentRevision(await revisionService(ctx).withdraw(user, params.id)) } }),
   }),
   defineRoute({
     method: 'post',
@@ -203,7 +203,7 @@ export const revisionRoutes: RouteDef[] = [
     owner: { resource: 'revision', rule: 'owner' },
     params: revisionIdParam,
     response: rebaseResultSchema,
-    handler: async ({ params, user, ctx }) => ({ data: await revisionService(ctx).rebase(user!, params.id) }),
+    handler: async ({ params, user, ctx }) => ({ data: await revisionService(ctx).rebase(user, params.id) }),
   }),
   defineRoute({
     method: 'get',
@@ -215,7 +215,7 @@ export const revisionRoutes: RouteDef[] = [
     query: z.object({ state: z.enum(REVISION_STATES).optional(), kind: documentKindSchema.optional() }),
     response: z.array(myRevisionSchema),
     handler: async ({ query, user, ctx }) => {
-      const views = await revisionService(ctx).myRevisions(user!, query);
+      const views = await revisionService(ctx).myRevisions(user, query);
       return { data: views.map(presentMyRevision), meta: { total: views.length } };
     },
   }),
@@ -227,7 +227,7 @@ export const revisionRoutes: RouteDef[] = [
     access: 'moderator',
     owner: { resource: 'revision', rule: 'not-owner' },
     response: z.object({ count: z.number().int() }),
-    handler: async ({ user, ctx }) => ({ data: { count: await revisionService(ctx).reviewCount(user!) } }),
+    handler: async ({ user, ctx }) => ({ data: { count: await revisionService(ctx).reviewCount(user) } }),
   }),
   defineRoute({
     method: 'get',
@@ -239,7 +239,7 @@ export const revisionRoutes: RouteDef[] = [
     query: reviewQuerySchema,
     response: z.array(reviewItemSchema),
     handler: async ({ query, user, ctx }) => {
-      const items = (await revisionService(ctx).reviewQueue(query)).map((v) => presentReviewItem(v, user!.id));
+      const items = (await revisionService(ctx).reviewQueue(query)).map((v) => presentReviewItem(v, user.id));
       return { data: items, meta: { total: items.length, reviewable: items.filter((i) => !i.own).length } };
     },
   }),
@@ -253,7 +253,7 @@ export const revisionRoutes: RouteDef[] = [
     params: reviewIdParam,
     response: reviewDetailSchema,
     handler: async ({ params, user, ctx }) => {
-      const r = await revisionService(ctx).reviewDetail(user!, params.revisionId);
+      const r = await revisionService(ctx).reviewDetail(user, params.revisionId);
       return {
         data: {
           revision: presentRevision(r.view),
@@ -283,7 +283,7 @@ export const revisionRoutes: RouteDef[] = [
     params: reviewIdParam,
     response: revisionEnvelope.extend({ approval: reviewApprovalSchema.optional() }),
     handler: async ({ params, user, ctx }) => {
-      const result = await revisionService(ctx).publish(user!, params.revisionId);
+      const result = await revisionService(ctx).publish(user, params.revisionId);
       if (result.approval) return { status: 202, data: { revision: presentRevision(result), approval: result.approval } };
       return { data: { revision: presentRevision(result) } };
     },
@@ -299,7 +299,7 @@ export const revisionRoutes: RouteDef[] = [
     body: returnRevisionSchema,
     response: revisionEnvelope,
     handler: async ({ params, body, user, ctx }) => ({
-      data: { revision: presentRevision(await revisionService(ctx).returnRevision(user!, params.revisionId, body.reason)) },
+      data: { revision: presentRevision(await revisionService(ctx).returnRevision(user, params.revisionId, body.reason)) },
     }),
   }),
 ];

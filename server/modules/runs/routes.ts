@@ -69,7 +69,7 @@ export const runRoutes: RouteDef[] = [
     owner: { resource: 'run', rule: 'self' },
     response: z.array(runListItemSchema),
     handler: async ({ user, ctx }) => {
-      const rows = await listRuns(ctx.dataSource, user!.id);
+      const rows = await listRuns(ctx.dataSource, user.id);
       const labels = await setupLabels(ctx.dataSource, rows);
       return { data: rows.map((r) => presentRunListItem(r, labels, user)), meta: { count: rows.length } };
     },
@@ -96,7 +96,7 @@ export const runRoutes: RouteDef[] = [
     before: [parseRunUpload],
     body: runFieldsSchema,
     response: runPreviewSchema,
-    handler: async ({ req, body, user, ctx }) => ({ data: await previewRun(ctx, user!.id, req.file, body) }),
+    handler: async ({ req, body, user, ctx }) => ({ data: await previewRun(ctx, user.id, req.file, body) }),
   }),
   defineRoute({
     method: 'post',
@@ -111,7 +111,7 @@ export const runRoutes: RouteDef[] = [
     body: runFieldsSchema,
     response: runSchema,
     handler: async ({ req, body, user, ctx }) => {
-      const row = await createRun(ctx, user!.id, req.file, body);
+      const row = await createRun(ctx, user.id, req.file, body);
       return { status: 201, data: presentRun(row, await setupLabels(ctx.dataSource, [row]), user) };
     },
   }),
@@ -151,7 +151,7 @@ export const runRoutes: RouteDef[] = [
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {
-      await deleteRun(ctx, user!, params.id);
+      await deleteRun(ctx, user, params.id);
     },
   }),
   ...evidenceRoutes,

@@ -112,7 +112,7 @@ export const setupRoutes: RouteDef[] = [
     status: 201,
     before: [parseSetupUpload],
     response: setupUploadSchema,
-    handler: async ({ req, user, ctx }) => ({ status: 201, data: presentUpload(await createUpload(ctx, user!.id, req.file)) }),
+    handler: async ({ req, user, ctx }) => ({ status: 201, data: presentUpload(await createUpload(ctx, user.id, req.file)) }),
   }),
   defineRoute({
     method: 'get',
@@ -151,7 +151,7 @@ export const setupRoutes: RouteDef[] = [
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {
-      await deleteUpload(ctx, user!, params.id);
+      await deleteUpload(ctx, user, params.id);
     },
   }),
   defineRoute({
@@ -213,7 +213,7 @@ export const setupRoutes: RouteDef[] = [
     params: uuidParam,
     body: recordBody,
     response: setupRecordStructureSchema,
-    handler: async ({ params, body, user, ctx }) => ({ data: await attachToRevision(ctx, user!, params.id, body) }),
+    handler: async ({ params, body, user, ctx }) => ({ data: await attachToRevision(ctx, user, params.id, body) }),
   }),
   defineRoute({
     method: 'delete',
@@ -225,7 +225,7 @@ export const setupRoutes: RouteDef[] = [
     params: uuidParam,
     status: 204,
     handler: async ({ params, user, ctx }) => {
-      await detachFromRevision(ctx, user!, params.id);
+      await detachFromRevision(ctx, user, params.id);
     },
   }),
 ];
