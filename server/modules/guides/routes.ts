@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { guideDetailSchema } from '../../../shared/schemas/reading';
 import { CLASSES, SURFACES } from '../../../shared/constants';
 import { slugSchema } from '../../../shared/schemas/common';
-import { createGuideSchema, guideListQuerySchema, guideRecordSchema, guideSummarySchema, taxonomySchema } from '../../../shared/schemas/guide';
-import { readableRevisionSchema, revisionSchema } from '../../../shared/schemas/revision';
+import { createGuideSchema, guideListQuerySchema, guideSummarySchema, taxonomySchema } from '../../../shared/schemas/guide';
+import { revisionSchema } from '../../../shared/schemas/revision';
 import { defineRoute } from '../../lib/route';
 import { presentGuideRecord, presentGuideSummary, presentReadableRevision, presentRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
@@ -54,7 +55,7 @@ export const guideRoutes = [
     tags: ['guides'],
     access: 'public',
     params: z.object({ slug: slugSchema }),
-    response: z.object({ guide: guideRecordSchema, revision: readableRevisionSchema }),
+    response: guideDetailSchema,
     handler: async ({ params, user, ctx }) => ({
       data: await revisionService(ctx).readLive(user, 'guide', params.slug, 'guide-detail', (v) => ({
         guide: presentGuideRecord(v, { withHiddenReason: isModerator(user) }),

@@ -1,6 +1,7 @@
 import { z } from 'zod';
+import { parameterPageDataSchema } from '../../../shared/schemas/reading';
 import { slugParam } from '../../../shared/schemas/common';
-import { parameterDetailSchema, parameterLiveRevisionSchema, parameterSummarySchema } from '../../../shared/schemas/parameter';
+import { parameterSummarySchema } from '../../../shared/schemas/parameter';
 import type { AppContext } from '../../context';
 import { defineRoute } from '../../lib/route';
 import { presentLiveRevision, presentParameterDetail, presentParameterSummary } from './presenter';
@@ -38,7 +39,7 @@ export const parameterRoutes = [
     tags: ['parameters'],
     access: 'public',
     params: slugParam,
-    response: z.object({ parameter: parameterDetailSchema, revision: parameterLiveRevisionSchema }),
+    response: parameterPageDataSchema,
     handler: async ({ params, ctx }) => ({ data: await liveParameterDetail(ctx, params.slug) }),
   }),
 ];

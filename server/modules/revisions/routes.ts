@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { guideComparisonSchema, readableGuideRevisionSchema } from '../../../shared/schemas/reading';
 import { DOCUMENT_KINDS, REVISION_STATES, type DocumentKind } from '../../../shared/constants';
 import { slugSchema } from '../../../shared/schemas/common';
 import {
@@ -62,7 +63,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       access: 'public',
       owner: { resource: 'revision', rule: 'owner-or-moderator' },
       params: slugAndNumber,
-      response: z.object({ revision: readableRevisionSchema }),
+      response: z.object({ revision: kind === 'guide' ? readableGuideRevisionSchema : readableRevisionSchema }),
       handler: async ({ params, user, ctx }) => ({
         data: { revision: presentReadableRevision(await revisionService(ctx).byNumber(user, kind, params.slug, params.n)) },
       }),
@@ -76,7 +77,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       owner: { resource: 'revision', rule: 'owner-or-moderator' },
       params: slugOnly,
       query: compareQuerySchema,
-      response: compareResultSchema,
+      response: kind === 'guide' ? guideComparisonSchema : compareResultSchema,
       handler: async ({ params, query, user, ctx }) => {
         const r = await revisionService(ctx).compare(user, kind, params.slug, query.from, query.to);
         return {

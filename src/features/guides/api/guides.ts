@@ -1,50 +1,23 @@
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { CLASSES, SURFACES } from '@shared/constants';
-import type { GuideContent } from '@shared/schemas/guide';
+import type { GuideSummary } from '@shared/schemas/guide';
+import type { GuideComparison, GuideDetail, GuideRevision, ReadableGuideRevision } from '@shared/schemas/reading';
 import type { ParameterSummary } from '@shared/schemas/parameter';
-import type { BodyDiffDetail, Revision } from '@shared/schemas/revision';
-import type { FieldChange, WordChange } from '@/components/diff/word-diff-view';
+import type { RevisionHistoryItem } from '@shared/schemas/revision';
 import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
 export type TaxonomyEntry = { slug: string; name: string };
 export type Taxonomy = { classes: TaxonomyEntry[]; surfaces: TaxonomyEntry[] };
 
-/** A row of the guides list (published guides only). */
-export type GuideSummary = {
-  slug: string;
-  title: string;
-  summary: string;
-  class: string;
-  surface: string;
-  conditions?: string;
-  tags?: string[];
-  parameters?: string[];
-  version: number;
-  publishedAt: string | null;
-  author: { id: string; displayName: string };
-};
-
-/** A guide as its page shows it; `hidden` is set when a moderator hid it. */
-export type GuideRecord = GuideSummary & { publishedRevisionId: string; hidden: boolean; hiddenReason?: string | null };
-
-export type GuideRevision = Omit<Revision, 'content'> & { content: GuideContent; baseNumber?: number | null };
-/** What the reading endpoints send: the body also rendered and sanitized by the server. */
-export type ReadableGuideRevision = GuideRevision & { bodyHtml: string };
-
+// Response shapes come from the one contract in shared/schemas (the routes declare the same schemas).
+export type { GuideDetail, GuideComparison, GuideRevision, ReadableGuideRevision } from '@shared/schemas/reading';
+export type { GuideRecord, GuideSummary } from '@shared/schemas/guide';
 /** One row of a guide's history (no content). */
-export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 'note' | 'restoredFromNumber' | 'createdAt' | 'submittedAt' | 'publishedAt'> & {
-  baseNumber: number | null;
-};
-
-/** What the comparison of two revisions returns. */
-export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[]; bodyDiffDetail: BodyDiffDetail };
+export type HistoryItem = RevisionHistoryItem;
 
 export type GuideFilters = { class?: string; surface?: string; parameter?: string; q?: string };
 
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
-
-/** The guide page's main read: the guide record and its live revision. */
-export type GuideDetail = { guide: GuideRecord; revision: ReadableGuideRevision };
 
 /** Query-option factories for guides (keys general → specific). */
 export const guideQueries = {

@@ -1,8 +1,9 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { ParameterDetail, ParameterLiveRevision, ParameterSummary } from '@shared/schemas/parameter';
+import type { ParameterSummary } from '@shared/schemas/parameter';
+import type { ParameterPageData } from '@shared/schemas/reading';
 import { api, type Envelope } from '@/lib/api-client';
 
-export type ParameterPageData = { parameter: ParameterDetail; revision: ParameterLiveRevision };
+export type { ParameterPageData } from '@shared/schemas/reading';
 
 /** Query options for the parameter library; keys run general → specific so one invalidation covers all. */
 export const parameterQueries = {
