@@ -5,6 +5,11 @@ export type Role = (typeof ROLES)[number];
 /** Rank of each role, so policies can ask "at least moderator". */
 export const ROLE_RANK: Record<Role, number> = { member: 1, moderator: 2, admin: 3 };
 
+/** Whether someone (or nobody) holds at least this role: the one rank check for server and client. */
+export function hasRole(who: { role: Role } | null | undefined, min: Role): boolean {
+  return !!who && ROLE_RANK[who.role] >= ROLE_RANK[min];
+}
+
 /** Revision states of guides and parameters (stored values; the UI shows our own words, see REVISION_STATE_LABELS). */
 export const REVISION_STATES = ['draft', 'in_review', 'published', 'returned', 'archived'] as const;
 export type RevisionState = (typeof REVISION_STATES)[number];

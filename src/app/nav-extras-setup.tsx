@@ -1,4 +1,4 @@
-import { ROLE_RANK } from '@shared/constants';
+import { hasRole } from '@shared/constants';
 import { navExtras } from '@/components/layout/nav-extras';
 import { useCurrentUser } from '@/features/auth/api/auth';
 import { ReviewCountBadge } from '@/features/review/components/review-badge';
@@ -6,7 +6,7 @@ import { SearchBox } from '@/features/search/components/search-box';
 
 function ReviewBadge() {
   const me = useCurrentUser().data;
-  return <ReviewCountBadge enabled={!!me && ROLE_RANK[me.role] >= ROLE_RANK.moderator} />;
+  return <ReviewCountBadge enabled={hasRole(me, 'moderator')} />;
 }
 
 // Fills the header's slots once at startup (imported by main.tsx), so the layout never imports a feature itself.

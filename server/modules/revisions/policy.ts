@@ -1,4 +1,4 @@
-import { ROLE_RANK, type RevisionState, type Role } from '../../../shared/constants';
+import { hasRole, type RevisionState, type Role } from '../../../shared/constants';
 
 /**
  * Who may do what to a revision or document. Pure functions over plain data: each returns
@@ -19,7 +19,7 @@ export const PUBLIC_STATES: readonly RevisionState[] = ['published', 'archived']
 /** States the author can still change (their workbench): a returned revision is editable and can be resubmitted. */
 export const EDITABLE_STATES: readonly RevisionState[] = ['draft', 'returned'];
 
-export const isModerator = (actor: Actor) => actor !== null && ROLE_RANK[actor.role] >= ROLE_RANK.moderator;
+export const isModerator = (actor: Actor) => hasRole(actor, 'moderator');
 export const isAuthor = (actor: Actor, rev: RevisionFacts) => actor !== null && actor.id === rev.authorId;
 
 /** Readers see published and archived revisions; authors see their own; moderators see every revision. */

@@ -1,7 +1,7 @@
 import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useParams } from 'react-router-dom';
-import { ROLE_RANK } from '@shared/constants';
+import { hasRole } from '@shared/constants';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
@@ -35,7 +35,7 @@ export function GuidePage() {
   const version = useQuery({ ...guideQueries.revision(slug, number ?? 0), enabled: number != null && Number.isInteger(number) });
   const params = useQuery(guideQueries.parameterOptions());
   const parameterNames = useMemo(() => Object.fromEntries((params.data ?? []).map((p) => [p.slug, p.name])), [params.data]);
-  const canModerate = !!me && ROLE_RANK[me.role] >= ROLE_RANK.moderator;
+  const canModerate = hasRole(me, 'moderator');
   // Hiding or showing swaps one control for another: the new one takes the focus.
   const [swapped, setSwapped] = useState<'hidden' | 'shown' | null>(null);
 

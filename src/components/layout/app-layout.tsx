@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
-import { ROLE_RANK, type Role } from '@shared/constants';
+import { hasRole, type Role } from '@shared/constants';
 import type { User } from '@shared/schemas/user';
 import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';
 import { firstName } from '@/lib/names';
@@ -20,7 +20,7 @@ const NAV: NavItem[] = [
 
 export function canSee(user: User | null | undefined, min?: Role) {
   if (!min) return true;
-  return !!user && ROLE_RANK[user.role] >= ROLE_RANK[min];
+  return hasRole(user, min);
 }
 
 function Brand() {

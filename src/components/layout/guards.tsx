@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { Link, useLocation } from 'react-router-dom';
-import { ROLE_RANK, type Role } from '@shared/constants';
+import { hasRole, type Role } from '@shared/constants';
 import type { User } from '@shared/schemas/user';
 import { useCurrentUser } from '@/features/auth/api/auth';
 import { Card, Spinner } from '@/components/ui/card';
@@ -41,6 +41,6 @@ export function RequireRole({ role, children }: { role: Role; children: (user: U
   const me = useCurrentUser();
   if (me.isPending) return <Spinner />;
   if (!me.data) return <SignInRequired />;
-  if (ROLE_RANK[me.data.role] < ROLE_RANK[role]) return <NotAllowed role={role} />;
+  if (!hasRole(me.data, role)) return <NotAllowed role={role} />;
   return <>{children(me.data)}</>;
 }
