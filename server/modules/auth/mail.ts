@@ -1,4 +1,5 @@
 import type { MailMessage } from '../../lib/mailer';
+import { paths } from '../../../shared/paths';
 import { composeMail } from '../../lib/mail-layout';
 
 // Mail sent to an address nobody has proven yet (verification, "already registered", reset) carries no
@@ -30,7 +31,7 @@ export function alreadyRegisteredMail(to: string, appUrl: string): MailMessage {
       'Someone, probably you, asked to create a Tunewright account with this e-mail address. This address already has an account, so nothing was changed.',
       'If it was you, sign in, or choose a new password with the link below if you have forgotten it. If it was not you, ignore this mail.',
     ],
-    action: { label: 'Choose a new password', url: `${appUrl}/forgot-password` },
+    action: { label: 'Choose a new password', url: `${appUrl}${paths.forgotPassword()}` },
   });
 }
 
@@ -66,7 +67,7 @@ export function formatChangeTime(at: Date): string {
 export function passwordChangedMail(to: string, change: { at: Date; via: PasswordChangeRoute; appUrl: string }): MailMessage {
   const how =
     change.via === 'reset' ? 'with a password-reset link sent to this address' : 'from the account page, by someone signed in who knew the old password';
-  const resetUrl = `${change.appUrl}/forgot-password`;
+  const resetUrl = `${change.appUrl}${paths.forgotPassword()}`;
   return composeMail({
     to,
     subject: 'Your Tunewright password was changed',

@@ -1,4 +1,5 @@
 import { IsNull, MoreThan, type DataSource, type EntityManager } from 'typeorm';
+import { paths } from '../../../shared/paths';
 import { LIMITS } from '../../../shared/constants';
 import type { SignUpInput } from '../../../shared/schemas/user';
 import { AppError, validationFailed } from '../../lib/errors';
@@ -66,7 +67,7 @@ export function authService(ctx: AppContext) {
         const user = m.getRepository(UserEntity).create({ email: input.email, displayName: input.displayName, passwordHash, role: 'member' });
         await m.getRepository(UserEntity).save(user);
         const token = await issueToken(m, user.id, 'verify_email', LIMITS.verifyTokenHours * 3600_000);
-        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}/verify?token=${token}`), m);
+        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}${paths.verify(token)}`), m);
         return { email: user.email };
       });
     },
@@ -101,7 +102,7 @@ export function authService(ctx: AppContext) {
         const user = await m.getRepository(UserEntity).findOne({ where: { email } });
         if (!user || user.emailVerifiedAt || user.disabledAt) return;
         const token = await issueToken(m, user.id, 'verify_email', LIMITS.verifyTokenHours * 3600_000);
-        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}/verify?token=${token}`), m);
+        await ctx.mailer.send(verificationMail(user.email, `${ctx.config.appUrl}${paths.verify(token)}`), m);
       });
     },
 
@@ -111,7 +112,7 @@ export function authService(ctx: AppContext) {
         const user = await m.getRepository(UserEntity).findOne({ where: { email } });
         if (!user || user.disabledAt) return;
         const token = await issueToken(m, user.id, 'reset_password', LIMITS.resetTokenMinutes * 60_000);
-        await ctx.mailer.send(resetMail(user.email, `${ctx.config.appUrl}/reset-password?token=${token}`), m);
+        await ctx.mailer.send(resetMail(user.email, `${ctx.config.appUrl}${paths.resetPassword(token)}`), m);
       });
     },
 

@@ -1,4 +1,5 @@
 import type { DocumentKind } from '../../../shared/constants';
+import { paths } from '../../../shared/paths';
 import type { MailMessage } from '../../lib/mailer';
 import { composeMail } from '../../lib/mail-layout';
 
@@ -7,10 +8,6 @@ function compose(to: string, subject: string, heading: string, paragraphs: strin
 }
 
 const noun = (kind: DocumentKind) => (kind === 'guide' ? 'guide' : 'parameter entry');
-const pagePath = (kind: DocumentKind, slug: string) => (kind === 'guide' ? `/guides/${slug}` : `/parameters/${slug}`);
-/** The client's editor for one revision (the same addresses the workbench links to); a new guide has no live page to edit from. */
-const editorPath = (kind: DocumentKind, slug: string, revisionId: string, isNew: boolean) =>
-  kind === 'guide' && isNew ? `/guides/new?draft=${revisionId}` : `${pagePath(kind, slug)}/edit?draft=${revisionId}`;
 
 type About = { appUrl: string; kind: DocumentKind; slug: string; title: string; number: number; revisionId: string };
 
@@ -22,7 +19,7 @@ export function reviewRequestMail(to: { email: string; displayName: string }, a:
     `Waiting for review: ${a.title} (version ${a.number})`,
     'A revision is waiting for review',
     [`Hello ${to.displayName},`, `${a.authorName} has sent ${what} "${a.title}" (version ${a.number}) for review.`, `Their note: ${a.note}`],
-    { label: 'Open it in the review queue', url: `${a.appUrl}/review/${a.revisionId}` },
+    { label: 'Open it in the review queue', url: `${a.appUrl}${paths.review(a.revisionId)}` },
   );
 }
 
@@ -36,7 +33,7 @@ export function publishedMail(to: { email: string; displayName: string }, a: Abo
       `Hello ${to.displayName},`,
       `${a.reviewerName} reviewed your version ${a.number} of "${a.title}" and published it. Readers now see it. Thank you for the work.`,
     ],
-    { label: 'Read it', url: `${a.appUrl}${pagePath(a.kind, a.slug)}/v/${a.number}` },
+    { label: 'Read it', url: `${a.appUrl}${paths.documentVersion(a.kind, a.slug, a.number)}` },
   );
 }
 
@@ -52,6 +49,6 @@ export function returnedMail(to: { email: string; displayName: string }, a: Abou
       a.reason,
       'Your text is kept as it is: change it and send it for review again whenever you are ready.',
     ],
-    { label: 'Open your revision', url: `${a.appUrl}${editorPath(a.kind, a.slug, a.revisionId, a.isNew)}` },
+    { label: 'Open your revision', url: `${a.appUrl}${paths.editor(a.kind, a.slug, a.revisionId, a.isNew)}` },
   );
 }
