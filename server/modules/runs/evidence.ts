@@ -7,7 +7,7 @@ import { RevisionEntity } from '../revisions/revision.entity';
 import { canSeeDocument, canSeeRevision, mayEdit, type Actor } from '../revisions/policy';
 import { presentRunListItem } from './presenter';
 import { RunEntity } from './run.entity';
-import { setupLabels } from './service';
+import { runLabels } from './service';
 
 type Db = DataSource | EntityManager;
 /** A revision carries a few runs as evidence, not a logbook. */
@@ -24,7 +24,7 @@ async function runsOf(db: Db, revisionId: string): Promise<RunEntity[]> {
 }
 
 async function present(db: Db, rows: RunEntity[], actor: Actor): Promise<RunListItem[]> {
-  const labels = await setupLabels(db, rows);
+  const labels = await runLabels(db, rows);
   return rows.map((r) => presentRunListItem(r, labels, actor));
 }
 
