@@ -8,7 +8,7 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../s
 import { signedInClient } from '../factories/user';
 import { buildSetupRecord } from '../factories/setup-record';
 import { buildRunCsv, sendRun, uploadRun } from '../factories/run';
-import { createDraftGuide } from '../factories/guide';
+import { createDraftGuide, proposeEdit } from '../factories/guide';
 import { createMotor } from '../factories/motor';
 import { evaluate } from 'mathjs';
 
@@ -261,6 +261,30 @@ describe('GET /api/runs/compare', () => {
     expect(peak.delta).toBeCloseTo(peak.b - peak.a, 9);
     expect(res.body.data.settings).toEqual([expect.objectContaining({ path: 'gearing.pinionTeeth', a: 32, b: 34 })]);
     expect((await jonah.get(`/api/runs/compare?a=${a}&b=${b}`)).status).toBe(404);
+  });
+});
+
+describe('evidence carried into a new draft', () => {
+  it("a proposal starts with the live version's runs; taking one off is the proposal's change, not a silent loss", async () => {
+    const moderator = (await signedInClient(t, 'moderator')).client;
+    const { slug, revision } = await createDraftGuide(rosa);
+    const [one, two] = [await uploadRun(rosa, { fields: { title: 'Heat 1' } }), await uploadRun(rosa, { fields: { title: 'Heat 2' } })];
+    for (const id of [one, two]) expect((await rosa.put(`/api/revisions/${revision.id}/runs/${id}`)).status).toBe(200);
+    expect((await rosa.post(`/api/revisions/${revision.id}/submit`, { note: 'With two heats' })).status).toBe(200);
+    expect((await moderator.post(`/api/reviews/${revision.id}/publish`)).status).toBe(200);
+
+    // Another member proposes an edit: the draft carries both runs, in the order they were offered.
+    const draft = await proposeEdit(jonah, slug, { note: 'Tidier wording' });
+    const carried = await jonah.get(`/api/revisions/${draft.id}/runs`);
+    expect(carried.status).toBe(200);
+    expect(carried.body.data.map((r: { id: string }) => r.id)).toEqual([one, two]);
+    // They are still rosa's runs: public because the live version carries them, not editable by jonah.
+    expect(carried.body.data.every((r: { isOwn: boolean }) => !r.isOwn)).toBe(true);
+    expect((await jonah.patch(`/api/runs/${one}`, { title: 'Mine' })).status).toBe(404);
+    // The proposal's author may take one off their own draft; the live version keeps it.
+    expect((await jonah.delete(`/api/revisions/${draft.id}/runs/${two}`)).status).toBe(204);
+    expect((await jonah.get(`/api/revisions/${draft.id}/runs`)).body.data.map((r: { id: string }) => r.id)).toEqual([one]);
+    expect((await createClient(t.app).get(`/api/guides/${slug}/evidence`)).body.data.map((r: { id: string }) => r.id)).toEqual([one, two]);
   });
 });
 

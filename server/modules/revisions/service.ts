@@ -37,6 +37,7 @@ import { RevisionEntity } from './revision.entity';
 import { hasBlockingChecks } from '../../../shared/content-checks/run';
 import { checkRevisionContent, contentCheckFailed } from './checks';
 import { approvalState, approveOrPublish, clearApprovals, type ApprovalState } from './approvals';
+import { copyEvidence } from '../runs/evidence';
 
 type Content = Record<string, unknown>;
 
@@ -316,6 +317,7 @@ export function revisionService(ctx: AppContext) {
             setup: base.setup,
           }),
         );
+        await copyEvidence(m, base.id, rev.id);
         await audit(m, {
           actorId: actor.id,
           action: 'revision.create',

@@ -77,3 +77,17 @@ export async function guideEvidence(db: Db, actor: Actor, slug: string): Promise
   if (!doc || doc.hiddenAt || !doc.publishedRevisionId) throw notFound('That guide');
   return present(db, await runsOf(db, doc.publishedRevisionId), actor);
 }
+
+/**
+ * A new draft starts with its base revision's evidence, so a proposal never drops a run silently: the author
+ * takes one off (the review shows it as removed) or keeps it. Called by the revisions module inside the
+ * transaction that creates the draft; the order the runs were offered in is kept.
+ */
+export async function copyEvidence(m: EntityManager, fromRevisionId: string, toRevisionId: string): Promise<void> {
+  await m.query(
+    `INSERT INTO run_evidence (revision_id, run_id, created_at)
+     SELECT $2, run_id, created_at FROM run_evidence WHERE revision_id = $1
+     ON CONFLICT DO NOTHING`,
+    [fromRevisionId, toRevisionId],
+  );
+}
