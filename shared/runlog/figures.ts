@@ -130,51 +130,27 @@ export function computeRunFigures(time: ArrayLike<number>, channels: Channels, g
   const durationS = n > 1 ? time[n - 1] - time[0] : 0;
   const dt = typicalInterval(time);
   const ok = usableIntervals(time, gaps);
-  const cautions: RunCaution[] = [];
   const { motor_rpm: rpm, motor_temp_c: motorT, esc_temp_c: escT, current_a: current, pack_v: pack, throttle_pct: throttle } = channels;
 
   const rpmPeak = rpm ? peak(rpm, (a, b) => a > b) : null;
-  const g = context.gearing;
-  const topSpeedKmh = rpmPeak && g ? roadSpeedKmh(rpmPeak.value, g.tyreDiameterMm, finalDriveRatio(g.spurTeeth, g.pinionTeeth, g.internalRatio)) : null;
 
   const motorMax = motorT ? peak(motorT, (a, b) => a > b) : null;
   const escMax = escT ? peak(escT, (a, b) => a > b) : null;
   const motorBand = motorMax ? temperatureBand(motorMax.value, 'motor') : null;
   const escBand = escMax ? temperatureBand(escMax.value, 'esc') : null;
-  for (const [band, what] of [
-    [motorBand, 'motor'],
-    [escBand, 'speed controller'],
-  ] as const) {
-    if (band === 'too-hot')
-      cautions.push({
-        level: 'danger',
-        message: `The ${what} went past the hot band: stop, let it cool, and gear down or reduce timing before the next run. Follow the maker's limits.`,
-      });
-    else if (band === 'hot')
-      cautions.push({ level: 'caution', message: `The ${what} reached the hot band: check it after the next run and stay within the maker's limits.` });
-  }
 
   const energy = current ? integrateEnergy(time, current, pack ?? null, gaps) : null;
   const currentPeak = current ? peak(current, (a, b) => a > b) : null;
   const minPack = pack ? peak(pack, (a, b) => a < b) : null;
-  const battery = context.battery;
-  const window = battery ? chemistryVoltages[battery.chemistry].cutoffWindowV : null;
-  const minCellV = minPack && battery ? minPack.value / battery.cells : null;
-  if (minCellV !== null && window && minCellV < window.min) {
-    cautions.push({
-      level: 'danger',
-      message: `A cell went to about ${minCellV.toFixed(2)} V under load, below the usual cutoff window (${window.min}–${window.max} V per cell): over-discharge damages ${battery!.chemistry === 'nimh' ? 'the pack' : 'lithium cells and can make them swell or catch fire'}. Check the low-voltage cutoff and follow the pack maker's instructions.`,
-    });
-  }
 
-  return {
+  const base: RunFigures = {
     durationS,
     sampleCount: n,
     sampleRateHz: dt > 0 ? 1 / dt : 0,
     gapCount: gaps.length,
     peakRpm: rpmPeak?.value ?? null,
     peakRpmAtS: rpmPeak ? time[rpmPeak.index] - time[0] : null,
-    topSpeedKmh,
+    topSpeedKmh: null,
     maxMotorTempC: motorMax?.value ?? null,
     maxEscTempC: escMax?.value ?? null,
     motorBand,
@@ -185,12 +161,47 @@ export function computeRunFigures(time: ArrayLike<number>, channels: Channels, g
     meanCurrentA: energy && energy.seconds > 0 ? (energy.mah * 3.6) / energy.seconds : null,
     minPackV: minPack?.value ?? null,
     restPackV: pack ? restVoltage(pack, throttle, current) : null,
-    minCellV,
-    cutoffWindowV: window,
+    minCellV: null,
+    cutoffWindowV: null,
     energyMah: energy ? energy.mah : null,
     energyWh: energy ? energy.wh : null,
     energyIsEstimate: true,
     fullThrottleShare: throttle ? fullThrottle(time, throttle, ok) : null,
-    cautions,
+    cautions: [],
   };
+  return withRunContext(base, context);
+}
+
+/**
+ * The figures that depend on what the run is attached to (road speed from the setup's gearing, per-cell voltage
+ * against the chemistry's window) and the cautions, worked out again from the sample figures: attaching a run to
+ * another setup, or detaching it, changes these and nothing else, so the stored samples are never read again.
+ */
+export function withRunContext(figures: RunFigures, context: RunContext = {}): RunFigures {
+  const cautions: RunCaution[] = [];
+  for (const [band, what] of [
+    [figures.motorBand, 'motor'],
+    [figures.escBand, 'speed controller'],
+  ] as const) {
+    if (band === 'too-hot')
+      cautions.push({
+        level: 'danger',
+        message: `The ${what} went past the hot band: stop, let it cool, and gear down or reduce timing before the next run. Follow the maker's limits.`,
+      });
+    else if (band === 'hot')
+      cautions.push({ level: 'caution', message: `The ${what} reached the hot band: check it after the next run and stay within the maker's limits.` });
+  }
+  const g = context.gearing;
+  const topSpeedKmh =
+    figures.peakRpm !== null && g ? roadSpeedKmh(figures.peakRpm, g.tyreDiameterMm, finalDriveRatio(g.spurTeeth, g.pinionTeeth, g.internalRatio)) : null;
+  const battery = context.battery;
+  const window = battery ? chemistryVoltages[battery.chemistry].cutoffWindowV : null;
+  const minCellV = figures.minPackV !== null && battery ? figures.minPackV / battery.cells : null;
+  if (minCellV !== null && window && minCellV < window.min) {
+    cautions.push({
+      level: 'danger',
+      message: `A cell went to about ${minCellV.toFixed(2)} V under load, below the usual cutoff window (${window.min}–${window.max} V per cell): over-discharge damages ${battery!.chemistry === 'nimh' ? 'the pack' : 'lithium cells and can make them swell or catch fire'}. Check the low-voltage cutoff and follow the pack maker's instructions.`,
+    });
+  }
+  return { ...figures, topSpeedKmh, minCellV, cutoffWindowV: window, cautions };
 }

@@ -58,6 +58,27 @@ export const runMetadataSchema = z.strictObject({
 });
 export type RunMetadata = z.infer<typeof runMetadataSchema>;
 
+const runGearingSchema = z.object({ spurTeeth: num, pinionTeeth: num, internalRatio: num, tyreDiameterMm: num });
+export type RunGearing = z.infer<typeof runGearingSchema>;
+
+/**
+ * What a run's owner may change after upload: its title, the setup it was run on and the registered motor it used
+ * (each one of their own; null detaches). At least one field.
+ */
+export const runPatchSchema = z
+  .strictObject({
+    title: z
+      .string()
+      .trim()
+      .min(1, 'A title cannot be empty')
+      .max(RUNLOG_LIMITS.titleMax, `A title is at most ${RUNLOG_LIMITS.titleMax} characters`)
+      .optional(),
+    setupId: z.uuid({ message: 'Must be the id of one of your setups, or null to detach' }).nullable().optional(),
+    motorId: z.uuid({ message: 'Must be the id of one of your registered motors, or null' }).nullable().optional(),
+  })
+  .refine((b) => b.title !== undefined || b.setupId !== undefined || b.motorId !== undefined, { message: 'Send title, setupId or motorId' });
+export type RunPatch = z.infer<typeof runPatchSchema>;
+
 /** A run as the API answers it. */
 export const runSchema = z.object({
   id: z.uuid(),
@@ -67,6 +88,10 @@ export const runSchema = z.object({
   createdAt: z.string(),
   setupId: z.uuid().nullable(),
   setupLabel: z.string().nullable(),
+  /** The attached setup's gearing (its owner only), for the road-speed line; null when not attached. */
+  gearing: runGearingSchema.nullable(),
+  motorId: z.uuid().nullable(),
+  motorLabel: z.string().nullable(),
   demo: z.boolean(),
   channels: z.array(channelName),
   mapping: z.record(z.string(), z.unknown()),

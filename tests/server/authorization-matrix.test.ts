@@ -566,6 +566,23 @@ const scenarios: Record<string, Scenario[]> = {
       expect: { owner: ok((res) => expect(res.body.data.t.length).toBeGreaterThan(0)) },
     },
   ],
+  'PATCH /api/runs/:id': [
+    {
+      label: "the owner's run attached to the owner's setup",
+      arrange: async (w) => {
+        const id = await uploadRun(w.owner.client);
+        const setup = await uploadSetup(w.owner.client, 'owner-run-setup.json');
+        return {
+          method: 'patch',
+          url: `/api/runs/${id}`,
+          body: { setupId: setup.id },
+          id,
+          snapshot: async () => (await w.owner.client.get(`/api/runs/${id}`)).body,
+        };
+      },
+      expect: { owner: ok((res, a) => expect(res.body.data).toMatchObject({ id: a.id, setupLabel: 'owner-run-setup.json' })) },
+    },
+  ],
   'DELETE /api/runs/:id': [
     {
       label: "the owner's run deleted",

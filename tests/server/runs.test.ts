@@ -8,7 +8,9 @@ import { createClient, createTestApp, type TestApp, type TestClient } from '../s
 import { signedInClient } from '../factories/user';
 import { buildSetupRecord } from '../factories/setup-record';
 import { buildRunCsv, sendRun, uploadRun } from '../factories/run';
-import { createDraftGuide } from '../factories/guide';
+import { createDraftGuide, proposeEdit } from '../factories/guide';
+import { createMotor } from '../factories/motor';
+import { evaluate } from 'mathjs';
 
 let t: TestApp;
 let rosa: TestClient;
@@ -259,6 +261,113 @@ describe('GET /api/runs/compare', () => {
     expect(peak.delta).toBeCloseTo(peak.b - peak.a, 9);
     expect(res.body.data.settings).toEqual([expect.objectContaining({ path: 'gearing.pinionTeeth', a: 32, b: 34 })]);
     expect((await jonah.get(`/api/runs/compare?a=${a}&b=${b}`)).status).toBe(404);
+  });
+});
+
+describe('evidence carried into a new draft', () => {
+  it("a proposal starts with the live version's runs; taking one off is the proposal's change, not a silent loss", async () => {
+    const moderator = (await signedInClient(t, 'moderator')).client;
+    const { slug, revision } = await createDraftGuide(rosa);
+    const [one, two] = [await uploadRun(rosa, { fields: { title: 'Heat 1' } }), await uploadRun(rosa, { fields: { title: 'Heat 2' } })];
+    for (const id of [one, two]) expect((await rosa.put(`/api/revisions/${revision.id}/runs/${id}`)).status).toBe(200);
+    expect((await rosa.post(`/api/revisions/${revision.id}/submit`, { note: 'With two heats' })).status).toBe(200);
+    expect((await moderator.post(`/api/reviews/${revision.id}/publish`)).status).toBe(200);
+
+    // Another member proposes an edit: the draft carries both runs, in the order they were offered.
+    const draft = await proposeEdit(jonah, slug, { note: 'Tidier wording' });
+    const carried = await jonah.get(`/api/revisions/${draft.id}/runs`);
+    expect(carried.status).toBe(200);
+    expect(carried.body.data.map((r: { id: string }) => r.id)).toEqual([one, two]);
+    // They are still rosa's runs: public because the live version carries them, not editable by jonah.
+    expect(carried.body.data.every((r: { isOwn: boolean }) => !r.isOwn)).toBe(true);
+    expect((await jonah.patch(`/api/runs/${one}`, { title: 'Mine' })).status).toBe(404);
+    // The proposal's author may take one off their own draft; the live version keeps it.
+    expect((await jonah.delete(`/api/revisions/${draft.id}/runs/${two}`)).status).toBe(204);
+    expect((await jonah.get(`/api/revisions/${draft.id}/runs`)).body.data.map((r: { id: string }) => r.id)).toEqual([one]);
+    expect((await createClient(t.app).get(`/api/guides/${slug}/evidence`)).body.data.map((r: { id: string }) => r.id)).toEqual([one, two]);
+  });
+});
+
+describe('PATCH /api/runs/:id', () => {
+  it('attaches a run to one of your setups after upload (road speed and per-cell voltage appear), then detaches it', async () => {
+    const id = await uploadRun(rosa);
+    const before = (await rosa.get(`/api/runs/${id}`)).body.data;
+    expect([before.setupId, before.gearing, before.summary.topSpeedKmh, before.summary.minCellV]).toEqual([null, null, null, null]);
+    const setupId = await uploadSetup(rosa);
+    const res = await rosa.patch(`/api/runs/${id}`, { setupId });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.data).toMatchObject({
+      setupId,
+      setupLabel: 'setup.json',
+      gearing: { spurTeeth: 84, pinionTeeth: 32, internalRatio: 2.6, tyreDiameterMm: 62 },
+    });
+    const { peakRpm, topSpeedKmh, minCellV, minPackV } = res.body.data.summary;
+    // mathjs evaluating the gear-train relation (Wikipedia "Gear train": spur/pinion × internal ratio; road speed = wheel rpm × π d)
+    expect(topSpeedKmh).toBeCloseTo(evaluate(`${peakRpm} / (84 / 32 * 2.6) * pi * 62 mm / minute`).toNumber('km/h'), 6);
+    expect(minCellV).toBeCloseTo(minPackV / 2, 9);
+    // The same figures as uploading it attached in the first place.
+    const direct = (await (await sendRun(rosa, { fields: { setupId } })).req).body.data.summary;
+    expect(res.body.data.summary).toEqual(direct);
+    expect((await rosa.get(`/api/runs/${id}`)).body.data.summary.topSpeedKmh).toBe(topSpeedKmh);
+
+    const detached = await rosa.patch(`/api/runs/${id}`, { setupId: null, title: 'Heat 2, no setup' });
+    expect(detached.status).toBe(200);
+    expect(detached.body.data).toMatchObject({ setupId: null, gearing: null, title: 'Heat 2, no setup', summary: { topSpeedKmh: null, minCellV: null } });
+  });
+
+  it('names one of your registered motors, and clears it', async () => {
+    const id = await uploadRun(rosa);
+    const motor = await createMotor(rosa, { label: 'Club stock 17.5, rebuilt' });
+    const res = await rosa.patch(`/api/runs/${id}`, { motorId: motor.id });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.data).toMatchObject({ motorId: motor.id, motorLabel: 'Club stock 17.5, rebuilt' });
+    expect((await rosa.get('/api/runs')).body.data.find((r: { id: string }) => r.id === id)).toMatchObject({ motorLabel: 'Club stock 17.5, rebuilt' });
+    // Deleting the motor clears the link (the run stays).
+    expect((await rosa.delete(`/api/motors/${motor.id}`)).status).toBe(204);
+    expect((await rosa.get(`/api/runs/${id}`)).body.data).toMatchObject({ motorId: null, motorLabel: null });
+    // On upload too.
+    const other = await createMotor(rosa);
+    const uploaded = await (await sendRun(rosa, { fields: { motorId: other.id } })).req;
+    expect(uploaded.status, JSON.stringify(uploaded.body)).toBe(201);
+    expect(uploaded.body.data.motorId).toBe(other.id);
+    expect((await rosa.patch(`/api/runs/${uploaded.body.data.id}`, { motorId: null })).body.data.motorId).toBeNull();
+  });
+
+  it("another member's run, setup or motor is answered 404 exactly like a missing one, and changes nothing", async () => {
+    const id = await uploadRun(rosa);
+    const rosaSetup = await uploadSetup(rosa);
+    const jonahSetup = await uploadSetup(jonah);
+    const jonahMotor = await createMotor(jonah);
+    const snapshot = async () => (await rosa.get(`/api/runs/${id}`)).body;
+    const before = await snapshot();
+    const missing = await rosa.patch(`/api/runs/${id}`, { setupId: '00000000-0000-4000-8000-000000000000' });
+    expect(missing.status).toBe(404);
+    const theirs = await rosa.patch(`/api/runs/${id}`, { setupId: jonahSetup });
+    expect(theirs.status).toBe(404);
+    expect(theirs.body).toEqual(missing.body);
+    const theirMotor = await rosa.patch(`/api/runs/${id}`, { motorId: jonahMotor.id, title: 'Should not stick' });
+    expect(theirMotor.status).toBe(404);
+    expect(theirMotor.body.error.code).toBe('not_found');
+    expect((await jonah.patch(`/api/runs/${id}`, { setupId: jonahSetup })).status).toBe(404);
+    expect((await jonah.patch(`/api/runs/${id}`, { title: 'Mine now' })).status).toBe(404);
+    expect((await createClient(t.app).patch(`/api/runs/${id}`, { setupId: rosaSetup })).status).toBe(401);
+    expect(await snapshot()).toEqual(before);
+  });
+
+  it('refuses an empty or malformed change with the error shape', async () => {
+    const id = await uploadRun(rosa);
+    for (const [body, path] of [
+      [{}, 'body'],
+      [{ setupId: 'blue-can' }, 'body.setupId'],
+      [{ motorId: 42 }, 'body.motorId'],
+      [{ title: '   ' }, 'body.title'],
+      [{ ownerId: '00000000-0000-4000-8000-000000000000' }, 'body'],
+    ] as const) {
+      const res = await rosa.patch(`/api/runs/${id}`, body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      expect(res.body.error.code).toBe('validation_failed');
+      expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(path);
+    }
   });
 });
 

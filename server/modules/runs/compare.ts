@@ -5,7 +5,7 @@ import type { AppContext } from '../../context';
 import { SetupEntity } from '../setups/setup.entity';
 import { loadSettingLibrary, namesOf } from '../setups/service';
 import { presentRunListItem } from './presenter';
-import { fullThrottleMark, getRun, setupLabels } from './service';
+import { fullThrottleMark, getRun, runLabels } from './service';
 
 /** The figures compared side by side, in the order the screen lists them. */
 export const COMPARED_FIGURES = [
@@ -32,7 +32,7 @@ export const COMPARED_FIGURES = [
  */
 export async function compareRuns(ctx: AppContext, user: { id: string } | null, aId: string, bId: string): Promise<RunCompare> {
   const [a, b] = [await getRun(ctx.dataSource, user, aId), await getRun(ctx.dataSource, user, bId)];
-  const labels = await setupLabels(ctx.dataSource, [a, b]);
+  const labels = await runLabels(ctx.dataSource, [a, b]);
   const sa = a.summary as RunSummary;
   const sb = b.summary as RunSummary;
   const differences = COMPARED_FIGURES.map((key) => {

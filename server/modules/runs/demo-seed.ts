@@ -48,6 +48,7 @@ export async function seedDemoRuns(dataSource: DataSource, storage: Storage, log
         {
           ownerId: g.author_id,
           setupId: null,
+          motorId: null,
           title: `${DEMO_RUN_PREFIX}: ${String(g.title).slice(0, 90)}`,
           originalName: `${g.slug.slice(0, 100)}-demo.csv`,
           raw: Buffer.from(csv),

@@ -7,7 +7,7 @@ import { RevisionEntity } from '../revisions/revision.entity';
 import { canSeeDocument, canSeeRevision, mayEdit, type Actor } from '../revisions/policy';
 import { presentRunListItem } from './presenter';
 import { RunEntity } from './run.entity';
-import { setupLabels } from './service';
+import { runLabels } from './service';
 
 type Db = DataSource | EntityManager;
 /** A revision carries a few runs as evidence, not a logbook. */
@@ -24,7 +24,7 @@ async function runsOf(db: Db, revisionId: string): Promise<RunEntity[]> {
 }
 
 async function present(db: Db, rows: RunEntity[], actor: Actor): Promise<RunListItem[]> {
-  const labels = await setupLabels(db, rows);
+  const labels = await runLabels(db, rows);
   return rows.map((r) => presentRunListItem(r, labels, actor));
 }
 
@@ -76,4 +76,18 @@ export async function guideEvidence(db: Db, actor: Actor, slug: string): Promise
   const doc = await db.getRepository(DocumentEntity).findOneBy({ kind: 'guide', slug });
   if (!doc || doc.hiddenAt || !doc.publishedRevisionId) throw notFound('That guide');
   return present(db, await runsOf(db, doc.publishedRevisionId), actor);
+}
+
+/**
+ * A new draft starts with its base revision's evidence, so a proposal never drops a run silently: the author
+ * takes one off (the review shows it as removed) or keeps it. Called by the revisions module inside the
+ * transaction that creates the draft; the order the runs were offered in is kept.
+ */
+export async function copyEvidence(m: EntityManager, fromRevisionId: string, toRevisionId: string): Promise<void> {
+  await m.query(
+    `INSERT INTO run_evidence (revision_id, run_id, created_at)
+     SELECT $2, run_id, created_at FROM run_evidence WHERE revision_id = $1
+     ON CONFLICT DO NOTHING`,
+    [fromRevisionId, toRevisionId],
+  );
 }

@@ -1,12 +1,20 @@
 import { z } from 'zod';
 import { runMappingSchema } from '../../../shared/runlog/mapping';
 import { RUNLOG_LIMITS, RUNLOG_SCHEMA_PATH } from '../../../shared/runlog/vocabulary';
-import { runCompareSchema, runListItemSchema, runMetadataJsonSchema, runPreviewSchema, runSchema, runSeriesSchema } from '../../../shared/schemas/run';
+import {
+  runCompareSchema,
+  runListItemSchema,
+  runMetadataJsonSchema,
+  runPatchSchema,
+  runPreviewSchema,
+  runSchema,
+  runSeriesSchema,
+} from '../../../shared/schemas/run';
 import { uuidParam } from '../../../shared/schemas/common';
 import { defineRoute, type RouteDef } from '../../lib/route';
 import { compareRuns } from './compare';
 import { presentRun, presentRunListItem } from './presenter';
-import { createRun, deleteRun, getRun, listRuns, previewRun, runSeries, setupLabels } from './service';
+import { createRun, deleteRun, getRun, listRuns, previewRun, runSeries, runLabels, updateRun } from './service';
 import { parseRunUpload } from './upload';
 import { evidenceRoutes } from './evidence-routes';
 
@@ -15,6 +23,10 @@ export const runFieldsSchema = z.strictObject({
   title: z.string().trim().max(RUNLOG_LIMITS.titleMax, `A title is at most ${RUNLOG_LIMITS.titleMax} characters`).optional(),
   setupId: z
     .union([z.literal(''), z.uuid({ message: 'Must be the id of one of your setups' })])
+    .optional()
+    .transform((v) => v || undefined),
+  motorId: z
+    .union([z.literal(''), z.uuid({ message: 'Must be the id of one of your registered motors' })])
     .optional()
     .transform((v) => v || undefined),
   mapping: z
@@ -70,7 +82,7 @@ export const runRoutes: RouteDef[] = [
     response: z.array(runListItemSchema),
     handler: async ({ user, ctx }) => {
       const rows = await listRuns(ctx.dataSource, user.id);
-      const labels = await setupLabels(ctx.dataSource, rows);
+      const labels = await runLabels(ctx.dataSource, rows);
       return { data: rows.map((r) => presentRunListItem(r, labels, user)), meta: { count: rows.length } };
     },
   }),
@@ -112,7 +124,7 @@ export const runRoutes: RouteDef[] = [
     response: runSchema,
     handler: async ({ req, body, user, ctx }) => {
       const row = await createRun(ctx, user.id, req.file, body);
-      return { status: 201, data: presentRun(row, await setupLabels(ctx.dataSource, [row]), user) };
+      return { status: 201, data: presentRun(row, await runLabels(ctx.dataSource, [row]), user) };
     },
   }),
   defineRoute({
@@ -126,7 +138,7 @@ export const runRoutes: RouteDef[] = [
     response: runSchema,
     handler: async ({ params, user, ctx }) => {
       const row = await getRun(ctx.dataSource, user, params.id);
-      return { data: presentRun(row, await setupLabels(ctx.dataSource, [row]), user) };
+      return { data: presentRun(row, await runLabels(ctx.dataSource, [row]), user) };
     },
   }),
   defineRoute({
@@ -140,6 +152,21 @@ export const runRoutes: RouteDef[] = [
     query: seriesQuery,
     response: runSeriesSchema,
     handler: async ({ params, query, user, ctx }) => ({ data: await runSeries(ctx, await getRun(ctx.dataSource, user, params.id), query.points) }),
+  }),
+  defineRoute({
+    method: 'patch',
+    path: '/api/runs/:id',
+    summary: 'Change one of your runs: its title, the setup it was run on and the registered motor it used (your own; null detaches)',
+    tags: ['runs'],
+    access: 'member',
+    owner: RUN_OWNER,
+    params: uuidParam,
+    body: runPatchSchema,
+    response: runSchema,
+    handler: async ({ params, body, user, ctx }) => {
+      const row = await updateRun(ctx, user, params.id, body);
+      return { data: presentRun(row, await runLabels(ctx.dataSource, [row]), user) };
+    },
   }),
   defineRoute({
     method: 'delete',

@@ -16,6 +16,10 @@ export class RunEntity {
   @Column({ type: 'uuid', name: 'setup_id', nullable: true })
   setupId: string | null;
 
+  /** One of the owner's registered motors, or null; cleared if that motor is deleted. */
+  @Column({ type: 'uuid', name: 'motor_id', nullable: true })
+  motorId: string | null;
+
   @Column({ type: 'text' })
   title: string;
 

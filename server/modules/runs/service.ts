@@ -1,5 +1,5 @@
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { computeRunFigures, type RunContext, type RunFigures } from '../../../shared/runlog/figures';
+import { computeRunFigures, withRunContext, type RunContext, type RunFigures } from '../../../shared/runlog/figures';
 import { encodeColumnar, decodeColumnar } from '../../../shared/runlog/columnar';
 import { proposeMapping, type RunMapping } from '../../../shared/runlog/mapping';
 import { parseTable } from '../../../shared/runlog/parse';
@@ -7,17 +7,20 @@ import { bucketMinMax, firstSustainedFullThrottle } from '../../../shared/runlog
 import { readTable } from '../../../shared/runlog/table';
 import { RUNLOG_LIMITS, VALUE_CHANNELS } from '../../../shared/runlog/vocabulary';
 import type { SetupRecord } from '../../../shared/schemas/setup-record';
-import type { RunPreview } from '../../../shared/schemas/run';
+import type { RunPatch, RunPreview } from '../../../shared/schemas/run';
 import type { AppContext } from '../../context';
 import { AppError, notFound, validationFailed } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
 import { SetupEntity } from '../setups/setup.entity';
+import { MotorEntity } from '../motors/motor.entity';
+import { ownsMotor } from '../motors/service';
+import type { RunLabels } from './presenter';
 import { canReadRun } from './policy';
 import { RunEntity } from './run.entity';
 import { problemError, readRunFile } from './upload';
 
 type Db = DataSource | EntityManager;
-export type RunFields = { title?: string; setupId?: string; mapping?: RunMapping };
+export type RunFields = { title?: string; setupId?: string; motorId?: string; mapping?: RunMapping };
 
 /** The figures' context from a setup record: the pack for per-cell voltage, the gearing for road speed. */
 export function contextOf(record: SetupRecord | null | undefined): RunContext {
@@ -31,6 +34,13 @@ async function ownSetup(db: Db, ownerId: string, setupId: string | undefined) {
   const setup = await db.getRepository(SetupEntity).findOneBy({ id: setupId, ownerId });
   if (!setup) throw validationFailed([{ path: 'body.setupId', message: 'None of your uploaded setups has that id' }]);
   return setup;
+}
+
+/** One of the caller's registered motors, checked like the setup (a validation problem that reveals nothing). */
+async function ownMotorId(db: Db, ownerId: string, motorId: string | undefined) {
+  if (!motorId) return null;
+  if (!(await ownsMotor(db, ownerId, motorId))) throw validationFailed([{ path: 'body.motorId', message: 'None of your registered motors has that id' }]);
+  return motorId;
 }
 
 /** Reads, maps and parses an upload without storing anything: the first rows, the mapping and, if it reads, the figures. */
@@ -68,6 +78,7 @@ const stem = (name: string) => name.replace(/\.csv$/i, '').slice(0, RUNLOG_LIMIT
 export async function createRun(ctx: AppContext, ownerId: string, file: Express.Multer.File | undefined, fields: RunFields & { demo?: boolean }) {
   const { displayName, text, legacyEncoding } = readRunFile(file);
   const setup = await ownSetup(ctx.dataSource, ownerId, fields.setupId);
+  const motorId = await ownMotorId(ctx.dataSource, ownerId, fields.motorId);
   const parsed = parseTable(
     (() => {
       const read = readTable(text);
@@ -84,6 +95,7 @@ export async function createRun(ctx: AppContext, ownerId: string, file: Express.
   return storeRun(ctx, {
     ownerId,
     setupId: setup?.id ?? null,
+    motorId,
     title: fields.title?.trim() || stem(displayName),
     originalName: displayName,
     raw: file!.buffer,
@@ -133,12 +145,42 @@ export async function getRun(db: Db, user: { id: string } | null, id: string) {
   return row;
 }
 
-/** Labels of the setups the runs are attached to (the setups' display names). */
-export async function setupLabels(db: Db, runs: RunEntity[]): Promise<Map<string, string>> {
-  const ids = [...new Set(runs.map((r) => r.setupId).filter((x): x is string => !!x))];
-  if (!ids.length) return new Map();
-  const rows = await db.getRepository(SetupEntity).findBy({ id: In(ids) });
-  return new Map(rows.map((s) => [s.id, s.originalName]));
+/** The setups (display name and gearing) and motors (label) the runs point at. */
+export async function runLabels(db: Db, runs: RunEntity[]): Promise<RunLabels> {
+  const setupIds = [...new Set(runs.map((r) => r.setupId).filter((x): x is string => !!x))];
+  const motorIds = [...new Set(runs.map((r) => r.motorId).filter((x): x is string => !!x))];
+  const setups = setupIds.length ? await db.getRepository(SetupEntity).findBy({ id: In(setupIds) }) : [];
+  const motors = motorIds.length ? await db.getRepository(MotorEntity).findBy({ id: In(motorIds) }) : [];
+  return {
+    setups: new Map(setups.map((s) => [s.id, { label: s.originalName, gearing: (s.record as SetupRecord).gearing }])),
+    motors: new Map(motors.map((m) => [m.id, m.label])),
+  };
+}
+
+/**
+ * Changes what the owner may change after upload: the title, the setup the run was on and the registered motor it
+ * used. A setup or motor that is not the caller's own is answered 404 exactly as a missing one, so ids reveal
+ * nothing. Attaching or detaching a setup works the setup-dependent figures out again (road speed, per-cell
+ * voltage, cautions) from the stored figures, in the same transaction as the link.
+ */
+export async function updateRun(ctx: AppContext, user: { id: string }, id: string, patch: RunPatch) {
+  return ctx.dataSource.transaction(async (m) => {
+    const repo = m.getRepository(RunEntity);
+    const row = await repo.findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+    if (!row || row.ownerId !== user.id) throw notFound('That run');
+    if (patch.title !== undefined) row.title = patch.title;
+    if (patch.motorId !== undefined) {
+      if (patch.motorId !== null && !(await ownsMotor(m, user.id, patch.motorId))) throw notFound('That motor');
+      row.motorId = patch.motorId;
+    }
+    if (patch.setupId !== undefined) {
+      const setup = patch.setupId === null ? null : await m.getRepository(SetupEntity).findOneBy({ id: patch.setupId, ownerId: user.id });
+      if (patch.setupId !== null && !setup) throw notFound('That setup');
+      row.setupId = setup?.id ?? null;
+      row.summary = withRunContext(row.summary as RunFigures, contextOf(setup?.record as SetupRecord | undefined));
+    }
+    return repo.save(row);
+  });
 }
 
 /** Deletes a run: the row first (so nothing points at a missing object), then both stored objects. */

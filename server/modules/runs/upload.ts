@@ -31,7 +31,7 @@ const parser = multer({
   storage: multer.memoryStorage(),
   preservePath: true,
   defParamCharset: 'utf8',
-  limits: { fileSize: RUNLOG_LIMITS.fileBytes, files: 1, fields: 3, parts: 4, fieldNameSize: 100, fieldSize: 64 * 1024, headerPairs: 50 },
+  limits: { fileSize: RUNLOG_LIMITS.fileBytes, files: 1, fields: 4, parts: 5, fieldNameSize: 100, fieldSize: 64 * 1024, headerPairs: 50 },
 }).single('file');
 
 /** multer with its failures turned into invalid_run_log errors (413 past the size limit). */

@@ -1,4 +1,6 @@
+import { useMemo } from 'react';
 import { useQuery } from '@tanstack/react-query';
+import { finalDriveRatio, roadSpeedKmh } from '@shared/calc/gearing';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Card, PageHeader, Spinner } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
@@ -7,7 +9,9 @@ import { useCurrentUser } from '@/features/auth/api/auth';
 import { runQueries, useDeleteRun } from '@/features/runs/api/runs';
 import { FiguresTable } from '@/features/runs/components/figures-table';
 import { RunCharts } from '@/features/runs/components/run-charts';
+import { RunLinks } from '@/features/runs/components/run-links';
 import { RunsList } from '@/features/runs/components/runs-list';
+import { motorQueries } from '@/features/motors/api/motors';
 import { UploadPanel } from '@/features/runs/components/upload-panel';
 import { setupQueries } from '@/features/setups/api/setups';
 import { ApiError } from '@/lib/api-client';
@@ -68,6 +72,18 @@ export function RunPage() {
   const series = useQuery(runQueries.series(id, 1500));
   const remove = useDeleteRun();
   const navigate = useNavigate();
+  const own = !!run.data?.isOwn;
+  const library = useQuery({ ...setupQueries.library(), enabled: own });
+  const motors = useQuery({ ...motorQueries.list(), enabled: own });
+  const gearing = run.data?.gearing;
+  // Road speed through the shared gearing calculators, only when the run is attached to a setup (its gearing).
+  const toKmh = useMemo(
+    () =>
+      gearing
+        ? (rpm: number) => roadSpeedKmh(rpm, gearing.tyreDiameterMm, finalDriveRatio(gearing.spurTeeth, gearing.pinionTeeth, gearing.internalRatio))
+        : null,
+    [gearing],
+  );
   if (run.isPending) return <Spinner />;
   if (run.error)
     return (
@@ -76,7 +92,6 @@ export function RunPage() {
       </Notice>
     );
   const r = run.data;
-  const kmhPerRpm = r.summary.topSpeedKmh && r.summary.peakRpm ? r.summary.topSpeedKmh / r.summary.peakRpm : null;
   return (
     <>
       <PageHeader
@@ -107,15 +122,23 @@ export function RunPage() {
         }
       >
         {r.setupLabel ? `Run on setup ${r.setupLabel}. ` : ''}
+        {r.motorLabel ? `Motor: ${r.motorLabel}. ` : ''}
         {r.summary.sampleCount.toLocaleString('en-GB')} samples from {r.originalName}.
         {r.demo && ' Made by Tunewright’s run simulator for the demo: not a real car.'}
       </PageHeader>
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
         <section aria-label="Charts" className="min-w-0">
           {series.isPending && <Spinner label="Loading the charts…" />}
-          {series.data && <RunCharts runs={[{ label: r.title, series: series.data }]} kmhPerRpm={kmhPerRpm} />}
+          {series.data && <RunCharts runs={[{ label: r.title, series: series.data }]} toKmh={toKmh} />}
         </section>
         <section aria-labelledby="figures-title" className="flex flex-col gap-4">
+          {r.isOwn && (
+            <RunLinks
+              run={r}
+              setups={(library.data?.uploads ?? []).map((u) => ({ id: u.id, label: u.originalName }))}
+              motors={(motors.data ?? []).map((m) => ({ id: m.id, label: m.label }))}
+            />
+          )}
           <h2 id="figures-title" className="text-xl font-semibold">
             Figures
           </h2>

@@ -1,16 +1,21 @@
 import { useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
 import type { SetupRecord } from '@shared/schemas/setup-record';
 import { computeSetup } from '@shared/setup/computed';
 import { setupToCsv } from '@shared/setup/csv';
 import { PageHeader } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { SetupRecordForm } from '@/features/setups/components/setup-record-form';
+import { useCurrentUser } from '@/features/auth/api/auth';
+import { motorQueries } from '@/features/motors/api/motors';
 
 function downloadLink(text: string, type: string) {
   return URL.createObjectURL(new Blob([text], { type }));
 }
 
 export function SetupsNewPage() {
+  const me = useCurrentUser();
+  const motors = useQuery({ ...motorQueries.list(), enabled: !!me.data });
   const [record, setRecord] = useState<SetupRecord | null>(null);
   const [links, setLinks] = useState<{ json: string; csv: string } | null>(null);
   const handleSubmit = (r: SetupRecord) => {
@@ -38,7 +43,11 @@ export function SetupsNewPage() {
           </p>
         </Notice>
       )}
-      <SetupRecordForm onSubmit={handleSubmit} submitLabel="Make the setup file" />
+      <SetupRecordForm
+        onSubmit={handleSubmit}
+        submitLabel="Make the setup file"
+        motors={me.data ? (motors.data ?? []).map((m) => ({ id: m.id, label: m.label })) : undefined}
+      />
     </>
   );
 }

@@ -1,6 +1,6 @@
 import { evaluate } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { computeRunFigures, integrateEnergy } from '../../../shared/runlog/figures';
+import { computeRunFigures, integrateEnergy, withRunContext } from '../../../shared/runlog/figures';
 import { parseRunlog } from '../../../shared/runlog/parse';
 
 const range = (n: number, f: (i: number) => number) => Float64Array.from({ length: n }, (_v, i) => f(i));
@@ -100,6 +100,22 @@ describe('computeRunFigures', () => {
     const low = computeRunFigures(t, { pack_v: Float64Array.from(t, () => 5.6) }, [], { battery: { chemistry: 'lipo', cells: 2 } });
     expect(low.minCellV).toBeCloseTo(2.8, 9); // 5.6 V / 2 cells, under 3.0 V
     expect(low.cautions.find((c) => /cutoff window/.test(c.message))?.level).toBe('danger');
+  });
+
+  it('attaching and detaching a setup afterwards (withRunContext) gives what computing with it from the start gives', () => {
+    const bare = computeRunFigures(t, { throttle_pct: throttle, motor_rpm: rpm, motor_temp_c: motor, pack_v: pack, current_a: current }, []);
+    expect([bare.topSpeedKmh, bare.minCellV, bare.cutoffWindowV]).toEqual([null, null, null]);
+    const gearing = { spurTeeth: 84, pinionTeeth: 40, internalRatio: 1.9, tyreDiameterMm: 64 };
+    const attached = withRunContext(bare, { battery: { chemistry: 'lipo', cells: 2 }, gearing });
+    expect(attached).toEqual(figures);
+    // mathjs evaluating the gear-train relation with its own units (Wikipedia "Gear train": stage ratios multiply; road speed = wheel rpm × π d)
+    expect(attached.topSpeedKmh!).toBeCloseTo(evaluate('33600 / (84 / 40 * 1.9) * pi * 64 mm / minute').toNumber('km/h'), 9);
+    // Detaching drops the setup's figures but keeps the temperature caution, which needs no setup.
+    const detached = withRunContext(attached, {});
+    expect([detached.topSpeedKmh, detached.minCellV]).toEqual([null, null]);
+    expect(detached.cautions.map((c) => c.level)).toEqual(['caution']);
+    const lowPack = withRunContext({ ...bare, minPackV: 5.6 }, { battery: { chemistry: 'lipo', cells: 2 } });
+    expect(lowPack.cautions.find((c) => /cutoff window/.test(c.message))?.level).toBe('danger'); // 2.8 V per cell, under LiPo's 3.0 V (common practice)
   });
 
   it('null for channels the run does not have', () => {

@@ -6,6 +6,7 @@ import { canSeeDocument, mayProposeEdit } from '../policy';
 import { RevisionEntity } from '../revision.entity';
 import { audit, check, documentNotFound, lockDocument, nextNumber, revMeta, staleBase, type Member } from '../transition';
 import { view } from '../views';
+import { copyEvidence } from '../../runs/evidence';
 
 /** A new draft of an existing document, based on its live revision; fields not sent are copied from it. */
 export async function createDraft(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, input: Record<string, unknown>) {
@@ -31,6 +32,7 @@ export async function createDraft(ctx: AppContext, actor: Member, kind: Document
         setup: base.setup,
       }),
     );
+    await copyEvidence(m, base.id, rev.id);
     await audit(m, {
       actorId: actor.id,
       action: 'revision.create',

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Run, RunCompare, RunListItem, RunSeries } from '@shared/schemas/run';
+import type { Run, RunCompare, RunListItem, RunPatch, RunSeries } from '@shared/schemas/run';
 import type { RunMapping } from '@shared/runlog/mapping';
 import { api, ApiError, type Envelope } from '@/lib/api-client';
 
@@ -97,5 +97,17 @@ export function useToggleEvidence(revisionId: string) {
         ? api.put<Envelope<RunListItem[]>>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`)
         : api.delete<void>(`/api/revisions/${encodeURIComponent(revisionId)}/runs/${encodeURIComponent(runId)}`),
     onSuccess: () => qc.invalidateQueries({ queryKey: runQueries.evidence(revisionId).queryKey }),
+  });
+}
+
+/** Changes one of the member's runs: title, the setup it was run on, the registered motor (null detaches). */
+export function useUpdateRun(id: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: async (patch: RunPatch) => (await api.patch<Envelope<Run>>(`/api/runs/${encodeURIComponent(id)}`, patch)).data,
+    onSuccess: (run) => {
+      qc.setQueryData(runQueries.detail(id).queryKey, run);
+      return qc.invalidateQueries({ queryKey: runQueries.all() });
+    },
   });
 }

@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import type uPlot from 'uplot';
 import type { RunListItem } from '@shared/schemas/run';
+import { evidenceDiff } from '@shared/runlog/evidence-diff';
 import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { runQueries, useToggleEvidence } from '../api/runs';
@@ -80,28 +81,48 @@ export function EvidencePicker({ revisionId, editable }: { revisionId: string | 
   );
 }
 
-/** In review: the figures of the runs the author offered. */
-export function EvidenceReview({ revisionId }: { revisionId: string }) {
+const CHANGE_LABEL = { kept: 'Kept from the live version', added: 'Added by this proposal', removed: 'Taken off by this proposal' } as const;
+const CHANGE_STYLE = { kept: 'bg-paper-deep', added: 'bg-ok-wash text-ok', removed: 'bg-danger-wash text-danger' } as const;
+
+/**
+ * In review: the runs the proposal offers against those on the live version (kept, added, taken off), each with
+ * its figures; a new draft starts with its base's runs, so a removal here is the author's choice.
+ */
+export function EvidenceReview({ revisionId, liveRevisionId }: { revisionId: string; liveRevisionId: string | null }) {
   const runs = useQuery(runQueries.evidence(revisionId));
-  if (!runs.data?.length) return null;
+  const live = useQuery({ ...runQueries.evidence(liveRevisionId ?? ''), enabled: !!liveRevisionId });
+  const diff = useMemo(
+    () => (runs.data && (!liveRevisionId || live.data) ? evidenceDiff(runs.data, liveRevisionId ? live.data! : null) : []),
+    [runs.data, live.data, liveRevisionId],
+  );
+  if (!diff.length) return null;
+  const counts = { added: 0, removed: 0, kept: 0 };
+  for (const d of diff) counts[d.change]++;
   return (
     <section aria-labelledby="review-evidence" className="mt-8" data-testid="review-evidence">
-      <h2 id="review-evidence" className="mb-3 text-xl font-semibold">
+      <h2 id="review-evidence" className="mb-1 text-xl font-semibold">
         Evidence offered: logged runs
       </h2>
+      <p className="mb-3 text-sm text-ink-muted" data-testid="evidence-diff-summary">
+        {liveRevisionId
+          ? `Against the live version: ${counts.added} added, ${counts.removed} taken off, ${counts.kept} kept.`
+          : 'No other live version to compare with: every run is listed as added.'}
+      </p>
       <div className="flex flex-col gap-3">
-        {runs.data.map((r) => (
-          <Card key={r.id} className="p-4">
-            <h3 className="mb-2 font-semibold">
-              {r.title}
+        {diff.map(({ run: r, change }) => (
+          <Card key={r.id} className={`p-4 ${change === 'removed' ? 'opacity-80' : ''}`} data-change={change}>
+            <h3 className="mb-2 flex flex-wrap items-center gap-2 font-semibold">
+              <span className={change === 'removed' ? 'line-through' : ''}>{r.title}</span>
+              <span className={`rounded px-1.5 text-xs font-normal ${CHANGE_STYLE[change]}`}>{CHANGE_LABEL[change]}</span>
               <DemoMark run={r} />
             </h3>
             <KeyFigures run={r} />
-            {r.summary.cautions.map((c, i) => (
-              <Notice key={i} tone={c.level === 'danger' ? 'danger' : 'caution'} className="mt-2">
-                {c.message}
-              </Notice>
-            ))}
+            {change !== 'removed' &&
+              r.summary.cautions.map((c, i) => (
+                <Notice key={i} tone={c.level === 'danger' ? 'danger' : 'caution'} className="mt-2">
+                  {c.message}
+                </Notice>
+              ))}
           </Card>
         ))}
       </div>

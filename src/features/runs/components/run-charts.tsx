@@ -33,7 +33,7 @@ const fmt = (v: number | null | undefined, digits = 1) =>
  * across all panels with the values under it, drag to zoom, buttons to zoom and pan. A second run (compare)
  * is drawn in grey, shifted by its offset.
  */
-export function RunCharts({ runs, kmhPerRpm }: { runs: ChartRun[]; kmhPerRpm?: number | null }) {
+export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: number) => number) | null }) {
   const charts = useRef<uPlot[]>([]);
   const syncing = useRef(false);
   const [cursor, setCursor] = useState<{ t: number; values: Array<Partial<Record<ValueChannel, [number | null, number | null]>>> } | null>(null);
@@ -48,33 +48,57 @@ export function RunCharts({ runs, kmhPerRpm }: { runs: ChartRun[]; kmhPerRpm?: n
   }, [runs]);
 
   const panels = PANELS.filter((p) => p.channels.some((c) => runs.some((r) => r.series.channels[c])));
+  // The estimated road speed under motor speed: the first run's rpm through the setup's gearing (shared calculator).
+  const road = toKmh && runs[0]?.series.channels.motor_rpm ? toKmh : null;
   const span = base.x.length ? [base.x[0], base.x[base.x.length - 1]] : [0, 1];
 
   const built = useMemo(
     () =>
-      panels.map((panel) => {
-        const series: uPlot.Series[] = [{ label: 'Time (s)' }];
-        const data: Array<Array<number | null>> = [base.x];
-        const bands: uPlot.Band[] = [];
-        runs.forEach((run, k) => {
-          for (const c of panel.channels) {
-            const ch = run.series.channels[c];
-            if (!ch) continue;
-            const stroke = k === 0 ? COLOURS[c] : OTHER;
-            const pick = (arr: Array<number | null>) => base.lookups[k].map((i) => (i < 0 ? null : arr[i]));
-            data.push(pick(ch.max), pick(ch.min));
-            const hi = data.length - 2;
-            series.push(
-              { label: `${run.label}: ${CHANNEL_LABELS[c].label} high`, stroke, width: 1.25, spanGaps: true },
-              { label: `${run.label}: ${CHANNEL_LABELS[c].label} low`, stroke, width: 1, spanGaps: true },
-            );
-            bands.push({ series: [hi, hi + 1], fill: `${stroke}33` });
-          }
-        });
-        return { panel, data: data as uPlot.AlignedData, series, bands };
-      }),
+      panels
+        .map((panel) => {
+          const series: uPlot.Series[] = [{ label: 'Time (s)' }];
+          const data: Array<Array<number | null>> = [base.x];
+          const bands: uPlot.Band[] = [];
+          runs.forEach((run, k) => {
+            for (const c of panel.channels) {
+              const ch = run.series.channels[c];
+              if (!ch) continue;
+              const stroke = k === 0 ? COLOURS[c] : OTHER;
+              const pick = (arr: Array<number | null>) => base.lookups[k].map((i) => (i < 0 ? null : arr[i]));
+              data.push(pick(ch.max), pick(ch.min));
+              const hi = data.length - 2;
+              series.push(
+                { label: `${run.label}: ${CHANNEL_LABELS[c].label} high`, stroke, width: 1.25, spanGaps: true },
+                { label: `${run.label}: ${CHANNEL_LABELS[c].label} low`, stroke, width: 1, spanGaps: true },
+              );
+              bands.push({ series: [hi, hi + 1], fill: `${stroke}33` });
+            }
+          });
+          return { panel, data: data as uPlot.AlignedData, series, bands };
+        })
+        .concat(
+          road
+            ? (() => {
+                const rpm = runs[0].series.channels.motor_rpm!;
+                const pick = (arr: Array<number | null>) => base.lookups[0].map((i) => (i < 0 || arr[i] === null ? null : road(arr[i]!)));
+                const stroke = '#0f6e8c';
+                return [
+                  {
+                    panel: { title: 'Road speed, estimated from gearing', unit: 'km/h', channels: [] as ValueChannel[] },
+                    data: [base.x, pick(rpm.max), pick(rpm.min)] as uPlot.AlignedData,
+                    series: [
+                      { label: 'Time (s)' },
+                      { label: 'Road speed high', stroke, width: 1.25, spanGaps: true, dash: [6, 3] },
+                      { label: 'Road speed low', stroke, width: 1, spanGaps: true, dash: [6, 3] },
+                    ] as uPlot.Series[],
+                    bands: [{ series: [1, 2], fill: `${stroke}22` }] as uPlot.Band[],
+                  },
+                ];
+              })()
+            : [],
+        ),
     // eslint-disable-next-line react-hooks/exhaustive-deps -- panels derive from runs
-    [runs, base],
+    [runs, base, road],
   );
 
   const register = useCallback(
@@ -205,7 +229,7 @@ export function RunCharts({ runs, kmhPerRpm }: { runs: ChartRun[]; kmhPerRpm?: n
                   <span key={c}>
                     {CHANNEL_LABELS[c].label} {vals[c]![0] === vals[c]![1] ? fmt(vals[c]![1]) : `${fmt(vals[c]![0])}–${fmt(vals[c]![1])}`}{' '}
                     {CHANNEL_LABELS[c].unit}
-                    {c === 'motor_rpm' && kmhPerRpm && k === 0 && vals[c]![1] !== null ? ` (≈ ${fmt(vals[c]![1]! * kmhPerRpm)} km/h)` : ''}
+                    {c === 'motor_rpm' && road && k === 0 && vals[c]![1] !== null ? ` (≈ ${fmt(road(vals[c]![1]!))} km/h)` : ''}
                   </span>
                 ))}
               </span>
@@ -216,7 +240,7 @@ export function RunCharts({ runs, kmhPerRpm }: { runs: ChartRun[]; kmhPerRpm?: n
         )}
       </div>
       {built.map(({ panel, data }, i) => (
-        <figure key={panel.title} className="m-0">
+        <figure key={panel.title} className="m-0" data-testid={panel.channels.length ? undefined : 'road-speed-chart'}>
           <figcaption className="text-xs font-medium text-ink-muted">
             {panel.title} ({panel.unit})
           </figcaption>

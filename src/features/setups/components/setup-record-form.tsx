@@ -48,6 +48,8 @@ type Props = {
   submitLabel?: string;
   /** Extra actions beside the submit button (e.g. the editor's "Remove baseline"). */
   actions?: ReactNode;
+  /** The member's registered motors to pick from (a private setup only: a guide's public baseline never names one). */
+  motors?: Array<{ id: string; label: string }>;
 };
 
 /**
@@ -62,7 +64,7 @@ export function SetupRecordForm(props: Props) {
   return <RecordForm {...props} definitions={library.data} />;
 }
 
-function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', actions, definitions }: Props & { definitions: SettingDefinitionRow[] }) {
+function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', actions, motors, definitions }: Props & { definitions: SettingDefinitionRow[] }) {
   const schema = useMemo(() => setupRecordSchema(definitions), [definitions]);
   const escOptions = useMemo(() => definitions.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD)), [definitions]);
   const bySlug = useMemo(() => new Map(definitions.map((d) => [d.slug, d])), [definitions]);
@@ -115,7 +117,12 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
 
   return (
     <form
-      onSubmit={handleSubmit(async (record) => onSubmit(canonicalRecord(JSON.parse(JSON.stringify(record)) as SetupRecord)))}
+      onSubmit={handleSubmit(async (record) => {
+        const plain = JSON.parse(JSON.stringify(record)) as SetupRecord;
+        // Naming a registered motor needs schema version 2; a version 1 file read into the form is written as 2.
+        if ((plain.motor as { registeredMotorId?: string }).registeredMotorId) plain.schemaVersion = 2;
+        return onSubmit(canonicalRecord(plain));
+      })}
       className="flex flex-col gap-4"
       noValidate
     >
@@ -170,6 +177,21 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
         <label className="flex items-center gap-2 text-sm font-medium">
           <input type="checkbox" {...register('motor.sensored')} /> Sensored
         </label>
+        {motors && (
+          <SelectField
+            label="Registered motor"
+            hint={motors.length ? 'One of your motors (kept private)' : 'Register a motor on the Motors page to name it here'}
+            error={err('motor.registeredMotorId')}
+            {...register('motor.registeredMotorId', { setValueAs: toText })}
+          >
+            <option value="">Not named</option>
+            {motors.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.label}
+              </option>
+            ))}
+          </SelectField>
+        )}
       </Section>
 
       <fieldset className="rounded-lg border border-paper-line bg-paper-card p-4">
