@@ -14,6 +14,7 @@ import { diffSetupFields } from '../../../shared/setup/compare';
 import { computeSetup } from '../../../shared/setup/computed';
 import type { SetupRecord } from '../../../shared/schemas/setup-record';
 import { DocumentEntity } from './document.entity';
+import { assertImagesReady } from '../images/submit-check';
 import { reviewRequestMail, publishedMail, returnedMail } from './mail';
 import {
   canSeeDocument,
@@ -371,6 +372,7 @@ export function revisionService(ctx: AppContext) {
         const content = parseContent(doc.kind, rev.content, 'content');
         const checks = await checkRevisionContent(m, doc.kind, content, rev.setup);
         if (hasBlockingChecks(checks)) throw contentCheckFailed(checks);
+        await assertImagesReady(m, doc.id, content);
         await assertFreshBase(m, rev, doc);
         const from = rev.state;
         await clearApprovals(m, id);
