@@ -33,12 +33,17 @@ async function main() {
     // Housekeeping only: an unreachable bucket must not keep the app from serving; the next start tries again.
     logger.error({ err, driver: storage.driver }, 'the start-up sweep of stored uploads failed');
   }
-  try {
-    const images = await sweepImages({ dataSource, storage, logger }, new Date(Date.now() - IMAGE_SWEEP_GRACE_MS));
-    if (images.length) logger.info({ images }, 'removed images no revision uses');
-  } catch (err) {
-    logger.error({ err }, 'the start-up sweep of unused images failed');
-  }
+  // Unused images: at start and then every six hours (a long-running instance would otherwise keep them forever).
+  const sweepUnusedImages = async () => {
+    try {
+      const images = await sweepImages({ dataSource, storage, logger }, new Date(Date.now() - IMAGE_SWEEP_GRACE_MS));
+      if (images.length) logger.info({ images }, 'removed images no revision uses');
+    } catch (err) {
+      logger.error({ err }, 'the sweep of unused images failed');
+    }
+  };
+  await sweepUnusedImages();
+  setInterval(() => void sweepUnusedImages(), 6 * 60 * 60 * 1000).unref();
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();
