@@ -10,10 +10,10 @@ import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
 import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
+import { IMAGE_KEYS_SQL, IMAGE_SWEEP_GRACE_MS, sweepImages } from './modules/images/sweep';
 
-// Every key a row still points at: uploaded setups, and run logs' raw files and columns.
-const REFERENCED_KEYS_SQL =
-  'SELECT storage_key FROM setups WHERE storage_key = ANY($1) UNION SELECT raw_key FROM runs WHERE raw_key = ANY($1) UNION SELECT data_key FROM runs WHERE data_key = ANY($1)';
+// Every key a row still points at: uploaded setups, run logs' raw files and columns, and each stored width of an image.
+const REFERENCED_KEYS_SQL = `SELECT storage_key FROM setups WHERE storage_key = ANY($1) UNION SELECT raw_key FROM runs WHERE raw_key = ANY($1) UNION SELECT data_key FROM runs WHERE data_key = ANY($1) UNION ${IMAGE_KEYS_SQL}`;
 
 async function main() {
   const config = loadConfig();
@@ -33,6 +33,17 @@ async function main() {
     // Housekeeping only: an unreachable bucket must not keep the app from serving; the next start tries again.
     logger.error({ err, driver: storage.driver }, 'the start-up sweep of stored uploads failed');
   }
+  // Unused images: at start and then every six hours (a long-running instance would otherwise keep them forever).
+  const sweepUnusedImages = async () => {
+    try {
+      const images = await sweepImages({ dataSource, storage, logger }, new Date(Date.now() - IMAGE_SWEEP_GRACE_MS));
+      if (images.length) logger.info({ images }, 'removed images no revision uses');
+    } catch (err) {
+      logger.error({ err }, 'the sweep of unused images failed');
+    }
+  };
+  await sweepUnusedImages();
+  setInterval(() => void sweepUnusedImages(), 6 * 60 * 60 * 1000).unref();
   const mailer = createMailer({ dataSource, smtpUrl: config.smtpUrl, from: config.mailFrom, logger, intervalMs: config.outboxIntervalMs });
   const documentListener = createDocumentListener({ connectionString: config.databaseUrl, logger });
   await documentListener.start();

@@ -11,6 +11,7 @@ import { ReviewApprovalEntity } from '../modules/revisions/review-approval.entit
 import { MotorEntity } from '../modules/motors/motor.entity';
 import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
 import { RunEntity } from '../modules/runs/run.entity';
+import { ImageEntity } from '../modules/images/image.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
 export const entities = [
@@ -26,4 +27,5 @@ export const entities = [
   MotorEntity,
   BenchCheckEntity,
   RunEntity,
+  ImageEntity,
 ];

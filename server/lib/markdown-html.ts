@@ -7,10 +7,13 @@ import remarkRehype from 'remark-rehype';
 import { unified } from 'unified';
 import { visit } from 'unist-util-visit';
 import { isExternalHref, safeHref, sanitizeSchema, WORKED_EXAMPLE_LANGUAGE } from '../../shared/markdown/safety';
+import { HIDDEN_IMAGE_NOTICE, imageAttributes, parseImageSrc } from '../../shared/markdown/images';
 
 export type RenderOptions = {
   /** Rewrites relative links (e.g. a parameter slug to /parameters/<slug>). */
   resolveHref?: (href: string) => string;
+  /** Images a moderator has hid: a notice stands in their place. */
+  hiddenImages?: ReadonlySet<string>;
 };
 
 const classes = (el: Element): string[] => {
@@ -57,6 +60,26 @@ function readerShape(opts: RenderOptions) {
         el.properties = isExternalHref(href)
           ? { href, rel: ['noopener', 'noreferrer', 'nofollow'], target: '_blank' }
           : { href: opts.resolveHref ? opts.resolveHref(href) : href };
+      }
+      if (el.tagName === 'img') {
+        const src = typeof el.properties.src === 'string' ? el.properties.src : undefined;
+        const alt = typeof el.properties.alt === 'string' ? el.properties.alt : '';
+        const ref = parseImageSrc(src);
+        if (ref && opts.hiddenImages?.has(ref.id)) {
+          parent.children[index] = {
+            type: 'element',
+            tagName: 'span',
+            properties: { className: ['image-hidden'] },
+            children: [{ type: 'text', value: HIDDEN_IMAGE_NOTICE }],
+          };
+          return;
+        }
+        const attrs = imageAttributes(src, alt);
+        // Not one of ours: dropped (the alt text stays as text), exactly as the browser renderer does.
+        parent.children[index] = attrs
+          ? { type: 'element', tagName: 'img', properties: { ...attrs }, children: [] }
+          : { type: 'element', tagName: 'span', properties: {}, children: alt ? [{ type: 'text', value: alt }] : [] };
+        return;
       }
       if (el.tagName === 'table' && !(parent.type === 'element' && classes(parent).includes('table-scroll'))) {
         parent.children[index] = { type: 'element', tagName: 'div', properties: { className: ['table-scroll'] }, children: [el as ElementContent] };

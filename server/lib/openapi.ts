@@ -24,6 +24,7 @@ const RESOURCE_WORDS: Record<OwnedResource, string> = {
   account: 'the account holder',
   motor: "the motor's owner",
   run: "the run's owner",
+  image: "the image's uploader",
 };
 const OWNERSHIP_WORDS: Record<OwnershipRule, (r: OwnedResource) => string> = {
   owner: (r) => `${RESOURCE_WORDS[r]} only`,

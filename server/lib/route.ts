@@ -12,7 +12,7 @@ export type Access = 'public' | Role;
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
 /** Things a member owns: a revision they wrote, a setup they uploaded, their own account. */
-export type OwnedResource = 'revision' | 'setup-upload' | 'account' | 'motor' | 'run';
+export type OwnedResource = 'revision' | 'setup-upload' | 'account' | 'motor' | 'run' | 'image';
 
 /**
  * How a route treats the owner of what it acts on (checked in the module's policy or service, which

@@ -98,6 +98,46 @@ async function request<T>(method: string, path: string, opts: Options = {}, retr
   return (await res.json()) as T;
 }
 
+/**
+ * A multipart upload with progress (fetch cannot report upload progress; XMLHttpRequest can). Same CSRF
+ * handling and the same ApiError as every other call.
+ */
+function upload<T>(path: string, form: FormData, onProgress?: (fraction: number) => void, retried = false): Promise<T> {
+  return (csrfToken ? Promise.resolve(csrfToken) : fetchCsrf()).then(
+    (token) =>
+      new Promise<T>((resolve, reject) => {
+        const xhr = new XMLHttpRequest();
+        xhr.open('POST', path);
+        xhr.withCredentials = true;
+        xhr.setRequestHeader('x-csrf-token', token);
+        xhr.setRequestHeader('Accept', 'application/json');
+        xhr.upload.onprogress = (e) => {
+          if (e.lengthComputable && onProgress) onProgress(e.loaded / e.total);
+        };
+        xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection; nothing you typed has been lost.'));
+        xhr.onload = () => {
+          let json: { data?: unknown; error?: { code: string; message: string; details?: unknown } } | null = null;
+          try {
+            json = JSON.parse(xhr.responseText);
+          } catch {
+            /* not JSON */
+          }
+          if (xhr.status >= 200 && xhr.status < 300 && json) return resolve(json as T);
+          if (json?.error?.code === 'csrf_invalid' && !retried) {
+            resetCsrf();
+            return resolve(upload<T>(path, form, onProgress, true));
+          }
+          reject(
+            json?.error?.code
+              ? new ApiError(xhr.status, json.error.code, json.error.message, json.error.details)
+              : new ApiError(xhr.status, xhr.status >= 500 ? 'internal_error' : 'http_error', `Request failed (${xhr.status})`),
+          );
+        };
+        xhr.send(form);
+      }),
+  );
+}
+
 /** The one API client: JSON envelopes in and out, CSRF handled, errors as ApiError. */
 export const api = {
   get: <T>(path: string, opts?: Omit<Options, 'body'>) => request<T>('GET', path, opts),
@@ -105,6 +145,7 @@ export const api = {
   patch: <T>(path: string, body?: unknown, opts?: Options) => request<T>('PATCH', path, { ...opts, body }),
   put: <T>(path: string, body?: unknown, opts?: Options) => request<T>('PUT', path, { ...opts, body }),
   delete: <T>(path: string, opts?: Options) => request<T>('DELETE', path, opts),
+  upload,
 };
 
 export type Envelope<T> = { data: T };

@@ -3,6 +3,7 @@ import ReactMarkdown, { type Components } from 'react-markdown';
 import remarkGfm from 'remark-gfm';
 import rehypeSanitize from 'rehype-sanitize';
 import { isExternalHref, safeHref, sanitizeSchema, WORKED_EXAMPLE_LANGUAGE } from '@shared/markdown/safety';
+import { imageAttributes } from '@shared/markdown/images';
 
 // No raw HTML ever reaches the page: react-markdown does not parse it, and the shared schema strips what remains.
 export const rehypePlugins = [[rehypeSanitize, sanitizeSchema]] as const;
@@ -49,6 +50,11 @@ export function Markdown({ children, renderWorkedExample, resolveHref, className
       ) : (
         <a href={target}>{linkChildren}</a>
       );
+    },
+    img({ src, alt }) {
+      // Only our own processed images (with their size, srcset and lazy loading); anything else leaves its alt text.
+      const attrs = imageAttributes(typeof src === 'string' ? src : undefined, alt ?? '');
+      return attrs ? <img {...attrs} /> : <span>{alt}</span>;
     },
     table({ children: tableChildren }) {
       return (

@@ -12,6 +12,7 @@ import { createUser, signedInClient } from '../factories/user';
 import { createDraftGuide, createPublishedGuide, proposeEdit } from '../factories/guide';
 import { buildSetupRecord } from '../factories/setup-record';
 import { motorScenarios } from './authorization-matrix-motors';
+import { imageScenarios } from './authorization-matrix-images';
 import { uploadRun } from '../factories/run';
 
 // Generated from the route table: every guarded route × every role, then every route that declares an
@@ -104,7 +105,8 @@ type Arranged = {
   /** For routes addressed by number: the same call aimed at a version that does not exist. */
   missingUrl?: string;
   /** The owner's view of the resource; it must read the same after every call by someone else that is refused. */
-  snapshot?: () => Promise<unknown>;
+  snapshot?: () => Promise<unknown>; /** A multipart file upload instead of a JSON body. */
+  upload?: { body: Buffer; name: string; type: string };
 };
 type Expect = { status: number; code?: string; check?: (res: Response, a: Arranged, w: World) => unknown };
 type Scenario = {
@@ -151,6 +153,7 @@ function refusals(route: RouteDef): Partial<Record<Who, Expect>> {
       ...(route.access === 'public' ? { visitor: err(404, 'not_found') } : {}),
     },
     'account:not-owner': { owner: err(409, 'cannot_change_self') },
+    'image:owner-or-moderator': { stranger: err(404, 'not_found'), visitor: err(404, 'not_found') },
     'motor:owner': { stranger: err(404, 'not_found'), moderator: err(404, 'not_found'), admin: err(404, 'not_found') },
   };
   return { ...signIn, ...(byRule[key] ?? {}), ...below };
@@ -268,6 +271,7 @@ function documentScenarios(kind: 'guides' | 'parameters'): Record<string, Scenar
 
 const scenarios: Record<string, Scenario[]> = {
   ...motorScenarios,
+  ...imageScenarios,
   ...documentScenarios('guides'),
   ...documentScenarios('parameters'),
   'GET /api/revisions/:id': [
@@ -729,6 +733,10 @@ function expectError(res: Response, status: number, code: string, who: string) {
 const clientOf = (w: World, who: Who): TestClient => (who === 'owner' || who === 'stranger' ? w[who].client : w[who]);
 
 async function send(client: TestClient, a: Arranged, url = a.url) {
+  if (a.upload) {
+    const token = (await client.agent.get('/api/csrf')).body.data.token as string;
+    return client.agent.post(url).set('x-csrf-token', token).attach('file', a.upload.body, { filename: a.upload.name, contentType: a.upload.type });
+  }
   if (a.method === 'get') return client.get(url);
   return client[a.method](url, a.body);
 }

@@ -8,6 +8,8 @@ import { renderMarkdownHtml } from '../../server/lib/markdown-html';
 import { Markdown } from '../../src/lib/markdown';
 import { XSS_CORPUS } from '../setup/xss';
 
+const IMG = '6f1c2a3b-4d5e-4f60-8a7b-9c0d1e2f3a4b';
+
 /** Parsed and written out again, so two renderers' output compares by content, not by serialization. */
 function normalize(html: string) {
   const tree = fromHtml(html.replace(/>\s+</g, '><'), { fragment: true });
@@ -69,6 +71,23 @@ describe('renderMarkdownHtml (reader pages, rendered on the server)', () => {
     expect(html).toContain('<a href="/setups">page</a>');
   });
 
+  it('shows our own images with their size, srcset and lazy loading, drops every other image, and puts a notice where one is hidden', () => {
+    const html = renderMarkdownHtml(`![Endbell mark](/api/images/${IMG}/960#2000x1500)\n\n![Elsewhere](https://example.org/a.jpg)`);
+    const img = /<img [^>]*>/.exec(html)?.[0] ?? '';
+    expect(img).toContain(`src="/api/images/${IMG}/960"`);
+    expect(img).toContain('alt="Endbell mark"');
+    // 960 of 2000 × 1500 wide: 720 high.
+    expect(img).toContain('width="960"');
+    expect(img).toContain('height="720"');
+    expect(img).toContain(`srcset="/api/images/${IMG}/480 480w, /api/images/${IMG}/960 960w, /api/images/${IMG}/1600 1600w"`);
+    expect(img).toContain('loading="lazy"');
+    expect(html).not.toContain('example.org');
+    expect(html).toContain('<span>Elsewhere</span>');
+    const hidden = renderMarkdownHtml(`![Endbell mark](/api/images/${IMG}/960#2000x1500)`, { hiddenImages: new Set([IMG]) });
+    expect(hidden).not.toContain('<img');
+    expect(hidden).toContain('A moderator has hidden this image.');
+  });
+
   it.each(XSS_CORPUS.map((p, i) => [i, p]))('leaves nothing that can run script in hostile piece %i', (_i, payload) => {
     const html = renderMarkdownHtml(`Before\n\n${payload}\n\nAfter`);
     expect(dangerous(html), html).toEqual([]);
@@ -82,6 +101,10 @@ describe('renderMarkdownHtml (reader pages, rendered on the server)', () => {
     ['table', '| Setting | Value |\n|---|---:|\n| Drag brake | 8 % |\n'],
     ['task list and strike', '- [x] done\n- [ ] open\n\n~~old~~ new\n'],
     ['hostile', XSS_CORPUS.filter((p) => !p.includes('worked-example')).join('\n\n')],
+    [
+      'images',
+      `![Endbell mark](/api/images/${IMG}/960#2000x1500)\n\n![](/api/images/${IMG}/480)\n\n![far away](https://example.org/a.jpg) ![rel](pictures/a.png) ![data](data:image/png;base64,AAAA)\n`,
+    ],
   ])('matches the browser renderer for %s', (_name, md) => {
     const browser = renderToStaticMarkup(<Markdown className="x">{md}</Markdown>);
     const server = `<div class="x">${renderMarkdownHtml(md)}</div>`;

@@ -5,6 +5,7 @@ import { ReviewApprovals1796190000000 } from './1796190000000-review-approvals';
 
 import { Motors1796408207857 } from './1796408207857-motors';
 import { Runs1796500000000 } from './1796500000000-runs';
+import { Images1796600000000 } from './1796600000000-images';
 import { RunMotor1796600000014 } from './1796600000014-run-motor';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
@@ -15,5 +16,6 @@ export const migrations = [
   ReviewApprovals1796190000000,
   Motors1796408207857,
   Runs1796500000000,
+  Images1796600000000,
   RunMotor1796600000014,
 ];

@@ -2,6 +2,7 @@ import type { EntityManager, QueryDeepPartialEntity } from 'typeorm';
 import { hasBlockingChecks } from '../../../../shared/content-checks/run';
 import type { AppContext } from '../../../context';
 import { UserEntity } from '../../auth/user.entity';
+import { assertImagesReady } from '../../images/submit-check';
 import { clearApprovals } from '../approvals';
 import { checkRevisionContent, contentCheckFailed } from '../checks';
 import { parseContent, titleOf } from '../content';
@@ -44,6 +45,7 @@ export async function submit(ctx: AppContext, actor: Member, id: string, note: s
     const content = parseContent(doc.kind, rev.content, 'content');
     const checks = await checkRevisionContent(m, doc.kind, content, rev.setup);
     if (hasBlockingChecks(checks)) throw contentCheckFailed(checks);
+    await assertImagesReady(m, doc.id, content);
     await assertFreshBase(m, rev, doc);
     const from = rev.state;
     await clearApprovals(m, id);

@@ -26,6 +26,7 @@ import { useAutosave } from '../hooks/use-autosave';
 import { clearLocalDraft, localDraftKey, readLocalDraft, shouldOfferRestore, type LocalDraft } from '../lib/autosave';
 import { AutosaveStatus } from './autosave-status';
 import { BodyField } from './body-field';
+import { markdownImages } from '@shared/markdown/images';
 import { emptyGuide, GuideFields, toGuideForm, type GuideForm } from './guide-fields';
 import { MergeScreen } from './merge-screen';
 import { ParameterFields, toParameterForm, type ParameterForm } from './parameter-fields';
@@ -168,6 +169,12 @@ export function DocumentEditor({
       toast.error('Some fields need attention before the draft can go to review.');
       return;
     }
+    if (markdownImages(content.body).some((img) => !img.alt)) {
+      setErrors({ body: 'Every image needs alt text: fill in the fields below the editor, then submit.' });
+      setSubmitOpen(false);
+      toast.error('Every image needs alt text before the draft can go to review.');
+      return;
+    }
     if (note.trim().length < 3) {
       setNoteError('Write an edit note: what changed and why (the moderator reads it first).');
       return;
@@ -198,6 +205,11 @@ export function DocumentEditor({
       if (err instanceof ApiError && err.code === 'content_check_failed') {
         void qc.invalidateQueries({ queryKey: revisionQueries.detail(revisionId).queryKey });
         setNoteError('The automatic checks found errors to fix first; they are listed under "Automatic checks".');
+        return;
+      }
+      if (err instanceof ApiError && err.code === 'image_check_failed') {
+        const first = Array.isArray(err.details) ? (err.details[0] as { message?: string } | undefined)?.message : undefined;
+        setNoteError([err.message, first].filter(Boolean).join(' '));
         return;
       }
       if (err instanceof ApiError && err.fieldErrors.note) setNoteError(err.fieldErrors.note);
@@ -315,7 +327,13 @@ export function DocumentEditor({
           )}
         </Card>
         <div className="min-w-0" ref={bodyRef}>
-          <BodyField value={content.body} onChange={(body) => update({ body })} error={errors.body} renderWorkedExample={renderWorkedExample} />
+          <BodyField
+            revisionId={revisionId}
+            value={content.body}
+            onChange={(body) => update({ body })}
+            error={errors.body}
+            renderWorkedExample={renderWorkedExample}
+          />
         </div>
       </fieldset>
       {kind === 'guide' && renderBaseline && renderBaseline(revisionId, editable)}

@@ -1,3 +1,4 @@
+import type { ImageState } from '@shared/schemas/image';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ReviewDetail as SharedReviewDetail, ReviewItem, Revision, WorkedExampleCheck } from '@shared/schemas/revision';
 import { api, type Envelope, type ListEnvelope } from '@/lib/api-client';
@@ -59,5 +60,13 @@ export function useReturnRevision(revisionId: string) {
   return useMutation({
     mutationFn: async (reason: string) => (await api.post<Envelope<{ revision: Revision }>>(`/api/reviews/${revisionId}/return`, { reason })).data,
     onSuccess: invalidate,
+  });
+}
+
+/** A moderator hides an image (pages show a notice in its place) or shows it again. */
+export function useSetImageHidden() {
+  return useMutation({
+    mutationFn: async ({ id, hide, reason }: { id: string; hide: boolean; reason?: string }) =>
+      (await api.post<Envelope<ImageState>>(`/api/images/${id}/${hide ? 'hide' : 'unhide'}`, hide ? { reason } : {})).data,
   });
 }

@@ -14,6 +14,7 @@ import { ApiError } from '@/lib/api-client';
 import { Markdown } from '@/lib/markdown';
 import { reviewQueries, usePublishRevision, useReturnRevision, type ReviewDetail as Detail, type SetupChange } from '../api/reviews';
 import { ContentChecks } from '@/components/ui/content-checks';
+import { ImageChanges } from './image-changes';
 
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
@@ -286,6 +287,9 @@ export function ReviewDetailView({
           </Section>
           <Section id="review-text" title="Changed text">
             <WordDiffView changes={d.bodyDiff ?? []} detail={d.bodyDiffDetail} fromLabel={liveLabel} toLabel={proposedLabel} />
+          </Section>
+          <Section id="review-images" title="Changed images">
+            <ImageChanges before={String(live?.content.body ?? '')} after={String(revision.content.body ?? '')} />
           </Section>
           <Section id="review-checks" title="Automatic checks">
             <ContentChecks checks={d.checks ?? []} audience="moderator" />
