@@ -10,6 +10,7 @@ import { createApp } from './app';
 import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
 import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
+import { startDigests } from './modules/watches/service';
 
 // Every key a row still points at: uploaded setups, and run logs' raw files and columns.
 const REFERENCED_KEYS_SQL =
@@ -41,6 +42,7 @@ async function main() {
   const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage, search };
   const { app, close } = createApp(ctx);
   mailer.start();
+  startDigests(ctx);
   warmBodyDiffWorker();
   const server = app.listen(config.port, config.host, () => {
     const url = `http://${config.host}:${config.port}`;

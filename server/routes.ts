@@ -11,6 +11,7 @@ import { guideRoutes } from './modules/guides/routes';
 import { revisionRoutes } from './modules/revisions/routes';
 import { motorRoutes } from './modules/motors/routes';
 import { runRoutes } from './modules/runs/routes';
+import { watchRoutes } from './modules/watches/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
 export const routeTable: RouteDef[] = [
@@ -26,4 +27,5 @@ export const routeTable: RouteDef[] = [
   ...searchRoutes,
   ...motorRoutes,
   ...runRoutes,
+  ...watchRoutes,
 ];

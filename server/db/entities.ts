@@ -11,6 +11,7 @@ import { ReviewApprovalEntity } from '../modules/revisions/review-approval.entit
 import { MotorEntity } from '../modules/motors/motor.entity';
 import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
 import { RunEntity } from '../modules/runs/run.entity';
+import { WatchDigestItemEntity, WatchEntity, WatchPreferenceEntity } from '../modules/watches/watch.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
 export const entities = [
@@ -26,4 +27,7 @@ export const entities = [
   MotorEntity,
   BenchCheckEntity,
   RunEntity,
+  WatchEntity,
+  WatchPreferenceEntity,
+  WatchDigestItemEntity,
 ];

@@ -5,6 +5,7 @@ import { ReviewApprovals1796190000000 } from './1796190000000-review-approvals';
 
 import { Motors1796408207857 } from './1796408207857-motors';
 import { Runs1796500000000 } from './1796500000000-runs';
+import { Watches1796700000000 } from './1796700000000-watches';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
 export const migrations = [
@@ -14,4 +15,5 @@ export const migrations = [
   ReviewApprovals1796190000000,
   Motors1796408207857,
   Runs1796500000000,
+  Watches1796700000000,
 ];

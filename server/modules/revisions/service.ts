@@ -37,6 +37,7 @@ import { RevisionEntity } from './revision.entity';
 import { hasBlockingChecks } from '../../../shared/content-checks/run';
 import { checkRevisionContent, contentCheckFailed } from './checks';
 import { approvalState, approveOrPublish, clearApprovals, type ApprovalState } from './approvals';
+import { notifyWatchers, watchOwnWork } from '../watches/notify';
 
 type Content = Record<string, unknown>;
 
@@ -282,6 +283,7 @@ export function revisionService(ctx: AppContext) {
               to: 'draft',
               meta: revMeta(doc, rev),
             });
+            await watchOwnWork(m, actor.id, doc.id);
             return view(m, rev, doc);
           });
         } catch (err) {
@@ -325,6 +327,7 @@ export function revisionService(ctx: AppContext) {
           to: 'draft',
           meta: revMeta(doc, rev, { baseNumber: base.number }),
         });
+        await watchOwnWork(m, actor.id, doc.id);
         return view(m, rev, doc);
       });
     },
@@ -456,6 +459,7 @@ export function revisionService(ctx: AppContext) {
           meta: revMeta(doc, rev),
         });
         await notifyDocumentChanged(m, { kind: doc.kind, documentId: doc.id, slug: doc.slug, action: 'published' });
+        await notifyWatchers(ctx, m, { doc, revision: rev, action: 'published', actorId: actor.id });
         const author = await activeUser(m, rev.authorId);
         const fresh = await reload(m, id, { ...doc, publishedRevisionId: id });
         if (author) {
@@ -566,6 +570,7 @@ export function revisionService(ctx: AppContext) {
           meta: revMeta(doc, rev, { restoredFromNumber: target.number }),
         });
         await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: 'restored' });
+        await notifyWatchers(ctx, m, { doc, revision: rev, action: 'restored', actorId: actor.id });
         return view(m, rev, { ...doc, publishedRevisionId: rev.id });
       });
       afterCommit({ kind, slug });
@@ -591,6 +596,7 @@ export function revisionService(ctx: AppContext) {
           meta: { kind, slug },
         });
         await notifyDocumentChanged(m, { kind, documentId: d.id, slug, action: hide ? 'hidden' : 'unhidden' });
+        if (hide) await notifyWatchers(ctx, m, { doc: d, revision: null, action: 'hidden', actorId: actor.id, reason });
         return m.getRepository(DocumentEntity).findOneByOrFail({ id: d.id });
       });
       afterCommit({ kind, slug });
