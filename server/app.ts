@@ -18,6 +18,7 @@ import { assertServeable } from './config/env';
 import { compressAnswers, staticBuild } from './middleware/compress';
 import { requestLog } from './middleware/request-log';
 import { oneClickUnsubscribe } from './modules/watches/routes';
+import { changesFeed } from './modules/changes/routes';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -121,6 +122,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   app.use('/api', apiNotFound);
   // Outside /api: mail programs send it without a session or CSRF token (RFC 8058).
   app.post('/unsubscribe/one-click', oneClickUnsubscribe(ctx));
+  app.get('/changes.atom', changesFeed(ctx));
 
   if (opts.serveClient ?? true) {
     if (fs.existsSync(path.join(distDir, 'index.html'))) {

@@ -12,6 +12,7 @@ import { revisionRoutes } from './modules/revisions/routes';
 import { motorRoutes } from './modules/motors/routes';
 import { runRoutes } from './modules/runs/routes';
 import { watchRoutes } from './modules/watches/routes';
+import { changeRoutes } from './modules/changes/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
 export const routeTable: RouteDef[] = [
@@ -28,4 +29,5 @@ export const routeTable: RouteDef[] = [
   ...motorRoutes,
   ...runRoutes,
   ...watchRoutes,
+  ...changeRoutes,
 ];
