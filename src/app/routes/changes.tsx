@@ -37,7 +37,7 @@ export function ChangesPage() {
         New versions that went live, older texts restored, and pages taken out of view. Every edit was reviewed by a moderator first.
       </PageHeader>
       <form
-        className="mb-4 grid gap-3 sm:grid-cols-[12rem_minmax(0,18rem)_1fr] sm:items-end"
+        className="mb-4 grid gap-3 sm:grid-cols-[15rem_minmax(0,18rem)_1fr] sm:items-end"
         onSubmit={(e) => e.preventDefault()}
         aria-label="Filter the changes"
       >
