@@ -17,6 +17,8 @@ import { guidePageHandler, parameterPageHandler } from './modules/pages/handler'
 import { assertServeable } from './config/env';
 import { compressAnswers, staticBuild } from './middleware/compress';
 import { requestLog } from './middleware/request-log';
+import { oneClickUnsubscribe } from './modules/watches/routes';
+import { changesFeed } from './modules/changes/routes';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -118,6 +120,9 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   api.get('/api/docs', (_req, res) => void res.type('html').send(docsHtml));
   app.use(api);
   app.use('/api', apiNotFound);
+  // Outside /api: mail programs send it without a session or CSRF token (RFC 8058).
+  app.post('/unsubscribe/one-click', oneClickUnsubscribe(ctx));
+  app.get('/changes.atom', changesFeed(ctx));
 
   if (opts.serveClient ?? true) {
     if (fs.existsSync(path.join(distDir, 'index.html'))) {

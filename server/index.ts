@@ -11,6 +11,7 @@ import { DEMO_ACCOUNTS } from './db/demo-accounts';
 import type { AppContext } from './context';
 import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
 import { IMAGE_KEYS_SQL, IMAGE_SWEEP_GRACE_MS, sweepImages } from './modules/images/sweep';
+import { startDigests } from './modules/watches/service';
 
 // Every key a row still points at: uploaded setups, run logs' raw files and columns, and each stored width of an image.
 const REFERENCED_KEYS_SQL = `SELECT storage_key FROM setups WHERE storage_key = ANY($1) UNION SELECT raw_key FROM runs WHERE raw_key = ANY($1) UNION SELECT data_key FROM runs WHERE data_key = ANY($1) UNION ${IMAGE_KEYS_SQL}`;
@@ -52,6 +53,7 @@ async function main() {
   const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage, search };
   const { app, close } = createApp(ctx);
   mailer.start();
+  startDigests(ctx);
   warmBodyDiffWorker();
   const server = app.listen(config.port, config.host, () => {
     const url = `http://${config.host}:${config.port}`;

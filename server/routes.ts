@@ -12,6 +12,8 @@ import { revisionRoutes } from './modules/revisions/routes';
 import { motorRoutes } from './modules/motors/routes';
 import { runRoutes } from './modules/runs/routes';
 import { imageRoutes } from './modules/images/routes';
+import { watchRoutes } from './modules/watches/routes';
+import { changeRoutes } from './modules/changes/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
 export const routeTable: RouteDef[] = [
@@ -28,4 +30,6 @@ export const routeTable: RouteDef[] = [
   ...motorRoutes,
   ...runRoutes,
   ...imageRoutes,
+  ...watchRoutes,
+  ...changeRoutes,
 ];

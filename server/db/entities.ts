@@ -12,6 +12,7 @@ import { MotorEntity } from '../modules/motors/motor.entity';
 import { BenchCheckEntity } from '../modules/motors/bench-check.entity';
 import { RunEntity } from '../modules/runs/run.entity';
 import { ImageEntity } from '../modules/images/image.entity';
+import { WatchDigestItemEntity, WatchEntity, WatchPreferenceEntity } from '../modules/watches/watch.entity';
 
 /** Every entity the data source knows; modules add theirs here. */
 export const entities = [
@@ -28,4 +29,7 @@ export const entities = [
   BenchCheckEntity,
   RunEntity,
   ImageEntity,
+  WatchEntity,
+  WatchPreferenceEntity,
+  WatchDigestItemEntity,
 ];

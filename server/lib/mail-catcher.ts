@@ -3,6 +3,21 @@ import { simpleParser } from 'mailparser';
 import type { DataSource } from 'typeorm';
 import { CapturedMailEntity } from '../modules/dev-mail/captured-mail.entity';
 
+/** The List-* headers of a received mail, as sent (so tests can follow an unsubscribe link). */
+function listHeaders(lines: ReadonlyArray<{ key: string; line: string }>): Record<string, string> | null {
+  const kept = lines.filter((h) => h.key.startsWith('list-'));
+  if (!kept.length) return null;
+  return Object.fromEntries(
+    kept.map((h) => [
+      h.key,
+      h.line
+        .slice(h.line.indexOf(':') + 1)
+        .replace(/\r?\n\s+/g, ' ')
+        .trim(),
+    ]),
+  );
+}
+
 /**
  * A loopback SMTP server for local demo and tests: accepts every mail and keeps it in the
  * captured_mail table, where /dev/mail shows it.
@@ -23,6 +38,7 @@ export async function startMailCatcher(opts: { dataSource: DataSource; port: num
             subject: mail.subject ?? '',
             text: mail.text ?? '',
             html: typeof mail.html === 'string' ? mail.html : null,
+            headers: listHeaders(mail.headerLines),
             receivedAt: new Date(),
           });
           callback();

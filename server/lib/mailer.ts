@@ -3,7 +3,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { OutboxMessageEntity } from '../modules/mail/outbox-message.entity';
 import type { Logger } from './logger';
 
-export type MailMessage = { to: string; subject: string; text: string; html?: string };
+export type MailMessage = { to: string; subject: string; text: string; html?: string; headers?: Record<string, string> };
 
 export interface Mailer {
   /** Queues a mail in the outbox (inside the caller's transaction when a manager is given) and tries to send it soon. */
@@ -42,7 +42,14 @@ export function createMailer(opts: { dataSource: DataSource; smtpUrl: string; fr
         for (const row of rows) {
           row.attempts += 1;
           try {
-            await transport.sendMail({ from: opts.from, to: row.to, subject: row.subject, text: row.text, html: row.html ?? undefined });
+            await transport.sendMail({
+              from: opts.from,
+              to: row.to,
+              subject: row.subject,
+              text: row.text,
+              html: row.html ?? undefined,
+              headers: row.headers ?? undefined,
+            });
             row.sentAt = new Date();
             row.lastError = null;
             sent++;
@@ -84,7 +91,14 @@ export function createMailer(opts: { dataSource: DataSource; smtpUrl: string; fr
   return {
     async send(message, manager) {
       const repo = (manager ?? opts.dataSource.manager).getRepository(OutboxMessageEntity);
-      await repo.insert({ to: message.to, subject: message.subject, text: message.text, html: message.html ?? null, nextAttemptAt: new Date() });
+      await repo.insert({
+        to: message.to,
+        subject: message.subject,
+        text: message.text,
+        html: message.html ?? null,
+        headers: message.headers ?? null,
+        nextAttemptAt: new Date(),
+      });
       if (manager?.queryRunner?.isTransactionActive) {
         // Deliver after the caller's transaction commits; the periodic pass catches it otherwise.
         setTimeout(kick, 50);

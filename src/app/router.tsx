@@ -69,6 +69,8 @@ export const router = createBrowserRouter([
       { path: 'motors', lazy: () => import('./routes/motors').then((m) => ({ Component: m.MotorsPage })) },
       { path: 'motors/:id', lazy: () => import('./routes/motor').then((m) => ({ Component: m.MotorPage })) },
       { path: 'search', lazy: () => import('./routes/search').then((m) => ({ Component: m.SearchPage })) },
+      { path: 'unsubscribe', lazy: () => import('./routes/unsubscribe').then((m) => ({ Component: m.UnsubscribePage })) },
+      { path: 'changes', lazy: () => import('./routes/changes').then((m) => ({ Component: m.ChangesPage })) },
       { path: 'dev/mail', lazy: () => import('./routes/dev-mail').then((m) => ({ Component: m.DevMailPage })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundPage })) },
     ],

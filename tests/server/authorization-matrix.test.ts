@@ -708,6 +708,53 @@ const scenarios: Record<string, Scenario[]> = {
       },
     },
   ],
+  'GET /api/watches': [
+    {
+      label: 'each person sees only their own watch list',
+      arrange: async (w) => {
+        // Its author watches it by default.
+        await createPublishedGuide(w.owner.client, w.moderator, { title: `Owner's watched guide ${crypto.randomBytes(3).toString('hex')}` });
+        return { method: 'get', url: '/api/watches', snapshot: async () => (await w.owner.client.get('/api/watches')).body };
+      },
+      expect: {
+        owner: ok((res) => expect(res.body.data.map((x: { title: string }) => x.title)).toEqual([expect.stringMatching(/^Owner's watched guide/)])),
+        stranger: ok((res) => expect(res.body.data).toEqual([])),
+        moderator: ok((res) =>
+          expect(res.body.data.map((x: { title: string }) => x.title)).not.toContainEqual(expect.stringMatching(/^Owner's watched guide/)),
+        ),
+      },
+    },
+  ],
+  'GET /api/watches/settings': [
+    {
+      label: 'each person reads only their own mail setting',
+      arrange: async (w) => {
+        expect((await w.owner.client.put('/api/watches/settings', { delivery: 'daily' })).status).toBe(200);
+        return { method: 'get', url: '/api/watches/settings', snapshot: async () => (await w.owner.client.get('/api/watches/settings')).body };
+      },
+      expect: {
+        owner: ok((res) => expect(res.body.data).toEqual({ delivery: 'daily' })),
+        stranger: ok((res) => expect(res.body.data).toEqual({ delivery: 'immediate' })),
+      },
+    },
+  ],
+  'PUT /api/watches/settings': [
+    {
+      label: "setting one's own delivery never changes the owner's",
+      arrange: async (w) => {
+        expect((await w.owner.client.put('/api/watches/settings', { delivery: 'off' })).status).toBe(200);
+        return {
+          method: 'put',
+          url: '/api/watches/settings',
+          body: { delivery: 'daily' },
+          snapshot: async () => (await w.owner.client.get('/api/watches/settings')).body,
+        };
+      },
+      // The owner goes last (successes keep this order), after the others' calls were checked against the snapshot.
+      expect: { stranger: ok(), moderator: ok(), owner: ok((res) => expect(res.body.data).toEqual({ delivery: 'daily' })) },
+      untouchedBy: ['stranger', 'moderator'],
+    },
+  ],
   'PATCH /api/admin/users/:id': [
     {
       label: 'an administrator changing their own role',

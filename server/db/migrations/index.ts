@@ -7,6 +7,7 @@ import { Motors1796408207857 } from './1796408207857-motors';
 import { Runs1796500000000 } from './1796500000000-runs';
 import { Images1796600000000 } from './1796600000000-images';
 import { RunMotor1796600000014 } from './1796600000014-run-motor';
+import { Watches1796700000000 } from './1796700000000-watches';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
 export const migrations = [
@@ -18,4 +19,5 @@ export const migrations = [
   Runs1796500000000,
   Images1796600000000,
   RunMotor1796600000014,
+  Watches1796700000000,
 ];

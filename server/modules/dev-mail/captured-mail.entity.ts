@@ -21,6 +21,10 @@ export class CapturedMailEntity {
   @Column({ type: 'text', name: 'html_body', nullable: true })
   html: string | null;
 
+  /** Extra mail headers (List-Unsubscribe and List-Unsubscribe-Post on watch mails). */
+  @Column({ type: 'jsonb', nullable: true })
+  headers: Record<string, string> | null;
+
   @Column({ type: 'timestamptz', name: 'received_at' })
   receivedAt: Date;
 }

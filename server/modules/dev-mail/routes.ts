@@ -9,6 +9,7 @@ const mailSchema = z.object({
   subject: z.string(),
   text: z.string(),
   html: z.string().nullable(),
+  headers: z.record(z.string(), z.string()),
   receivedAt: z.string(),
 });
 
@@ -27,7 +28,16 @@ export const devMailRoutes = [
       if (query.to) qb.where('lower(m.to) LIKE :to', { to: `%${query.to.toLowerCase()}%` });
       const rows = await qb.getMany();
       return {
-        data: rows.map((m) => ({ id: m.id, to: m.to, from: m.from, subject: m.subject, text: m.text, html: m.html, receivedAt: m.receivedAt.toISOString() })),
+        data: rows.map((m) => ({
+          id: m.id,
+          to: m.to,
+          from: m.from,
+          subject: m.subject,
+          text: m.text,
+          html: m.html,
+          headers: m.headers ?? {},
+          receivedAt: m.receivedAt.toISOString(),
+        })),
       };
     },
   }),

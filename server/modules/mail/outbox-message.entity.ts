@@ -18,6 +18,10 @@ export class OutboxMessageEntity {
   @Column({ type: 'text', name: 'html_body', nullable: true })
   html: string | null;
 
+  /** Extra mail headers (List-Unsubscribe and List-Unsubscribe-Post on watch mails). */
+  @Column({ type: 'jsonb', nullable: true })
+  headers: Record<string, string> | null;
+
   @Column({ type: 'integer', default: 0 })
   attempts: number;
 

@@ -20,7 +20,8 @@ export function GuidesPage() {
           ) : undefined
         }
       >
-        Setups and reasoning for one class on one surface, written by experienced tuners and checked by a moderator before they go live.
+        Setups and reasoning for one class on one surface, written by experienced tuners and checked by a moderator before they go live.{' '}
+        <Link to="/changes">See recent changes</Link>.
       </PageHeader>
       <div className="flex flex-col gap-6">
         <GuideFiltersBar />

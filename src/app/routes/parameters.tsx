@@ -8,6 +8,8 @@ import { renderWorkedExample } from '../worked-example';
 import { parameterQueries } from '@/features/parameters/api/parameters';
 import { ParameterEntry } from '@/features/parameters/components/parameter-entry';
 import { ParameterLibrary } from '@/features/parameters/components/parameter-library';
+import { useCurrentUser } from '@/features/auth/api/auth';
+import { WatchButton } from '@/features/watches/components/watch-button';
 
 export function ParametersPage() {
   const list = useQuery(parameterQueries.list());
@@ -42,6 +44,7 @@ export function ParametersPage() {
 export function ParameterPage() {
   const { slug = '' } = useParams();
   const entry = useQuery(parameterQueries.detail(slug));
+  const me = useCurrentUser().data;
   useEffect(() => {
     if (entry.data) document.title = `${entry.data.parameter.name} · Tunewright`;
   }, [entry.data]);
@@ -63,5 +66,14 @@ export function ParameterPage() {
       </div>
     );
   }
-  return <ParameterEntry key={slug} data={entry.data} renderWorkedExample={renderWorkedExample} />;
+  return (
+    <>
+      {me && (
+        <div className="no-print mb-3 flex justify-end">
+          <WatchButton kind="parameter" slug={slug} />
+        </div>
+      )}
+      <ParameterEntry key={slug} data={entry.data} renderWorkedExample={renderWorkedExample} />
+    </>
+  );
 }

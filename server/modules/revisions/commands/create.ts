@@ -5,6 +5,7 @@ import { DocumentEntity } from '../document.entity';
 import { RevisionEntity } from '../revision.entity';
 import { audit, revMeta, type Member } from '../transition';
 import { view } from '../views';
+import { watchOwnWork } from '../../watches/notify';
 
 const UNIQUE_VIOLATION = '23505';
 
@@ -50,6 +51,7 @@ export async function createDocument(ctx: AppContext, actor: Member, kind: Docum
           to: 'draft',
           meta: revMeta(doc, rev),
         });
+        await watchOwnWork(m, actor.id, doc.id);
         return view(m, rev, doc);
       });
     } catch (err) {

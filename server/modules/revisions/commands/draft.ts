@@ -7,6 +7,7 @@ import { RevisionEntity } from '../revision.entity';
 import { audit, check, documentNotFound, lockDocument, nextNumber, revMeta, staleBase, type Member } from '../transition';
 import { view } from '../views';
 import { copyEvidence } from '../../runs/evidence';
+import { watchOwnWork } from '../../watches/notify';
 
 /** A new draft of an existing document, based on its live revision; fields not sent are copied from it. */
 export async function createDraft(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, input: Record<string, unknown>) {
@@ -42,6 +43,7 @@ export async function createDraft(ctx: AppContext, actor: Member, kind: Document
       to: 'draft',
       meta: revMeta(doc, rev, { baseNumber: base.number }),
     });
+    await watchOwnWork(m, actor.id, doc.id);
     return view(m, rev, doc);
   });
 }

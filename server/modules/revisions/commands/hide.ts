@@ -4,6 +4,7 @@ import { notifyDocumentChanged } from '../../../lib/document-events';
 import { DocumentEntity } from '../document.entity';
 import { mayHide } from '../policy';
 import { afterCommit, audit, check, inDocumentTx, type Member } from '../transition';
+import { notifyWatchers } from '../../watches/notify';
 
 /** Hides a document from everyone but moderators (abuse), or shows it again. */
 export async function setHidden(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, hide: boolean, reason: string | null) {
@@ -22,6 +23,7 @@ export async function setHidden(ctx: AppContext, actor: Member, kind: DocumentKi
       meta: { kind, slug },
     });
     await notifyDocumentChanged(m, { kind, documentId: d.id, slug, action: hide ? 'hidden' : 'unhidden' });
+    if (hide) await notifyWatchers(ctx, m, { doc: d, revision: null, action: 'hidden', actorId: actor.id, reason });
     return m.getRepository(DocumentEntity).findOneByOrFail({ id: d.id });
   });
   afterCommit(ctx, { kind, slug });

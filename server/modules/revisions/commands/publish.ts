@@ -8,6 +8,7 @@ import { mayReview } from '../policy';
 import { RevisionEntity } from '../revision.entity';
 import { activeUser, afterCommit, assertFreshBase, audit, check, inRevisionTx, revMeta, type Member } from '../transition';
 import { reload, type RevisionView } from '../views';
+import { notifyWatchers } from '../../watches/notify';
 
 /**
  * in_review → published by another moderator; the previous live revision becomes archived. A
@@ -48,6 +49,7 @@ export async function publish(ctx: AppContext, actor: Member, id: string): Promi
       meta: revMeta(doc, rev),
     });
     await notifyDocumentChanged(m, { kind: doc.kind, documentId: doc.id, slug: doc.slug, action: 'published' });
+    await notifyWatchers(ctx, m, { doc, revision: rev, action: 'published', actorId: actor.id });
     const author = await activeUser(m, rev.authorId);
     const fresh = await reload(m, id, { ...doc, publishedRevisionId: id });
     if (author) {

@@ -7,6 +7,7 @@ import { mayRestore } from '../policy';
 import { RevisionEntity } from '../revision.entity';
 import { afterCommit, audit, check, inDocumentTx, nextNumber, revMeta, type Member } from '../transition';
 import { view } from '../views';
+import { notifyWatchers } from '../../watches/notify';
 
 /** A new live revision copying an older one's content (restored_from_number says which); the current one is archived. */
 export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, number: number, note?: string) {
@@ -56,6 +57,7 @@ export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind
       meta: revMeta(doc, rev, { restoredFromNumber: target.number }),
     });
     await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: 'restored' });
+    await notifyWatchers(ctx, m, { doc, revision: rev, action: 'restored', actorId: actor.id });
     return view(m, rev, { ...doc, publishedRevisionId: rev.id });
   });
   afterCommit(ctx, { kind, slug });
