@@ -34,6 +34,19 @@ function describeInput(value: unknown): string {
   return typeof value === 'string' ? `"${value}"` : typeof value === 'object' ? 'a list or object' : String(value);
 }
 
+/**
+ * Normalises a typed number to the form `Number()` reads: a decimal comma becomes a point ("1,5" →
+ * "1.5"), and commas that group thousands are dropped ("2,200" and "12,000" → "2200", "12000"). A
+ * single comma is a thousands separator only when exactly three digits follow it and the digits
+ * before it do not start with 0 ("0,125" is a decimal). Anything else is returned trimmed.
+ */
+export function normaliseNumberText(text: string): string {
+  const t = text.trim().replace(/^−/, '-');
+  if (/^[-+]?[1-9]\d{0,2}(,\d{3})+(\.\d+)?$/.test(t)) return t.replace(/,/g, '');
+  if (/^[-+]?\d*,\d+$/.test(t)) return t.replace(',', '.');
+  return t;
+}
+
 function numberCore(spec: NumberFieldSpec) {
   let n = z.coerce
     .number({ error: `${spec.label} must be a number` })
@@ -43,6 +56,7 @@ function numberCore(spec: NumberFieldSpec) {
   // Pre-check the raw value so the message can quote it and booleans or lists are not coerced to 1 or NaN.
   return z
     .unknown()
+    .transform((value) => (typeof value === 'string' ? normaliseNumberText(value) : value))
     .superRefine((value, ctx) => {
       if (isBlank(value)) {
         ctx.addIssue({ code: 'custom', message: `${spec.label} is required`, abort: true });

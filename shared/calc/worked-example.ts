@@ -1,5 +1,5 @@
-import { parseDocument } from 'yaml';
-import { toCalcIssues } from './inputs';
+import { parseDocument, stringify } from 'yaml';
+import { normaliseNumberText, toCalcIssues } from './inputs';
 import { getCalculator, isCalculatorName, unknownCalculatorMessage, type CalculatorName } from './registry';
 import type { CalcIssue } from './types';
 
@@ -91,4 +91,20 @@ function parseUnsafe(body: string): WorkedExampleResult {
     };
   }
   return { ok: true, calc: calcName, inputs: parsed.data as Record<string, unknown>, rawInputs };
+}
+
+/**
+ * Writes a ```worked-example fenced block for a calculator and its inputs as typed (blank inputs
+ * are left out; numbers typed with a decimal comma are written with a point). The text between the
+ * fences reads back through {@link parseWorkedExample}; values are written by the YAML library, so
+ * nothing typed can break out of its line.
+ */
+export function formatWorkedExample(calc: string, inputs: Record<string, unknown>): string {
+  const lines: Record<string, unknown> = { calc };
+  for (const [key, raw] of Object.entries(inputs)) {
+    if (raw === undefined || raw === null || (typeof raw === 'string' && raw.trim() === '')) continue;
+    const text = typeof raw === 'string' ? normaliseNumberText(raw) : raw;
+    lines[key] = typeof text === 'string' && text !== '' && Number.isFinite(Number(text)) ? Number(text) : text;
+  }
+  return `\`\`\`worked-example\n${stringify(lines, { lineWidth: 0 })}\`\`\`\n`;
 }

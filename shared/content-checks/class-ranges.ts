@@ -35,3 +35,16 @@ export function classRanges(entry: CheckLibraryEntry): Map<string, ClassRange> {
   cache.set(entry.body, ranges);
   return ranges;
 }
+
+/** The "Typical settings by class" cells of an entry as written, class slug → text ("Forward and brake", "0–10 %"). */
+export function classTypicalTexts(body: string): Map<string, string> {
+  const texts = new Map<string, string>();
+  const section = body.split(/^## Typical settings by class\s*$/m)[1]?.split(/^## /m)[0] ?? '';
+  for (const line of section.split('\n')) {
+    const cells = line.split('|').map((c) => c.trim());
+    if (cells.length < 4) continue;
+    const slug = classByName.get(cells[1].toLowerCase());
+    if (slug && cells[2]) texts.set(slug, cells[2]);
+  }
+  return texts;
+}

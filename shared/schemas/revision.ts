@@ -122,6 +122,8 @@ export const reviewItemSchema = z.object({
   own: z.boolean(),
   /** Its base is no longer the live revision (publishing would answer 409 stale_base). */
   stale: z.boolean(),
+  /** What the content checks find in it (shared/content-checks), so the queue shows them before it is opened. */
+  checks: z.array(contentCheckSchema).optional(),
 });
 export type ReviewItem = z.infer<typeof reviewItemSchema>;
 

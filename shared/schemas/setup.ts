@@ -60,6 +60,8 @@ export const settingDefinitionSchema = z.object({
   category: z.string(),
   summary: z.string(),
   range: z.object({ min: z.number(), max: z.number(), step: z.number() }),
+  /** The entry's typical value per class slug, from its "Typical settings by class" table (numbers when the cell has them). */
+  typical: z.record(z.string(), z.object({ text: z.string(), min: z.number().optional(), max: z.number().optional() })).optional(),
 });
 export type SettingDefinitionRow = z.infer<typeof settingDefinitionSchema>;
 

@@ -193,7 +193,7 @@ export function computeSetup(record: SetupRecord, opts: ComputeOptions = {}): Se
       code: 'zero-timing-class',
       source: 'class',
       message:
-        "Stock touring runs to the zero-timing rule: the controller must be in zero-timing mode and add no electronic advance. Set zero-timing mode on (1) and check your class and sanctioning body's rules.",
+        "Stock touring runs to the zero-timing rule: the controller must be in zero-timing mode and add no electronic advance. Set zero-timing mode to On and check your class and sanctioning body's rules.",
     });
   }
 

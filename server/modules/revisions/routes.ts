@@ -240,7 +240,14 @@ export const revisionRoutes: RouteDef[] = [
     query: reviewQuerySchema,
     response: z.array(reviewItemSchema),
     handler: async ({ query, user, ctx }) => {
-      const items = (await revisionService(ctx).reviewQueue(query)).map((v) => presentReviewItem(v, user.id));
+      const views = await revisionService(ctx).reviewQueue(query);
+      // Each proposal's automatic findings, so the moderator sees them in the queue (the checks run in memory).
+      const items = await Promise.all(
+        views.map(async (v) => ({
+          ...presentReviewItem(v, user.id),
+          checks: await checkRevisionContent(ctx.dataSource, v.doc.kind, v.rev.content, v.rev.setup),
+        })),
+      );
       return { data: items, meta: { total: items.length, reviewable: items.filter((i) => !i.own).length } };
     },
   }),

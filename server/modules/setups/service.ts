@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { canonicalRecord, type SettingDefinition, type SetupRecord } from '../../../shared/schemas/setup-record';
 import type { SettingDefinitionRow } from '../../../shared/schemas/setup';
 import { compareSetups } from '../../../shared/setup/compare';
+import { classRanges, classTypicalTexts } from '../../../shared/content-checks/class-ranges';
 import { parseSetupText, validateSetupObject } from '../../../shared/setup/import';
 import type { AppContext } from '../../context';
 import { notFound } from '../../lib/errors';
@@ -31,7 +32,19 @@ export async function loadSettingLibrary(db: Db): Promise<SettingDefinitionRow[]
     category: String(content.category ?? ''),
     summary: String(content.summary ?? ''),
     range: content.range as SettingDefinition['range'],
+    typical: typicalByClass(slug, String(content.name ?? slug), String(content.body ?? '')),
   }));
+}
+
+/** An entry's typical settings per class: the table's text, with its numbers where it has them. */
+function typicalByClass(slug: string, name: string, body: string): NonNullable<SettingDefinitionRow['typical']> {
+  const ranges = classRanges({ slug, name, unit: '', body });
+  const typical: NonNullable<SettingDefinitionRow['typical']> = {};
+  for (const [cls, text] of classTypicalTexts(body)) {
+    const range = ranges.get(cls);
+    typical[cls] = range ? { text, min: range.min, max: range.max } : { text };
+  }
+  return typical;
 }
 
 /** Library names by slug, for labels in comparisons. */

@@ -12,12 +12,23 @@ import { renderWorkedExample } from '../worked-example';
 import { toast } from 'sonner';
 import type { SetupRecord } from '@shared/schemas/setup-record';
 import { Button } from '@/components/ui/button';
-import { SetupRecordForm } from '@/features/setups/components/setup-record-form';
+import { SetupRecordForm, type SetupStart } from '@/features/setups/components/setup-record-form';
+import { baselineStart } from '../baseline-start';
 import { useAttachSetup } from '@/features/setups/api/setups';
 import { EvidencePicker } from '@/features/runs/components/evidence';
 
 /** The draft's baseline setup record: it belongs to this revision, so every version keeps its own. */
-function BaselineSection({ revisionId, editable, initial }: { revisionId: string | null; editable: boolean; initial: SetupRecord | null }) {
+function BaselineSection({
+  revisionId,
+  editable,
+  initial,
+  start,
+}: {
+  revisionId: string | null;
+  editable: boolean;
+  initial: SetupRecord | null;
+  start: SetupStart;
+}) {
   const attach = useAttachSetup(revisionId ?? '');
   const qc = useQueryClient();
   const handleSave = async (record: SetupRecord | null) => {
@@ -44,6 +55,7 @@ function BaselineSection({ revisionId, editable, initial }: { revisionId: string
         <fieldset disabled={!editable}>
           <SetupRecordForm
             defaultValue={initial}
+            start={start}
             onSubmit={(record) => handleSave(record)}
             submitLabel="Save baseline"
             actions={
@@ -120,12 +132,13 @@ function EditorScreen({ kind, slug }: { kind: DocumentKind; slug: string | null 
         renderWorkedExample={renderWorkedExample}
         onCreated={handleCreated}
         onSubmitted={() => navigate('/me/revisions')}
-        renderBaseline={(revisionId, editable) => (
+        renderBaseline={(revisionId, editable, guide) => (
           <>
             <BaselineSection
               key={revisionId ?? 'new'}
               revisionId={revisionId}
               editable={editable}
+              start={baselineStart(guide)}
               initial={((draftId ? draft.data?.revision.setup : liveRevision?.setup) ?? null) as SetupRecord | null}
             />
             {kind === 'guide' && <EvidencePicker revisionId={revisionId} editable={editable} />}

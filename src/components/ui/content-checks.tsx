@@ -1,4 +1,5 @@
 import type { ContentCheckItem } from '@shared/schemas/content-check';
+import { checkPathLabel } from '@shared/content-checks/path-label';
 import { Notice } from './notice';
 
 /**
@@ -19,7 +20,7 @@ export function ContentChecks({ checks, audience }: { checks: ContentCheckItem[]
     <ul className="mt-1 flex list-none flex-col gap-2 p-0">
       {items.map((c, i) => (
         <li key={`${c.rule}-${c.path}-${i}`}>
-          {c.message} <code className="rounded bg-paper px-1 text-xs break-all text-ink-muted">{c.path}</code>
+          <span className="font-semibold">{checkPathLabel(c.path)}:</span> {c.message}
         </li>
       ))}
     </ul>

@@ -2,6 +2,7 @@ import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
 import { getCalculator } from '@shared/calc/registry';
+import { formatWorkedExample } from '@shared/calc/worked-example';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { valuesFromInputs, type CalcValues } from '../hooks/use-calculation';
@@ -41,6 +42,17 @@ export function CalculatorWorkbench({ name }: { name: string }) {
     [values, setSearch],
   );
 
+  // The same block the editor's "Insert worked example" writes, with the numbers on screen.
+  const handleUseInGuide = async () => {
+    const block = formatWorkedExample(name, values);
+    try {
+      await copyText(block);
+      toast.success('Worked example copied: paste it into a guide’s body, where it becomes a live card.');
+    } catch {
+      toast.error(`Could not copy automatically. The block is:\n${block}`);
+    }
+  };
+
   const handleReset = () => setSearch(new URLSearchParams(), { replace: true, preventScrollReset: true });
 
   const handleCopy = async () => {
@@ -73,6 +85,9 @@ export function CalculatorWorkbench({ name }: { name: string }) {
             <>
               <Button type="button" size="sm" onClick={handleCopy}>
                 Copy link
+              </Button>
+              <Button type="button" size="sm" variant="secondary" onClick={handleUseInGuide}>
+                Use in a guide
               </Button>
               <Button type="button" size="sm" variant="secondary" onClick={handleReset}>
                 Reset to the example

@@ -1,7 +1,20 @@
-import { lazy, Suspense, useId, type ReactNode } from 'react';
+import { lazy, Suspense, useId, useRef, useState, type ReactNode } from 'react';
+import { Button } from '@/components/ui/button';
 import { imageFiles, ImageTools, useImageInsert } from './image-tools';
+import { MarkdownHelp } from './markdown-help';
 
 const MarkdownEditor = lazy(() => import('./markdown-editor'));
+const InsertExampleDialog = lazy(() => import('./insert-example-dialog').then((m) => ({ default: m.InsertExampleDialog })));
+
+/** Puts a block at a position, on lines of its own. */
+export function insertBlock(text: string, at: number, block: string): string {
+  const pos = Math.max(0, Math.min(at, text.length));
+  const before = text.slice(0, pos);
+  const after = text.slice(pos);
+  const lead = before === '' || before.endsWith('\n\n') ? '' : before.endsWith('\n') ? '\n' : '\n\n';
+  const trail = after === '' || after.startsWith('\n') ? '' : '\n';
+  return `${before}${lead}${block}${trail}${after}`;
+}
 
 /** The body field: a plain textarea until the Markdown editor's chunk arrives, then the editor. */
 export function BodyField({
@@ -27,14 +40,21 @@ export function BodyField({
     e.preventDefault();
     void images.handleFiles(files);
   };
+  const [exampleAt, setExampleAt] = useState<number | null>(null);
+  const [helpOpen, setHelpOpen] = useState(false);
+  // The latest text, so a block inserted after the form closes goes into what is there now.
+  const latest = useRef(value);
+  latest.current = value;
   return (
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="text-sm font-medium text-ink">
         Body
       </label>
       <p id={hintId} className="text-xs text-ink-muted">
-        Markdown. A worked example is a fenced block with the info string <code>worked-example</code>: a <code>calc:</code> line naming the calculator, then its
-        inputs, one per line.
+        Markdown: headings, emphasis, lists, links, tables, cautions and worked examples (live calculator cards).{' '}
+        <Button type="button" variant="ghost" size="sm" className="inline px-1 py-0 align-baseline" onClick={() => setHelpOpen(true)}>
+          How to write them
+        </Button>
       </p>
       <div onPasteCapture={(e) => takeFiles(e, e.clipboardData)} onDropCapture={(e) => takeFiles(e, e.dataTransfer)} onDragOver={(e) => e.preventDefault()}>
         <Suspense
@@ -48,10 +68,31 @@ export function BodyField({
             />
           }
         >
-          <MarkdownEditor id={id} value={value} onChange={onChange} renderWorkedExample={renderWorkedExample} describedBy={hintId} />
+          <MarkdownEditor
+            id={id}
+            value={value}
+            onChange={onChange}
+            renderWorkedExample={renderWorkedExample}
+            describedBy={hintId}
+            onInsertExample={(at) => setExampleAt(at)}
+            onHelp={() => setHelpOpen(true)}
+          />
         </Suspense>
       </div>
       <ImageTools revisionId={revisionId} body={value} progress={images.progress} onFiles={(f) => void images.handleFiles(f)} onChange={onChange} />
+      {exampleAt !== null && (
+        <Suspense fallback={null}>
+          <InsertExampleDialog
+            open
+            onClose={() => setExampleAt(null)}
+            onInsert={(block) => {
+              onChange(insertBlock(latest.current, exampleAt, block));
+              setExampleAt(null);
+            }}
+          />
+        </Suspense>
+      )}
+      <MarkdownHelp open={helpOpen} onClose={() => setHelpOpen(false)} />
       {error && (
         <p role="alert" className="text-sm text-danger">
           {error}

@@ -48,8 +48,8 @@ export type DocumentEditorProps = {
   /** The first save created a revision: the page records its id in the URL. */
   onCreated: (revision: Revision, slug: string) => void;
   onSubmitted: (revision: Revision) => void;
-  /** The guide's baseline setup section, composed by the page (editable while the draft is). */
-  renderBaseline?: (revisionId: string | null, editable: boolean) => ReactNode;
+  /** The guide's baseline setup section, composed by the page (editable while the draft is); it gets the guide's fields as typed, so a new baseline starts from them. */
+  renderBaseline?: (revisionId: string | null, editable: boolean, guide: { class: string; surface: string; body: string }) => ReactNode;
 };
 
 const minimalNewGuide = guideContentSchema.pick({ title: true, summary: true, class: true, surface: true });
@@ -336,7 +336,9 @@ export function DocumentEditor({
           />
         </div>
       </fieldset>
-      {kind === 'guide' && renderBaseline && renderBaseline(revisionId, editable)}
+      {kind === 'guide' &&
+        renderBaseline &&
+        renderBaseline(revisionId, editable, { class: (content as GuideForm).class, surface: (content as GuideForm).surface, body: content.body })}
       {revisionId && (
         <section aria-labelledby="editor-checks" className="flex flex-col gap-2">
           <h2 id="editor-checks" className="text-lg font-semibold">

@@ -1,5 +1,5 @@
 import { useEffect, useRef, type ReactNode } from 'react';
-import MDEditor from '@uiw/react-md-editor/nohighlight';
+import MDEditor, { commands, type ICommand } from '@uiw/react-md-editor/nohighlight';
 import rehypeSanitize from 'rehype-sanitize';
 import { Markdown } from '@/lib/markdown';
 
@@ -9,13 +9,71 @@ export type MarkdownEditorProps = {
   onChange: (value: string) => void;
   renderWorkedExample?: (body: string, index: number) => ReactNode;
   describedBy?: string;
+  /** The toolbar's "Insert worked example": called with where the cursor is (the page opens its form). */
+  onInsertExample?: (at: number) => void;
+  /** The toolbar's help: our own help for the body, inside the app. */
+  onHelp?: () => void;
 };
+
+const icon = (text: string) => (
+  <span aria-hidden="true" className="px-0.5 text-[0.7rem] font-semibold">
+    {text}
+  </span>
+);
+
+/**
+ * Only the actions a guide needs: headings, emphasis, lists, links, tables, worked example, caution,
+ * and our own help (the library's default adds images, code, quotes and a help link to another site).
+ */
+function toolbar(onInsertExample?: (at: number) => void, onHelp?: () => void): ICommand[] {
+  const caution: ICommand = {
+    name: 'caution',
+    keyCommand: 'caution',
+    buttonProps: { 'aria-label': 'Insert a caution', title: 'Insert a caution' },
+    icon: icon('⚠ Caution'),
+    execute: (state, api) => {
+      const start = state.text.lastIndexOf('\n', state.selection.start - 1) + 1;
+      api.setSelectionRange({ start, end: start });
+      api.replaceSelection('> **Caution:** ');
+    },
+  };
+  const example: ICommand = {
+    name: 'worked-example',
+    keyCommand: 'worked-example',
+    buttonProps: { 'aria-label': 'Insert worked example', title: 'Insert worked example' },
+    icon: icon('Worked example'),
+    execute: (state) => onInsertExample?.(state.selection.end),
+  };
+  const help: ICommand = {
+    name: 'help',
+    keyCommand: 'help',
+    buttonProps: { 'aria-label': 'Help with the body', title: 'Help with the body' },
+    icon: icon('Help'),
+    execute: () => onHelp?.(),
+  };
+  return [
+    commands.title2,
+    commands.title3,
+    commands.bold,
+    commands.italic,
+    commands.divider,
+    commands.unorderedListCommand,
+    commands.orderedListCommand,
+    commands.link,
+    commands.table,
+    commands.divider,
+    example,
+    caution,
+    commands.divider,
+    help,
+  ];
+}
 
 /**
  * The Markdown editor itself (a large chunk, so it is only ever imported lazily). Its preview is our own
  * sanitized renderer, so authors see exactly what readers will, worked examples included.
  */
-export default function MarkdownEditor({ id, value, onChange, renderWorkedExample, describedBy }: MarkdownEditorProps) {
+export default function MarkdownEditor({ id, value, onChange, renderWorkedExample, describedBy, onInsertExample, onHelp }: MarkdownEditorProps) {
   const wrap = useRef<HTMLDivElement>(null);
   // The editor's toolbar icons are drawn as role="img" without a name (the buttons carry the label),
   // and its preview pane scrolls without being focusable; patch both so keyboard and screen-reader users get through.
@@ -44,6 +102,8 @@ export default function MarkdownEditor({ id, value, onChange, renderWorkedExampl
         height={520}
         preview={typeof window !== 'undefined' && window.matchMedia('(min-width: 768px)').matches ? 'live' : 'edit'}
         visibleDragbar
+        commands={toolbar(onInsertExample, onHelp)}
+        extraCommands={[commands.codeEdit, commands.codeLive, commands.codePreview]}
         textareaProps={{
           id,
           'aria-describedby': describedBy,

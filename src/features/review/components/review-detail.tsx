@@ -4,7 +4,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import type { CalcWarning } from '@shared/calc/types';
-import { FieldChangesTable, WordDiffView } from '@/components/diff/word-diff-view';
+import { BodyDiff, MetadataChanges, setupValueText } from './review-diffs';
 import { Button } from '@/components/ui/button';
 import { Card, Spinner } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
@@ -32,11 +32,6 @@ function WarningList({ warnings }: { warnings: CalcWarning[] }) {
   );
 }
 
-function show(v: unknown) {
-  if (v === null || v === undefined || v === '') return '—';
-  return typeof v === 'object' ? JSON.stringify(v) : String(v);
-}
-
 function SetupChangesTable({ changes }: { changes: SetupChange[] }) {
   if (changes.length === 0) return <p className="text-sm text-ink-soft">The attached setup record is unchanged.</p>;
   return (
@@ -62,12 +57,8 @@ function SetupChangesTable({ changes }: { changes: SetupChange[] }) {
               <th scope="row" className="px-3 py-2 text-left font-medium">
                 {c.label ?? c.path}
               </th>
-              <td className="px-3 py-2 font-mono text-danger">
-                {show(c.from)} {c.unit}
-              </td>
-              <td className="px-3 py-2 font-mono text-ok">
-                {show(c.to)} {c.unit}
-              </td>
+              <td className="px-3 py-2 text-danger tabular-nums">{setupValueText(c, c.from)}</td>
+              <td className="px-3 py-2 text-ok tabular-nums">{setupValueText(c, c.to)}</td>
             </tr>
           ))}
         </tbody>
@@ -278,15 +269,18 @@ export function ReviewDetailView({
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-8">
           <Section id="review-details" title="Changed details">
-            <FieldChangesTable
-              changes={d.changedFields ?? []}
-              fromLabel={liveLabel}
-              toLabel={proposedLabel}
-              caption="Fields that differ from the live version"
-            />
+            <MetadataChanges changes={d.changedFields ?? []} />
           </Section>
           <Section id="review-text" title="Changed text">
-            <WordDiffView changes={d.bodyDiff ?? []} detail={d.bodyDiffDetail} fromLabel={liveLabel} toLabel={proposedLabel} />
+            <BodyDiff
+              from={String(live?.content.body ?? '')}
+              to={String(revision.content.body ?? '')}
+              changes={d.bodyDiff ?? []}
+              detail={d.bodyDiffDetail}
+              fromLabel={liveLabel}
+              toLabel={proposedLabel}
+              renderWorkedExample={renderWorkedExample}
+            />
           </Section>
           <Section id="review-images" title="Changed images">
             <ImageChanges before={String(live?.content.body ?? '')} after={String(revision.content.body ?? '')} />

@@ -4,7 +4,35 @@ import { CLASSES } from '@shared/constants';
 import { SelectField } from '@/components/ui/field';
 import { Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { checkPathLabel } from '@shared/content-checks/path-label';
+import type { ContentCheckItem } from '@shared/schemas/content-check';
 import { reviewQueries, type ReviewFilters } from '../api/reviews';
+
+/** The automatic findings of one proposal: the count, then each titled by the setting or example it concerns. */
+function Findings({ checks }: { checks: ContentCheckItem[] }) {
+  if (checks.length === 0) return <span className="text-ink-muted">None</span>;
+  const errors = checks.filter((c) => c.severity === 'error').length;
+  return (
+    <details>
+      <summary className="cursor-pointer font-medium whitespace-nowrap">
+        {checks.length} {checks.length === 1 ? 'finding' : 'findings'}
+        {errors > 0 && (
+          <span className="text-danger">
+            {' '}
+            · {errors} error{errors === 1 ? '' : 's'}
+          </span>
+        )}
+      </summary>
+      <ul className="mt-1 flex list-disc flex-col gap-1 pl-4 text-xs">
+        {checks.map((c, i) => (
+          <li key={`${c.rule}-${c.path}-${i}`} className={c.severity === 'error' ? 'text-danger' : undefined}>
+            <span className="font-semibold">{checkPathLabel(c.path)}:</span> {c.message}
+          </li>
+        ))}
+      </ul>
+    </details>
+  );
+}
 
 const since = new Intl.RelativeTimeFormat('en-GB', { numeric: 'auto' });
 function waitingFor(iso: string | null) {
@@ -71,6 +99,9 @@ export function ReviewQueue() {
                   Waiting
                 </th>
                 <th scope="col" className="px-3 py-2 font-semibold">
+                  Automatic findings
+                </th>
+                <th scope="col" className="px-3 py-2 font-semibold">
                   Edit note
                 </th>
               </tr>
@@ -90,6 +121,9 @@ export function ReviewQueue() {
                   <td className="px-3 py-2">{r.kind === 'guide' ? 'Guide' : 'Setting'}</td>
                   <td className="px-3 py-2 whitespace-nowrap">{r.author.displayName}</td>
                   <td className="px-3 py-2 whitespace-nowrap">{waitingFor(r.submittedAt)}</td>
+                  <td className="min-w-40 px-3 py-2" data-testid="queue-findings">
+                    <Findings checks={r.checks ?? []} />
+                  </td>
                   <td className="max-w-md px-3 py-2 text-ink-soft">{r.note || '—'}</td>
                 </tr>
               ))}

@@ -8,6 +8,10 @@ import { canonicalRecord, DRIVETRAINS, SETUP_SCHEMA_VERSION, setupRecordSchema, 
 import type { SettingDefinitionRow } from '@shared/schemas/setup';
 import { computeSetup } from '@shared/setup/computed';
 import { parseSetupText, type SetupIssue } from '@shared/setup/import';
+import { normaliseNumberText } from '@shared/calc/inputs';
+import { settingChoices, typicalStart } from '@shared/setup/choices';
+import { fileChanges, type FileChange } from './file-changes';
+import { classLabel, showValue } from './labels';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
@@ -28,7 +32,8 @@ const EMPTY: SetupRecord = {
   conditions: { surface: 'clay' },
 };
 
-const toNumber = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : typeof v === 'number' ? v : Number(String(v).replace(',', '.')));
+// A decimal comma is read as a point, and thousands commas are dropped ("1,5" → 1.5, "2,200" → 2200).
+const toNumber = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : typeof v === 'number' ? v : Number(normaliseNumberText(String(v))));
 const toText = (v: unknown) => (v === '' || v === undefined ? undefined : String(v));
 
 function Section({ title, children }: { title: string; children: ReactNode }) {
@@ -50,7 +55,26 @@ type Props = {
   actions?: ReactNode;
   /** The member's registered motors to pick from (a private setup only: a guide's public baseline never names one). */
   motors?: Array<{ id: string; label: string }>;
+  /** What a blank form starts from (the guide's class, surface and worked examples' gearing); ignored when there is a defaultValue. */
+  start?: SetupStart;
 };
+
+/** The facts a new baseline can start from. */
+export type SetupStart = { class?: string; surface?: string; gearing?: Partial<SetupRecord['gearing']> };
+
+/** A blank record with the given starting facts filled in. */
+export function startingRecord(start?: SetupStart): SetupRecord {
+  const record: SetupRecord = JSON.parse(JSON.stringify(EMPTY)) as SetupRecord;
+  if (!start) return record;
+  const cls = CLASSES.find((c) => c.slug === start.class);
+  if (cls) record.vehicle.class = cls.slug;
+  // Four-wheel-drive classes start as 4WD; the author can change it.
+  if (cls && /4wd|touring|8th/.test(cls.slug)) record.vehicle.drivetrain = '4wd';
+  const surface = SURFACES.find((x) => x.slug === start.surface);
+  if (surface) record.conditions.surface = surface.slug;
+  record.gearing = { ...record.gearing, ...start.gearing };
+  return record;
+}
 
 /**
  * A form for a whole setup record: ESC settings are offered from the parameter library with
@@ -64,20 +88,30 @@ export function SetupRecordForm(props: Props) {
   return <RecordForm {...props} definitions={library.data} />;
 }
 
-function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', actions, motors, definitions }: Props & { definitions: SettingDefinitionRow[] }) {
+function RecordForm({
+  defaultValue,
+  onSubmit,
+  submitLabel = 'Save setup',
+  actions,
+  motors,
+  definitions,
+  start,
+}: Props & { definitions: SettingDefinitionRow[] }) {
   const schema = useMemo(() => setupRecordSchema(definitions), [definitions]);
   const escOptions = useMemo(() => definitions.filter((d) => !(d.slug in SLUGS_WITH_OWN_FIELD)), [definitions]);
   const bySlug = useMemo(() => new Map(definitions.map((d) => [d.slug, d])), [definitions]);
+  const names = useMemo(() => Object.fromEntries(definitions.map((d) => [d.slug, d.name])), [definitions]);
   // Explicit generics (input, context, output) as zod 4 resolvers need; the record type is the same both ways.
   const form = useForm<SetupRecord, unknown, SetupRecord>({
     resolver: zodResolver(schema) as Resolver<SetupRecord, unknown, SetupRecord>,
-    defaultValues: defaultValue ?? EMPTY,
+    defaultValues: defaultValue ?? startingRecord(start),
     mode: 'onBlur',
   });
   const { register, handleSubmit, formState, reset, setValue, unregister, watch } = form;
   const [slugs, setSlugs] = useState<string[]>(() => Object.keys(defaultValue?.escSettings ?? {}));
   const [adding, setAdding] = useState('');
   const [fileIssues, setFileIssues] = useState<SetupIssue[] | null>(null);
+  const [fileSummary, setFileSummary] = useState<{ name: string; changes: FileChange[] } | null>(null);
   const errors = formState.errors as FieldErrors;
   const err = (path: string): string | undefined =>
     (get(errors, path) as { message?: string } | undefined)?.message ?? (get(errors, `${path}.root`) as { message?: string } | undefined)?.message;
@@ -91,7 +125,9 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
   const addSetting = () => {
     const def = bySlug.get(adding);
     if (!def || slugs.includes(def.slug)) return;
-    setValue(`escSettings.${def.slug}`, { value: def.range.min, unit: def.unit });
+    // The class's typical value when the library names one; otherwise empty for the author to fill.
+    const startValue = typicalStart(def, String(values.vehicle?.class ?? ''));
+    setValue(`escSettings.${def.slug}`, { value: startValue as number, unit: def.unit });
     setSlugs((s) => [...s, def.slug]);
     setAdding('');
   };
@@ -109,6 +145,7 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
     const result = parseSetupText(await file.text(), kind, definitions);
     if (!result.ok) return setFileIssues(result.issues);
     setFileIssues(null);
+    setFileSummary({ name: file.name, changes: fileChanges(values, result.record, names) });
     reset(result.record);
     setSlugs(Object.keys(result.record.escSettings));
   };
@@ -142,6 +179,28 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
               </li>
             ))}
           </ul>
+        </Notice>
+      )}
+
+      {fileSummary && (
+        <Notice tone="info" title={`What ${fileSummary.name} changed`}>
+          {fileSummary.changes.length === 0 ? (
+            <p>Nothing: the file holds the same values as the form.</p>
+          ) : (
+            <>
+              <p>
+                {fileSummary.changes.length} {fileSummary.changes.length === 1 ? 'field' : 'fields'} changed. Check them, then save.
+              </p>
+              <ul className="mt-1 list-disc pl-5" data-testid="file-changes">
+                {fileSummary.changes.map((c) => (
+                  <li key={c.path}>
+                    <span className="font-medium">{c.label}</span>: {c.before === null ? 'added' : showValue(c.path, c.before, c.unit)} →{' '}
+                    {c.after === null ? 'removed' : showValue(c.path, c.after, c.unit)}
+                  </li>
+                ))}
+              </ul>
+            </>
+          )}
         </Notice>
       )}
 
@@ -201,16 +260,37 @@ function RecordForm({ defaultValue, onSubmit, submitLabel = 'Save setup', action
           {slugs.map((slug) => {
             const def = bySlug.get(slug);
             const unitShown = def?.unit ? ` (${def.unit === 'deg' ? '°' : def.unit})` : '';
+            const choices = settingChoices(slug);
+            const typical = def?.typical?.[String(values.vehicle?.class ?? '')];
+            const typicalHint = typical ? `Typical for ${classLabel(String(values.vehicle?.class))}: ${typical.text}` : null;
+            const error = err(`escSettings.${slug}.value`) ?? err(`escSettings.${slug}.unit`) ?? err(`escSettings.${slug}`);
             return (
               <div key={slug} className="flex items-end gap-2">
                 <div className="flex-1">
-                  <TextField
-                    label={`${def?.name ?? slug}${unitShown}`}
-                    inputMode="decimal"
-                    hint={def ? `${def.range.min}–${def.range.max}${def.unit ? ` ${def.unit}` : ''}, step ${def.range.step}` : 'Not in the parameter library'}
-                    error={err(`escSettings.${slug}.value`) ?? err(`escSettings.${slug}.unit`) ?? err(`escSettings.${slug}`)}
-                    {...num(`escSettings.${slug}.value`)}
-                  />
+                  {choices ? (
+                    <SelectField label={def?.name ?? slug} hint={typicalHint ?? undefined} error={error} {...num(`escSettings.${slug}.value`)}>
+                      <option value="">Choose…</option>
+                      {choices.map((label, value) => (
+                        <option key={label} value={value}>
+                          {label}
+                        </option>
+                      ))}
+                    </SelectField>
+                  ) : (
+                    <TextField
+                      label={`${def?.name ?? slug}${unitShown}`}
+                      inputMode="decimal"
+                      hint={
+                        def
+                          ? [typicalHint, `Range ${def.range.min}–${def.range.max}${def.unit ? ` ${def.unit === 'deg' ? '°' : def.unit}` : ''}`]
+                              .filter(Boolean)
+                              .join('. ')
+                          : 'Not in the parameter library'
+                      }
+                      error={error}
+                      {...num(`escSettings.${slug}.value`)}
+                    />
+                  )}
                   <input type="hidden" {...register(`escSettings.${slug}.unit` as never)} />
                 </div>
                 <Button type="button" variant="ghost" size="sm" onClick={() => removeSetting(slug)} aria-label={`Remove ${def?.name ?? slug}`}>
