@@ -39,7 +39,7 @@ export type HistoryItem = Pick<Revision, 'id' | 'number' | 'state' | 'author' | 
 /** What the comparison of two revisions returns. */
 export type GuideComparison = { from: GuideRevision; to: GuideRevision; changedFields: FieldChange[]; bodyDiff: WordChange[]; bodyDiffDetail: BodyDiffDetail };
 
-export type GuideFilters = { class?: string; surface?: string; parameter?: string; q?: string };
+export type GuideFilters = { class?: string; surface?: string; parameter?: string; tag?: string; q?: string };
 
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
 
