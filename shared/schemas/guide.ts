@@ -52,6 +52,8 @@ export const guideListQuerySchema = z.object({
   class: z.enum(CLASS_SLUGS).optional(),
   surface: z.enum(SURFACE_SLUGS).optional(),
   parameter: slugSchema.optional(),
+  /** Guides carrying this tag, exactly as written on the guide. */
+  tag: z.string().trim().min(1).max(40).optional(),
   q: z.string().trim().max(200).optional(),
   page: z.coerce.number().int().min(1).max(10_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(50),

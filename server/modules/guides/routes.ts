@@ -24,7 +24,7 @@ export const guideRoutes = [
   defineRoute({
     method: 'get',
     path: '/api/guides',
-    summary: 'Live guides, newest first (filters: class, surface, parameter, q)',
+    summary: 'Live guides, newest first (filters: class, surface, parameter, tag, q)',
     tags: ['guides'],
     access: 'public',
     query: guideListQuerySchema,

@@ -45,7 +45,7 @@ export function revisionQueries(ctx: AppContext) {
     },
 
     /** Live, visible guides, newest first, with simple filters. */
-    async listLiveGuides(q: { class?: string; surface?: string; parameter?: string; q?: string; page: number; pageSize: number }) {
+    async listLiveGuides(q: { class?: string; surface?: string; parameter?: string; tag?: string; q?: string; page: number; pageSize: number }) {
       const m = ctx.dataSource.manager;
       const qb = m
         .getRepository(RevisionEntity)
@@ -55,6 +55,7 @@ export function revisionQueries(ctx: AppContext) {
       if (q.class) qb.andWhere("r.content->>'class' = :cls", { cls: q.class });
       if (q.surface) qb.andWhere("r.content->>'surface' = :surface", { surface: q.surface });
       if (q.parameter) qb.andWhere("r.content->'parameters' @> :param::jsonb", { param: JSON.stringify([q.parameter]) });
+      if (q.tag) qb.andWhere("r.content->'tags' @> :tag::jsonb", { tag: JSON.stringify([q.tag]) });
       if (q.q) {
         const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
         qb.andWhere("(r.content->>'title' ILIKE :like OR r.content->>'summary' ILIKE :like)", { like });

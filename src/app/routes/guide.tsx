@@ -78,10 +78,11 @@ export function GuidePage() {
           renderWorkedExample={renderWorkedExample}
           parameterNames={parameterNames}
           actions={actions}
+          baselineAnchor={revision.number === liveNumber && revision.setup ? 'setup' : undefined}
         />
         {revision.number === liveNumber ? (
           <section id="setup" className="mt-10 scroll-mt-4" aria-label="Baseline setup">
-            <SetupSheet slug={slug} />
+            <SetupSheet slug={slug} names={parameterNames} />
           </section>
         ) : (
           revision.setup && (

@@ -1,6 +1,6 @@
 import { useEffect } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Link, useLocation, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { PageHeader, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { ApiError } from '@/lib/api-client';
@@ -13,14 +13,10 @@ import { WatchButton } from '@/features/watches/components/watch-button';
 
 export function ParametersPage() {
   const list = useQuery(parameterQueries.list());
-  const { hash } = useLocation();
   useEffect(() => {
     document.title = 'Parameter library · Tunewright';
   }, []);
-  // Category links from entry pages land on their heading once the table is drawn.
-  useEffect(() => {
-    if (list.data && hash) document.getElementById(hash.slice(1))?.scrollIntoView();
-  }, [list.data, hash]);
+  // Category links from entry pages land on their heading once the table is drawn: PageScroll waits for it.
   return (
     <div>
       <PageHeader eyebrow="Reference" title="Parameter library">
@@ -48,10 +44,6 @@ export function ParameterPage() {
   useEffect(() => {
     if (entry.data) document.title = `${entry.data.parameter.name} · Tunewright`;
   }, [entry.data]);
-  useEffect(() => {
-    // Moving to another entry starts at its top; taking over the server-drawn page keeps where the reader is.
-    if (document.documentElement.dataset.app === 'running') window.scrollTo(0, 0);
-  }, [slug]);
   if (entry.isPending) return <Spinner label="Loading the entry…" />;
   if (entry.isError) {
     const missing = entry.error instanceof ApiError && entry.error.status === 404;

@@ -63,14 +63,16 @@ function HeaderSearch() {
   );
 }
 
-function AccountMenu({ user }: { user: User | null | undefined }) {
+/** `shown`: on a phone the account links live in the menu; from md up they are always in the header. */
+function AccountMenu({ user, shown }: { user: User | null | undefined; shown: boolean }) {
+  const place = `${shown ? 'flex' : 'hidden'} md:flex items-center gap-2 text-sm`;
   const signOut = useSignOut();
   const navigate = useNavigate();
   const location = useLocation();
   if (!user) {
     const next = location.pathname.startsWith('/sign') ? '' : `?next=${encodeURIComponent(location.pathname + location.search)}`;
     return (
-      <div className="flex items-center gap-2 text-sm">
+      <div className={place}>
         <Link to={`/sign-in${next}`} className="rounded-md px-2 py-1 font-medium text-ink no-underline hover:bg-paper-deep">
           Sign in
         </Link>
@@ -86,7 +88,7 @@ function AccountMenu({ user }: { user: User | null | undefined }) {
     navigate('/');
   };
   return (
-    <div className="flex items-center gap-2 text-sm">
+    <div className={place}>
       {/* The first name keeps the header on one row; the whole name is the link's name and its tooltip. */}
       <Link
         to="/account"
@@ -148,9 +150,10 @@ export function AppLayout() {
               </NavLink>
             ))}
           </nav>
-          <div className={`${menuOpen ? 'flex' : 'hidden'} w-full flex-col gap-3 sm:flex-row sm:items-center md:ml-auto md:flex md:w-auto`}>
+          {/* The search box stays in view on a phone (one tap away on every page); the account links fold into the menu. */}
+          <div className="flex w-full flex-col gap-3 sm:flex-row sm:items-center md:ml-auto md:w-auto">
             <HeaderSearch />
-            <AccountMenu user={user} />
+            <AccountMenu user={user} shown={menuOpen} />
           </div>
         </div>
       </header>

@@ -2,19 +2,24 @@ import { useEffect, useRef, useState, type ReactNode } from 'react';
 
 type Props = {
   children: ReactNode;
-  /** Shown until the content is near the viewport; give it the content's rough height. */
+  /** Shown until the content is near the viewport; give it the content's rough height. Give it a focusable element so Tab can reach it. */
   placeholder: ReactNode;
   /** How far outside the viewport loading starts. */
   margin?: string;
 };
 
+const FOCUSABLE = 'input:not([disabled]), select:not([disabled]), textarea:not([disabled]), button:not([disabled]), a[href]';
+
 /**
- * Mounts its children only when they come near the viewport (or the page is printed), so code that
- * only a card further down needs is not downloaded with the page.
+ * Mounts its children only when they come near the viewport (or the page is printed, or a keyboard user
+ * tabs into the placeholder), so code that only a card further down needs is not downloaded with the page.
+ * Focus that arrived in the placeholder moves to the content's first control once it has loaded.
  */
 export function WhenNear({ children, placeholder, margin = '600px 0px' }: Props) {
   const ref = useRef<HTMLDivElement>(null);
+  const content = useRef<HTMLDivElement>(null);
   const [near, setNear] = useState(typeof IntersectionObserver === 'undefined');
+  const [focusArrived, setFocusArrived] = useState(false);
 
   useEffect(() => {
     if (near || !ref.current) return;
@@ -29,5 +34,39 @@ export function WhenNear({ children, placeholder, margin = '600px 0px' }: Props)
     };
   }, [near, margin]);
 
-  return near ? <>{children}</> : <div ref={ref}>{placeholder}</div>;
+  // The placeholder (and any loading fallback) held the focus; hand it to the first real control when it appears,
+  // unless the reader has moved on meanwhile.
+  useEffect(() => {
+    if (!near || !focusArrived || !content.current) return;
+    const box = content.current;
+    const handOver = () => {
+      const target = [...box.querySelectorAll<HTMLElement>(FOCUSABLE)].find((el) => !el.closest('[data-example-placeholder]'));
+      if (!target) return false;
+      const current = document.activeElement;
+      if (!current || current === document.body || box.contains(current)) target.focus();
+      return true;
+    };
+    if (handOver()) return setFocusArrived(false);
+    const observer = new MutationObserver(() => handOver() && (observer.disconnect(), setFocusArrived(false)));
+    observer.observe(box, { childList: true, subtree: true });
+    return () => observer.disconnect();
+  }, [near, focusArrived]);
+
+  if (near)
+    return (
+      <div ref={content} className="contents">
+        {children}
+      </div>
+    );
+  return (
+    <div
+      ref={ref}
+      onFocus={() => {
+        setFocusArrived(true);
+        setNear(true);
+      }}
+    >
+      {placeholder}
+    </div>
+  );
 }

@@ -15,7 +15,7 @@ export type { GuideRecord, GuideSummary } from '@shared/schemas/guide';
 /** One row of a guide's history (no content). */
 export type HistoryItem = RevisionHistoryItem;
 
-export type GuideFilters = { class?: string; surface?: string; parameter?: string; q?: string };
+export type GuideFilters = { class?: string; surface?: string; parameter?: string; tag?: string; q?: string };
 
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
 

@@ -1,10 +1,11 @@
-import type { ReactNode } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import { RenderedMarkdown } from '@/lib/rendered-html';
 import { Notice } from '@/components/ui/notice';
 import type { ReadableGuideRevision } from '../api/guides';
 import { formatDate } from '../lib/format';
+import { withHeadingAnchors, type TocEntry } from '../lib/toc';
 import { GuideMeta } from './guide-meta';
 
 type Props = {
@@ -14,11 +15,42 @@ type Props = {
   renderWorkedExample?: (body: string, index: number) => ReactNode;
   parameterNames?: Record<string, string>;
   actions?: ReactNode;
+  /** The id of the baseline card below the article, when the page shows one ("Jump to baseline"). */
+  baselineAnchor?: string;
 };
 
+/** "On this page": jump links to the body's headings, and to the baseline card. */
+function TableOfContents({ entries, baselineAnchor }: { entries: TocEntry[]; baselineAnchor?: string }) {
+  if (entries.length < 2 && !baselineAnchor) return null;
+  return (
+    <nav aria-labelledby="toc-title" className="no-print rounded-lg border border-paper-line bg-paper-card px-4 py-3 text-sm" data-testid="guide-toc">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 id="toc-title" className="text-xs font-semibold tracking-wider text-ink-muted uppercase">
+          On this page
+        </h2>
+        {baselineAnchor && (
+          <Link to={{ hash: baselineAnchor }} className="font-medium">
+            Jump to baseline
+          </Link>
+        )}
+      </div>
+      <ol className="mt-2 flex flex-col gap-1">
+        {entries.map((e) => (
+          <li key={e.id} className={e.level === 3 ? 'pl-4' : undefined}>
+            <Link to={{ hash: e.id }} className="inline-block py-0.5">
+              {e.text}
+            </Link>
+          </li>
+        ))}
+      </ol>
+    </nav>
+  );
+}
+
 /** A guide revision as readers see it: title, summary, chips, the version line and the body. */
-export function GuideArticle({ revision, liveNumber, renderWorkedExample, parameterNames, actions }: Props) {
+export function GuideArticle({ revision, liveNumber, renderWorkedExample, parameterNames, actions, baselineAnchor }: Props) {
   const c = revision.content;
+  const body = useMemo(() => withHeadingAnchors(revision.bodyHtml), [revision.bodyHtml]);
   const isLive = revision.state === 'published';
   const date = formatDate(revision.publishedAt ?? revision.submittedAt ?? revision.createdAt);
   return (
@@ -60,7 +92,8 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
           </Notice>
         )}
       </header>
-      <RenderedMarkdown html={revision.bodyHtml} renderWorkedExample={renderWorkedExample} />
+      <TableOfContents entries={body.entries} baselineAnchor={baselineAnchor} />
+      <RenderedMarkdown html={body.html} renderWorkedExample={renderWorkedExample} />
     </article>
   );
 }

@@ -3,7 +3,7 @@ import { useSearchParams } from 'react-router-dom';
 import { SelectField } from '@/components/ui/field';
 import { guideQueries, type GuideFilters } from '../api/guides';
 
-const KEYS = ['class', 'surface', 'parameter'] as const;
+const KEYS = ['class', 'surface', 'parameter', 'tag'] as const;
 
 /** The list filters, read from the URL query so a filtered list can be linked and bookmarked. */
 export function useGuideFilters(): [GuideFilters, (key: (typeof KEYS)[number], value: string) => void, () => void] {
@@ -55,6 +55,14 @@ export function GuideFiltersBar() {
           </option>
         ))}
       </SelectField>
+      {filters.tag && (
+        <p className="text-sm sm:col-span-4">
+          Tagged <span className="font-semibold">“{filters.tag}”</span>{' '}
+          <button type="button" onClick={() => set('tag', '')} className="ml-1 underline" aria-label={`Remove the tag filter ${filters.tag}`}>
+            remove
+          </button>
+        </p>
+      )}
       <button
         type="button"
         onClick={clear}

@@ -4,7 +4,7 @@ import { Chip } from '@/components/ui/card';
 import { guideQueries, taxonomyName } from '../api/guides';
 import { useQuery } from '@tanstack/react-query';
 
-/** Class, surface, conditions, tags and the parameters a guide discusses, as chips and links. */
+/** Class, surface, conditions, tags and the parameters a guide discusses; each chip opens the guide list filtered by it. */
 export function GuideMeta({ content, parameterNames }: { content: GuideContent; parameterNames?: Record<string, string> }) {
   const taxonomy = useQuery(guideQueries.taxonomy()).data;
   return (
@@ -12,11 +12,23 @@ export function GuideMeta({ content, parameterNames }: { content: GuideContent; 
       <dl className="flex flex-wrap items-center gap-2">
         <dt className="sr-only">Class</dt>
         <dd>
-          <Chip tone="ink">{taxonomyName(taxonomy?.classes, content.class)}</Chip>
+          <Link
+            to={`/guides?class=${encodeURIComponent(content.class)}`}
+            className="no-underline"
+            aria-label={`Guides for ${taxonomyName(taxonomy?.classes, content.class)}`}
+          >
+            <Chip tone="ink">{taxonomyName(taxonomy?.classes, content.class)}</Chip>
+          </Link>
         </dd>
         <dt className="sr-only">Surface</dt>
         <dd>
-          <Chip tone="copper">{taxonomyName(taxonomy?.surfaces, content.surface)}</Chip>
+          <Link
+            to={`/guides?surface=${encodeURIComponent(content.surface)}`}
+            className="no-underline"
+            aria-label={`Guides on ${taxonomyName(taxonomy?.surfaces, content.surface)}`}
+          >
+            <Chip tone="copper">{taxonomyName(taxonomy?.surfaces, content.surface)}</Chip>
+          </Link>
         </dd>
         {content.conditions && (
           <>
@@ -31,7 +43,9 @@ export function GuideMeta({ content, parameterNames }: { content: GuideContent; 
           <ul className="flex flex-wrap gap-1.5" aria-label="Tags">
             {content.tags.map((t) => (
               <li key={t}>
-                <Chip>{t}</Chip>
+                <Link to={`/guides?tag=${encodeURIComponent(t)}`} className="no-underline" aria-label={`Guides tagged ${t}`}>
+                  <Chip>{t}</Chip>
+                </Link>
               </li>
             ))}
           </ul>

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import {
   createColumnHelper,
   flexRender,
@@ -19,9 +19,24 @@ const col = createColumnHelper<SetupBaseline>();
 /** Published baselines in a sortable, filterable table. */
 export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'class', desc: false }]);
-  const [search, setSearch] = useState('');
-  const [cls, setCls] = useState('');
-  const [surface, setSurface] = useState('');
+  // The filters live in the URL (q, class, surface), so a filtered list can be linked, bookmarked and come back on Back.
+  const [params, setParams] = useSearchParams();
+  const search = params.get('q') ?? '';
+  const cls = params.get('class') ?? '';
+  const surface = params.get('surface') ?? '';
+  const setParam = (key: string) => (value: string) =>
+    setParams(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        if (value) next.set(key, value);
+        else next.delete(key);
+        return next;
+      },
+      { replace: true },
+    );
+  const setSearch = setParam('q');
+  const setCls = setParam('class');
+  const setSurface = setParam('surface');
 
   const columns = useMemo(
     () => [
@@ -77,7 +92,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
     columns,
     state: { sorting, globalFilter: search },
     onSortingChange: setSorting,
-    onGlobalFilterChange: setSearch,
+    onGlobalFilterChange: (v: unknown) => setSearch(typeof v === 'string' ? v : ''),
     globalFilterFn: 'includesString',
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),

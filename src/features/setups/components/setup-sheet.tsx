@@ -5,15 +5,16 @@ import { ApiError } from '@/lib/api-client';
 import { guideSetupLinks, setupQueries } from '../api/setups';
 import { CautionList } from './caution-list';
 import { ComputedValues } from './computed-values';
+import { RecordTable } from './record-table';
 
 const linkButton =
   'inline-flex items-center rounded-md border border-ink/25 bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep';
 
 /**
  * The baseline box for a guide page: download buttons (JSON, CSV, print), the key computed
- * values and the cautions. Renders nothing when the live revision has no baseline.
+ * values, the cautions and every setting of the record. Renders nothing when the live revision has no baseline.
  */
-export function SetupSheet({ slug }: { slug: string }) {
+export function SetupSheet({ slug, names }: { slug: string; names?: Record<string, string> }) {
   const q = useQuery(setupQueries.guide(slug));
   if (q.isPending) return <Spinner label="Loading the baseline setup…" />;
   if (q.error)
@@ -47,8 +48,19 @@ export function SetupSheet({ slug }: { slug: string }) {
           </Link>
         </div>
       </div>
-      <ComputedValues computed={computed} />
+      <section aria-labelledby="setup-figures-title">
+        <h3 id="setup-figures-title" className="mb-2 text-sm font-semibold text-ink-soft">
+          What these settings give
+        </h3>
+        <ComputedValues computed={computed} />
+      </section>
       <CautionList cautions={computed.cautions} />
+      <section aria-labelledby="setup-settings-title" data-testid="baseline-settings">
+        <h3 id="setup-settings-title" className="mb-2 text-sm font-semibold text-ink-soft">
+          The settings
+        </h3>
+        <RecordTable record={record} names={names} />
+      </section>
     </Card>
   );
 }
