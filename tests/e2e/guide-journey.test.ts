@@ -98,6 +98,12 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await owen.goto(`${suite.server.baseUrl}/review`);
     await owen.getByRole('link', { name: TITLE }).click();
     await owen.getByText('Re-layout: firmer drag brake').waitFor();
+    // The body change first as readers will see it: the changed paragraph drawn, removed and added.
+    const rendered = owen.getByTestId('rendered-body-diff');
+    await expect.poll(() => rendered.locator('[data-diff="added"]').allInnerTexts()).toEqual(expect.arrayContaining([expect.stringContaining('firmer')]));
+    await expect.poll(() => rendered.locator('[data-diff="removed"]').allInnerTexts()).toEqual(expect.arrayContaining([expect.stringContaining('light')]));
+    // Then word by word in the Markdown.
+    await owen.getByRole('button', { name: 'Raw Markdown' }).click();
     await expect.poll(() => owen.locator('ins').allTextContents()).toEqual(expect.arrayContaining([expect.stringContaining('firmer')]));
     await expect.poll(() => owen.locator('del').allTextContents()).toEqual(expect.arrayContaining([expect.stringContaining('light')]));
     await owen.getByRole('button', { name: 'Side by side' }).click();

@@ -114,6 +114,10 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await owen.goto(`${suite.server.baseUrl}${reviewLink}`);
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByText(/Checklist now matches the brake-curve example/).waitFor();
+    await expect
+      .poll(async () => (await owen.getByTestId('rendered-body-diff').locator('[data-diff="added"]').allInnerTexts()).join(' '))
+      .toMatch(/worn pin tyres/);
+    await owen.getByRole('button', { name: 'Raw Markdown' }).click();
     await expect.poll(async () => (await owen.locator('ins').allTextContents()).join(' ')).toMatch(/worn pin tyres/);
     expect(await owen.getByRole('button', { name: 'Publish' }).isEnabled()).toBe(true);
     await screenshot(owen, 'guides-review-resubmitted');

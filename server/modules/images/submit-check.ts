@@ -10,11 +10,15 @@ import { ImageEntity } from './image.entity';
 
 export type ImageProblem = { path: string; message: string; image: string };
 
+/** The content fields drawn as Markdown (titles, summaries, conditions and tags are shown as plain text). */
+const MARKDOWN_FIELDS = ['body'] as const;
+
 /** Every image in the Markdown fields of a revision's content, as the renderers will see them. */
 export function imagesInContent(content: Record<string, unknown>) {
   const found: Array<{ field: string; alt: string; url: string | null }> = [];
   const parser = unified().use(remarkParse).use(remarkGfm);
-  for (const [field, value] of Object.entries(content)) {
+  for (const field of MARKDOWN_FIELDS) {
+    const value = content[field];
     if (typeof value !== 'string' || !value.includes('![')) continue;
     const tree = parser.parse(value) as Root;
     visit(tree, (node) => {

@@ -57,9 +57,12 @@ function settle(attempt: () => boolean) {
 }
 
 function restoreTo(y: number) {
+  // Reaching y once is not enough: a card or list above may still be growing to the height it had when the
+  // reader left (the browser's scroll anchoring would then carry them past their place). Hold y until the
+  // page settles or the reader scrolls.
   settle(() => {
-    window.scrollTo(0, y);
-    return Math.abs(window.scrollY - y) < 2;
+    if (Math.abs(window.scrollY - y) >= 1) window.scrollTo(0, y);
+    return false;
   });
 }
 
@@ -70,11 +73,12 @@ function toAnchor(hash: string) {
   } catch {
     // keep it as typed
   }
+  // Cards and images above the section keep arriving after it first exists, so keep it in place until the
+  // page settles (or the reader takes over), not only once.
   settle(() => {
     const el = document.getElementById(id);
-    if (!el) return false;
-    el.scrollIntoView();
-    return true;
+    if (el) el.scrollIntoView();
+    return false;
   });
 }
 
@@ -120,10 +124,11 @@ export function PageScroll() {
     if (!before) {
       window.history.scrollRestoration = 'manual';
       // A page the server drew has been on screen, and perhaps scrolled, before the app took it over: stay there.
+      // (An address with an anchor is taken to its section again: the app's page may lay out differently.)
+      if (location.hash) return toAnchor(location.hash);
       const serverDrawn = document.getElementById('tw-initial-data') !== null && window.scrollY > 0;
       if (serverDrawn) return;
       if (saved !== undefined) restoreTo(saved);
-      else if (location.hash) toAnchor(location.hash);
       return;
     }
     if (before.key === location.key) return;

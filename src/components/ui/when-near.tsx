@@ -8,6 +8,7 @@ type Props = {
   margin?: string;
 };
 
+const FIELDS = 'input:not([disabled]), select:not([disabled]), textarea:not([disabled])';
 const FOCUSABLE = 'input:not([disabled]), select:not([disabled]), textarea:not([disabled]), button:not([disabled]), a[href]';
 
 /**
@@ -40,7 +41,9 @@ export function WhenNear({ children, placeholder, margin = '600px 0px' }: Props)
     if (!near || !focusArrived || !content.current) return;
     const box = content.current;
     const handOver = () => {
-      const target = [...box.querySelectorAll<HTMLElement>(FOCUSABLE)].find((el) => !el.closest('[data-example-placeholder]'));
+      // The first input the reader can change (the placeholder promised the inputs), else the first control at all.
+      const inBox = (selector: string) => [...box.querySelectorAll<HTMLElement>(selector)].find((el) => !el.closest('[data-example-placeholder]'));
+      const target = inBox(FIELDS) ?? inBox(FOCUSABLE);
       if (!target) return false;
       const current = document.activeElement;
       if (!current || current === document.body || box.contains(current)) target.focus();
@@ -54,7 +57,14 @@ export function WhenNear({ children, placeholder, margin = '600px 0px' }: Props)
 
   if (near)
     return (
-      <div ref={content} className="contents">
+      <div
+        ref={content}
+        className="contents"
+        // The content's own loading fallback can be the placeholder again (code still downloading): focus there counts too.
+        onFocus={(e) => {
+          if ((e.target as HTMLElement).closest('[data-example-placeholder]')) setFocusArrived(true);
+        }}
+      >
         {children}
       </div>
     );

@@ -47,7 +47,7 @@ function toolbar(onInsertExample?: (at: number) => void, onHelp?: () => void): I
   const help: ICommand = {
     name: 'help',
     keyCommand: 'help',
-    buttonProps: { 'aria-label': 'Help with the body', title: 'Help with the body' },
+    buttonProps: { 'aria-label': 'Writing help', title: 'Writing help' },
     icon: icon('Help'),
     execute: () => onHelp?.(),
   };
