@@ -61,6 +61,8 @@ describe('the compiled server (dist-server/)', () => {
     app = await startAppProcess(env, { compiledEntry: path.join(outdir, 'index.js'), readyTimeoutMs: 60_000 });
     const health = await fetch(`${app.baseUrl}/api/health`);
     expect(health.status).toBe(200);
+    // The change listener is up too (the read cache and the search index depend on it).
+    expect(((await health.json()) as { data: { db: string; changes: string } }).data).toMatchObject({ db: 'ok', changes: 'ok' });
     // The library the built prepare step seeded, through the API and as a page drawn by the built server.
     const list = (await (await fetch(`${app.baseUrl}/api/parameters`)).json()) as { data: Array<{ slug: string; name: string }> };
     expect(list.data.length).toBeGreaterThan(10);
