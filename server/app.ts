@@ -13,7 +13,7 @@ import { routeTable } from './routes';
 import { buildOpenApi } from './lib/openapi';
 import { renderApiDocs } from './lib/api-docs';
 import { loadShell } from './lib/html-shell';
-import { guidePageHandler, parameterPageHandler } from './modules/pages/handler';
+import { guidePageHandler, listPageHandlers, parameterPageHandler } from './modules/pages/handler';
 import { assertServeable } from './config/env';
 import { compressAnswers, staticBuild } from './middleware/compress';
 import { requestLog } from './middleware/request-log';
@@ -131,6 +131,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
       const shell = loadShell(distDir);
       app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
       app.get('/parameters/:slug', parameterPageHandler(ctx, shell));
+      for (const [route, handler] of Object.entries(listPageHandlers(ctx, shell))) app.get(route, handler);
       app.get('/{*splat}', (_req, res) => {
         res.setHeader('Cache-Control', 'no-cache');
         res.type('html').send(shell.plain);

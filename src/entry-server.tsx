@@ -6,13 +6,17 @@ import { Route, Routes, StaticRouter } from 'react-router-dom';
 import { seedInitialData, type InitialData } from './app/initial-data';
 import './app/nav-extras-setup';
 import { GuidePage } from './app/routes/guide';
-import { ParameterPage } from './app/routes/parameters';
+import { GuidesPage } from './app/routes/guides';
+import { HomePage } from './app/routes/home';
+import { ParameterPage, ParametersPage } from './app/routes/parameters';
+import { SearchPage } from './app/routes/search';
 import { AppLayout } from './components/layout/app-layout';
 import { createQueryClient } from './lib/query-client';
 
 export { INITIAL_DATA_ID, type InitialData } from './app/initial-data';
-export type { GuideDetail, ReadableGuideRevision } from './features/guides/api/guides';
+export { guideFiltersFrom, type GuideDetail, type GuideFilters, type GuideSummary, type ReadableGuideRevision } from './features/guides/api/guides';
 export type { ParameterPageData } from './features/parameters/api/parameters';
+export { RESULTS_PAGE_SIZE, searchParamsFrom, type SearchPage, type SearchParams } from './features/search/api/search';
 
 /** The app's own layout and page components, drawn to HTML from the reads the browser would make. */
 function drawApp(url: string, data: InitialData, pages: ReactNode): string {
@@ -44,4 +48,24 @@ export function drawGuidePage(url: string, data: InitialData): string {
 /** A parameter entry's page (`/parameters/:slug`) as the browser's first render draws it. */
 export function drawParameterPage(url: string, data: InitialData): string {
   return drawApp(url, data, <Route path="/parameters/:slug" element={<ParameterPage />} />);
+}
+
+/** The home page (`/`). */
+export function drawHomePage(url: string, data: InitialData): string {
+  return drawApp(url, data, <Route index element={<HomePage />} />);
+}
+
+/** The parameter library (`/parameters`). */
+export function drawParametersPage(url: string, data: InitialData): string {
+  return drawApp(url, data, <Route path="/parameters" element={<ParametersPage />} />);
+}
+
+/** The guides list (`/guides`, its filters in the query). */
+export function drawGuidesPage(url: string, data: InitialData): string {
+  return drawApp(url, data, <Route path="/guides" element={<GuidesPage />} />);
+}
+
+/** The search results page (`/search?q=…`, the search in the query). */
+export function drawSearchPage(url: string, data: InitialData): string {
+  return drawApp(url, data, <Route path="/search" element={<SearchPage />} />);
 }

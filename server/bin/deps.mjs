@@ -49,6 +49,26 @@ export function ensureClientBuild(log = console.log) {
   if (r.status !== 0) throw new Error('vite build failed');
 }
 
+/**
+ * Compiles the server into dist-server/ (server/bin/build-server.mjs) when it is missing or older than its
+ * sources: everything it bundles (server/, shared/, src/ for the page drawing) and the settings it is built with.
+ */
+export async function ensureServerBuild(log = console.log) {
+  const built = path.join(root, 'dist-server', 'index.js');
+  const sources = ['server', 'shared', 'src', 'tsconfig.json', 'package-lock.json'];
+  const newest = Math.max(...sources.map((s) => newestMtime(path.join(root, s))));
+  if (fs.existsSync(built) && fs.statSync(built).mtimeMs >= newest) return;
+  log('Compiling the server (esbuild → dist-server/)…');
+  const { buildServer } = await import('./build-server.mjs');
+  await buildServer();
+}
+
+/** Runs a compiled entry point of dist-server/ and waits for it. */
+export function runBuilt(name, env = process.env, args = []) {
+  const r = spawnSync(process.execPath, ['--enable-source-maps', path.join(root, 'dist-server', `${name}.js`), ...args], { cwd: root, env, stdio: 'inherit' });
+  if (r.status !== 0) throw new Error(`dist-server/${name}.js exited with ${r.status}`);
+}
+
 /** Runs a TypeScript entry point with tsx and waits for it. */
 export function runTs(entry, env = process.env, args = []) {
   const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(root, entry), ...args], { cwd: root, env, stdio: 'inherit' });

@@ -2,7 +2,7 @@
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { root, ensureDependencies, ensureClientBuild, runTs } from './deps.mjs';
+import { root, ensureDependencies, ensureClientBuild, ensureServerBuild, runBuilt } from './deps.mjs';
 import { ensurePostgresInstalled, startCluster, ensureDatabase, freePort, clusterDir } from './postgres.mjs';
 
 const log = (msg) => console.log(`[tunewright] ${msg}`);
@@ -38,8 +38,10 @@ function stopAll(code = 0) {
 process.on('SIGINT', () => stopAll(0));
 process.on('SIGTERM', () => stopAll(0));
 
-function spawnTs(entry, env, name) {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, entry)], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
+/** A child process: a compiled entry of dist-server/ (`{ built: 'index' }`) or a TypeScript file run through tsx (`{ ts: 'server/…' }`). */
+function spawnChild(entry, env, name) {
+  const args = entry.built ? ['--enable-source-maps', path.join(root, 'dist-server', `${entry.built}.js`)] : ['--import', 'tsx', path.join(root, entry.ts)];
+  const child = spawn(process.execPath, args, { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
   child.on('exit', (code, signal) => {
     if (!stopping) {
       log(`${name} exited (${signal ?? code}); shutting down.`);
@@ -74,14 +76,17 @@ async function main() {
     });
     log(`PostgreSQL running on 127.0.0.1:${cluster.port} (${dir}).`);
   }
-  runTs('server/db/prepare.ts', { ...env, SEED_DEMO: production ? 'false' : 'true' });
+  // The server runs compiled (dist-server/, rebuilt when its sources changed), in production and in the local demo alike.
+  await ensureServerBuild(log);
+  runBuilt('prepare', { ...env, SEED_DEMO: production ? 'false' : 'true' });
   ensureClientBuild(log);
   if (!production) {
-    const catcher = spawnTs('server/bin/mail-catcher.ts', env, 'mail catcher');
+    // The demo's mail catcher is a development helper: it stays TypeScript, run through tsx.
+    const catcher = spawnChild({ ts: 'server/bin/mail-catcher.ts' }, env, 'mail catcher');
     await new Promise((r) => setTimeout(r, 300));
     if (catcher.exitCode !== null) throw new Error('mail catcher failed to start');
   }
-  spawnTs('server/index.ts', { ...env, TW_STARTED_AT: String(started) }, 'app');
+  spawnChild({ built: 'index' }, { ...env, TW_STARTED_AT: String(started) }, 'app');
 }
 
 main().catch((err) => {

@@ -1,10 +1,10 @@
 import { z } from 'zod';
 import { CLASS_SLUGS, LIMITS, SURFACE_SLUGS } from '../constants';
 
-export const SEARCH_TYPES = ['parameter', 'guide', 'setup'] as const;
-/** The deepest a results page may start (far past what a reader pages through). */
-export const SEARCH_MAX_OFFSET = 10_000;
-export type SearchType = (typeof SEARCH_TYPES)[number];
+import { SEARCH_MAX_OFFSET, SEARCH_TYPES } from '../search';
+
+// Re-exported from the zod-free module the browser's search page imports (zod stays off that page's path).
+export { SEARCH_MAX_OFFSET, SEARCH_TYPES, snippetSegments, type SearchType } from '../search';
 
 /** Query of GET /api/search. */
 export const searchQuerySchema = z.object({
@@ -79,17 +79,3 @@ export type SearchMeta = z.infer<typeof searchMetaSchema>;
 
 export const searchSuggestionSchema = z.object({ type: z.enum(SEARCH_TYPES), slug: z.string(), title: z.string(), url: z.string() });
 export type SearchSuggestion = z.infer<typeof searchSuggestionSchema>;
-
-/** Splits a snippet into plain-text segments, marking the highlighted ones (for rendering as text nodes). */
-export function snippetSegments(snippet: string): Array<{ text: string; hit: boolean }> {
-  const out: Array<{ text: string; hit: boolean }> = [];
-  const re = /<mark>(.*?)<\/mark>/gs;
-  let last = 0;
-  for (const m of snippet.matchAll(re)) {
-    if (m.index > last) out.push({ text: snippet.slice(last, m.index), hit: false });
-    out.push({ text: m[1], hit: true });
-    last = m.index + m[0].length;
-  }
-  if (last < snippet.length) out.push({ text: snippet.slice(last), hit: false });
-  return out;
-}

@@ -2,20 +2,28 @@ import type { QueryClient } from '@tanstack/react-query';
 import type { ParameterSummary } from '@shared/schemas/parameter';
 import type { User } from '@shared/schemas/user';
 import { authQueries } from '@/features/auth/api/auth';
-import { guideQueries, type GuideDetail, type ReadableGuideRevision } from '@/features/guides/api/guides';
+import { guideQueries, type GuideDetail, type GuideFilters, type GuideSummary, type ReadableGuideRevision } from '@/features/guides/api/guides';
 import { parameterQueries, type ParameterPageData } from '@/features/parameters/api/parameters';
+import { searchQueries, type SearchPage, type SearchParams } from '@/features/search/api/search';
 
 /** The id of the JSON block the server puts in a pre-rendered page (main.tsx looks for it by name too). */
 export const INITIAL_DATA_ID = 'tw-initial-data';
 
 /**
- * What the server sends with a pre-rendered page (a guide or a parameter entry): the reads the page's
- * first render needs, so the browser draws the same page without asking for them again.
+ * What the server sends with a pre-rendered page (home, a guide, a parameter entry, the library, the
+ * guides list, search results): the reads the page's first render needs, so the browser draws the same
+ * page without asking for them again.
  */
 export type InitialData = {
   me: User | null;
   guide?: { slug: string; detail: GuideDetail; version?: { number: number; revision: ReadableGuideRevision }; parameters: ParameterSummary[] };
   parameter?: { slug: string; detail: ParameterPageData };
+  /** The parameter library (/parameters). */
+  library?: ParameterSummary[];
+  /** The guides list (/guides), for these filters, with the settings its filter offers. */
+  guides?: { filters: GuideFilters; list: GuideSummary[]; parameters: ParameterSummary[] };
+  /** The first page of results of a search (/search?q=…). */
+  search?: { params: SearchParams; page: SearchPage };
 };
 
 /** Puts the server's reads into the query cache under the keys the pages use (server and browser alike). */
@@ -29,6 +37,12 @@ export function seedInitialData(qc: QueryClient, data: InitialData) {
     if (g.version) qc.setQueryData(guideQueries.revision(g.slug, g.version.number).queryKey, { revision: g.version.revision });
   }
   if (data.parameter) qc.setQueryData(parameterQueries.detail(data.parameter.slug).queryKey, data.parameter.detail);
+  if (data.library) qc.setQueryData(parameterQueries.list().queryKey, data.library);
+  if (data.guides) {
+    qc.setQueryData(guideQueries.list(data.guides.filters).queryKey, data.guides.list);
+    qc.setQueryData(guideQueries.parameterOptions().queryKey, data.guides.parameters);
+  }
+  if (data.search) qc.setQueryData(searchQueries.page(data.search.params).queryKey, { pages: [data.search.page], pageParams: [0] });
 }
 
 /** The JSON block of a pre-rendered page, if this page is one. */

@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshot, watchPageErrors } from '../setup/browser';
+import { screenshot, waitForApp, watchPageErrors } from '../setup/browser';
 import { createUser } from '../factories/user';
 import { browserSuite } from '../setup/browser-suite';
 import { buildRunCsv, uploadRun } from '../factories/run';
@@ -155,6 +155,9 @@ describe('run log journey in Chromium', () => {
     const reader = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
     const readerPage = await reader.newPage();
     await readerPage.goto(`${suite.server.baseUrl}/guides/${slug}`);
+    // The card's chart code is fetched only when the reader comes near it (below the body, before the history).
+    await waitForApp(readerPage);
+    await readerPage.locator('#history').scrollIntoViewIfNeeded();
     const card = readerPage.getByTestId('guide-evidence');
     await card.getByRole('link', { name: 'Heat 1, 32-tooth pinion' }).waitFor();
     await card.locator('canvas').first().waitFor();

@@ -93,9 +93,37 @@ describe('compression negotiated per request (RFC 9110 §12.5.3)', () => {
   });
 });
 
+describe("visitors' cached pages", () => {
+  it('are sent from their stored brotli and gzip forms (a fixed length, no per-request compression), same page, same ETag', async () => {
+    const plain = await rawGet('/parameters', {});
+    expect(plain.status).toBe(200);
+    const html = plain.body.toString('utf8');
+    expect(html).toContain('<h1');
+    // The stored forms are made in the background after the first drawing; then every answer is the same bytes.
+    await expect.poll(async () => (await rawGet('/parameters', { 'Accept-Encoding': 'br' })).headers['content-length'], { timeout: 10_000 }).toBeTruthy();
+    const br = await rawGet('/parameters', { 'Accept-Encoding': 'gzip, br' });
+    expect(br.headers['content-encoding']).toBe('br');
+    expect(br.headers['vary']).toMatch(/Accept-Encoding/i);
+    expect(br.headers['content-type']).toMatch(/html/);
+    expect(Number(br.headers['content-length'])).toBe(br.body.length);
+    expect(zlib.brotliDecompressSync(br.body).toString('utf8')).toBe(html);
+    expect((await rawGet('/parameters', { 'Accept-Encoding': 'br' })).body.equals(br.body)).toBe(true);
+    await expect.poll(async () => (await rawGet('/parameters', { 'Accept-Encoding': 'gzip' })).headers['content-length'], { timeout: 10_000 }).toBeTruthy();
+    const gz = await rawGet('/parameters', { 'Accept-Encoding': 'gzip' });
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(zlib.gunzipSync(gz.body).toString('utf8')).toBe(html);
+    const none = await rawGet('/parameters', { 'Accept-Encoding': 'identity' });
+    expect(none.headers['content-encoding']).toBeUndefined();
+    expect(none.body.toString('utf8')).toBe(html);
+    expect(new Set([plain.headers.etag, br.headers.etag, gz.headers.etag, none.headers.etag]).size).toBe(1);
+    const again = await rawGet('/parameters', { 'Accept-Encoding': 'br', 'If-None-Match': br.headers.etag! });
+    expect(again.status).toBe(304);
+  });
+});
+
 describe('conditional requests', () => {
   it('answers 304 Not Modified to a public GET whose ETag matches, and 200 once it changed', async () => {
-    for (const url of ['/api/parameters', '/parameters/drag-brake', '/api/parameters/drag-brake']) {
+    for (const url of ['/api/parameters', '/parameters/drag-brake', '/api/parameters/drag-brake', '/parameters', '/search?q=brake']) {
       const first = await rawGet(url, { 'Accept-Encoding': 'br' });
       expect(first.status, url).toBe(200);
       const etag = first.headers.etag;

@@ -20,19 +20,27 @@ const root = path.resolve(import.meta.dirname, '..', '..');
  * The real entry point (server/index.ts) in a child process on a loopback port, as `npm start` runs it,
  * with the given environment on top of this process's. Resolves once GET /api/health answers.
  */
-export async function startAppProcess(env: Record<string, string>, opts: { port?: number; readyTimeoutMs?: number } = {}): Promise<AppProcess> {
+export async function startAppProcess(
+  env: Record<string, string>,
+  opts: {
+    port?: number;
+    readyTimeoutMs?: number;
+    /** A compiled entry (dist-server/index.js) to run instead of the TypeScript one. */ compiledEntry?: string;
+  } = {},
+): Promise<AppProcess> {
   // freePort() only finds a port free for now; another test file's process can take it first. Then pick again.
   for (let attempt = 0; ; attempt++) {
     try {
-      return await startOnce(env, opts.port ?? (await freePort()), opts.readyTimeoutMs);
+      return await startOnce(env, opts.port ?? (await freePort()), opts.readyTimeoutMs, opts.compiledEntry);
     } catch (err) {
       if (opts.port !== undefined || attempt >= 3 || !/EADDRINUSE/.test((err as Error).message)) throw err;
     }
   }
 }
 
-async function startOnce(env: Record<string, string>, port: number, readyTimeoutMs?: number): Promise<AppProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server', 'index.ts')], {
+async function startOnce(env: Record<string, string>, port: number, readyTimeoutMs?: number, compiledEntry?: string): Promise<AppProcess> {
+  const args = compiledEntry ? ['--enable-source-maps', compiledEntry] : ['--import', 'tsx', path.join(root, 'server', 'index.ts')];
+  const child = spawn(process.execPath, args, {
     cwd: root,
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), ...(env.NODE_ENV === 'production' ? { DEV_TOOLS: 'false' } : {}), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -2,12 +2,31 @@ import { z } from 'zod';
 import { guideDetailSchema } from '../../../shared/schemas/reading';
 import { CLASSES, SURFACES } from '../../../shared/constants';
 import { slugSchema } from '../../../shared/schemas/common';
-import { createGuideSchema, guideListQuerySchema, guideSummarySchema, taxonomySchema } from '../../../shared/schemas/guide';
+import { createGuideSchema, guideListQuerySchema, guideSummarySchema, taxonomySchema, type GuideListQuery } from '../../../shared/schemas/guide';
+import type { AppContext } from '../../context';
 import { revisionSchema } from '../../../shared/schemas/revision';
 import { defineRoute } from '../../lib/route';
 import { presentGuideRecord, presentGuideSummary, presentReadableRevision, presentRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
 import { isModerator } from '../revisions/policy';
+import { publishedCache } from '../revisions/read-cache';
+
+const DEFAULT_LIST: GuideListQuery = guideListQuerySchema.parse({});
+const isDefaultList = (q: GuideListQuery) =>
+  !q.class && !q.surface && !q.parameter && !q.tag && !q.q && q.page === DEFAULT_LIST.page && q.pageSize === DEFAULT_LIST.pageSize;
+
+/**
+ * Live guides as GET /api/guides answers them (the server-drawn list sends the same). The unfiltered
+ * first page, what nearly every reader asks for, is kept until any document changes; filtered lists are
+ * read each time (their combinations are many and each is rarely asked twice).
+ */
+export async function liveGuideList(ctx: AppContext, query: GuideListQuery) {
+  const load = async () => {
+    const { views, total } = await revisionService(ctx).listLiveGuides(query);
+    return { list: views.map(presentGuideSummary), total };
+  };
+  return isDefaultList(query) ? ((await publishedCache(ctx).readAcross('guide-list', load)) ?? (await load())) : load();
+}
 
 export const guideRoutes = [
   defineRoute({
@@ -30,8 +49,8 @@ export const guideRoutes = [
     query: guideListQuerySchema,
     response: z.array(guideSummarySchema),
     handler: async ({ query, ctx }) => {
-      const { views, total } = await revisionService(ctx).listLiveGuides(query);
-      return { data: views.map(presentGuideSummary), meta: { total, page: query.page, pageSize: query.pageSize } };
+      const { list, total } = await liveGuideList(ctx, query);
+      return { data: list, meta: { total, page: query.page, pageSize: query.pageSize } };
     },
   }),
   defineRoute({

@@ -7,7 +7,7 @@ import { liveParameterSummaries } from '../parameters/routes';
 import { isModerator } from '../revisions/policy';
 import { presentGuideRecord, presentReadableRevision } from '../revisions/presenter';
 import { revisionService } from '../revisions/service';
-import { anonymousPages } from './anonymous-pages';
+import { anonymousPages, type DrawnPage } from './anonymous-pages';
 
 // Visitors all get the same page for a live guide, so it is kept until the guide (or the library) changes.
 const anonymous = anonymousPages();
@@ -25,7 +25,7 @@ export async function guidePageHtml(
   slug: string,
   number: number | null,
   url: string,
-): Promise<string | null> {
+): Promise<DrawnPage | null> {
   const revisions = revisionService(ctx);
   let detail: GuideDetail;
   let version: { number: number; revision: ReadableGuideRevision } | undefined;
@@ -56,6 +56,5 @@ export async function guidePageHtml(
     description: shown.content.summary,
     preload: ['src/app/routes/guide.tsx'],
   });
-  if (cacheable) anonymous.set(url, [detail, parameters], html);
-  return html;
+  return cacheable ? anonymous.set(url, [detail, parameters], html) : { html };
 }

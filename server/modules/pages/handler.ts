@@ -3,13 +3,36 @@ import { slugSchema } from '../../../shared/schemas/common';
 import type { User } from '../../../shared/schemas/user';
 import type { AppContext } from '../../context';
 import type { Shell } from '../../lib/html-shell';
+import type { DrawnPage } from './anonymous-pages';
 import { guidePageHtml } from './guide-page';
+import { guidesPageHtml, homePageHtml, parametersPageHtml, searchPageHtml } from './list-pages';
 import { parameterPageHtml } from './parameter-page';
 
 /** Paths under /guides/ that are other pages, not guide slugs. */
 const NOT_GUIDES = new Set(['new']);
 
-type Draw = (user: User | null, url: string) => Promise<string | null>;
+/** A drawn page; null for "not found" (404, plain shell); 'plain' for a page the browser draws itself (200, plain shell). */
+type Drawn = DrawnPage | null | 'plain';
+type Draw = (user: User | null, url: string) => Promise<Drawn> | Drawn;
+
+/**
+ * A page with its compressed forms ready (a visitor's cached page) goes out as the form the browser
+ * accepts (brotli first), with the ETag of the plain page, so no per-request compression is spent on it;
+ * anything else is compressed per request by the compression middleware.
+ */
+function sendPage(req: Request, res: Response, page: DrawnPage) {
+  res.type('html');
+  if (!page.br && !page.gzip) return void res.send(page.html);
+  const etagOf = req.app.get('etag fn') as ((body: string, encoding: string) => string) | undefined;
+  if (etagOf) res.setHeader('ETag', etagOf(page.html, 'utf8'));
+  res.vary('Accept-Encoding');
+  // Ours first (brotli is smaller), whatever order the browser lists them in ("gzip, deflate, br, zstd").
+  const chosen = (['br', 'gzip'] as const).find((e) => page[e] && req.acceptsEncodings(e) === e);
+  const body = chosen && page[chosen];
+  if (!chosen || !body) return void res.send(page.html);
+  res.setHeader('Content-Encoding', chosen);
+  res.send(body);
+}
 
 /**
  * Sends a page already drawn, with its data, so a reader sees it at first paint. Anything it cannot
@@ -20,9 +43,10 @@ async function sendDrawn(ctx: AppContext, shell: Shell, req: Request, res: Respo
   res.setHeader('Cache-Control', 'no-cache, private');
   res.setHeader('Vary', 'Cookie');
   try {
-    const html = await draw((req.user as User | undefined) ?? null, req.originalUrl);
-    if (html === null) return void res.status(404).type('html').send(shell.plain);
-    res.type('html').send(html);
+    const page = await draw((req.user as User | undefined) ?? null, req.originalUrl);
+    if (page === null) return void res.status(404).type('html').send(shell.plain);
+    if (page === 'plain') return void res.type('html').send(shell.plain);
+    sendPage(req, res, page);
   } catch (err) {
     ctx.logger.warn({ err, path: req.path }, 'page could not be drawn on the server; sending the plain shell');
     res.type('html').send(shell.plain);
@@ -45,5 +69,19 @@ export function parameterPageHandler(ctx: AppContext, shell: Shell): RequestHand
     const slug = slugSchema.safeParse(req.params.slug);
     if (!slug.success) return next();
     return sendDrawn(ctx, shell, req, res, (user, url) => parameterPageHtml(ctx, shell, user, slug.data, url));
+  };
+}
+
+/** The home page, the parameter library, the guides list and search results. */
+export function listPageHandlers(ctx: AppContext, shell: Shell): Record<'/' | '/parameters' | '/guides' | '/search', RequestHandler> {
+  const handle =
+    (draw: (user: User | null, url: string) => ReturnType<Draw>): RequestHandler =>
+    (req, res) =>
+      sendDrawn(ctx, shell, req, res, draw);
+  return {
+    '/': handle((user, url) => homePageHtml(ctx, shell, user, url)),
+    '/parameters': handle((user, url) => parametersPageHtml(ctx, shell, user, url)),
+    '/guides': handle(async (user, url) => (await guidesPageHtml(ctx, shell, user, url)) ?? 'plain'),
+    '/search': handle((user, url) => searchPageHtml(ctx, shell, user, url) ?? 'plain'),
   };
 }

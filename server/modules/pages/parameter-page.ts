@@ -4,7 +4,7 @@ import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';
 import { liveParameterDetail } from '../parameters/routes';
-import { anonymousPages } from './anonymous-pages';
+import { anonymousPages, type DrawnPage } from './anonymous-pages';
 
 const anonymous = anonymousPages();
 
@@ -12,7 +12,7 @@ const anonymous = anonymousPages();
  * A parameter entry's page (/parameters/:slug) as the browser's first render will draw it, with the
  * entry as data; null when the library has no live entry by that name.
  */
-export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: User | null, slug: string, url: string): Promise<string | null> {
+export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: User | null, slug: string, url: string): Promise<DrawnPage | null> {
   let detail: ParameterPageData | null;
   try {
     detail = await liveParameterDetail(ctx, slug);
@@ -33,6 +33,5 @@ export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: Use
     description: detail.parameter.summary,
     preload: ['src/app/routes/parameters.tsx'],
   });
-  if (cacheable) anonymous.set(url, [detail], html);
-  return html;
+  return cacheable ? anonymous.set(url, [detail], html) : { html };
 }

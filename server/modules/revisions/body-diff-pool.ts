@@ -32,8 +32,12 @@ function failAll() {
 
 function getWorker(): Worker {
   if (worker) return worker;
-  // The worker is TypeScript like the rest of the server: load it through tsx whatever the parent was started with.
-  const w = new Worker(new URL('./body-diff-worker.ts', import.meta.url), { execArgv: ['--import', 'tsx'] });
+  // Run from TypeScript (tests, `npm run dev`) the worker is loaded through tsx whatever the parent was started
+  // with; in the compiled server (dist-server/, see server/bin/build-server.mjs) it is the built file beside this one.
+  const compiled = !import.meta.url.endsWith('.ts');
+  const w = compiled
+    ? new Worker(new URL('./body-diff-worker.js', import.meta.url))
+    : new Worker(new URL('./body-diff-worker.ts', import.meta.url), { execArgv: ['--import', 'tsx'] });
   w.unref();
   w.on('message', (msg: { id: number; ok: boolean; result?: BodyDiff }) => {
     const p = pending.get(msg.id);

@@ -1,6 +1,30 @@
 import { z } from 'zod';
-import { searchQuerySchema, searchResponseSchema, searchSuggestionSchema, suggestQuerySchema, type SearchMeta } from '../../../shared/schemas/search';
+import {
+  searchQuerySchema,
+  searchResponseSchema,
+  searchSuggestionSchema,
+  suggestQuerySchema,
+  type SearchMeta,
+  type SearchQuery,
+  type SearchResponse,
+} from '../../../shared/schemas/search';
+import type { AppContext } from '../../context';
 import { defineRoute } from '../../lib/route';
+
+/** One page of results as GET /api/search answers it (the server-drawn results page sends the same). */
+export function searchAnswer(ctx: Pick<AppContext, 'search'>, query: SearchQuery): { data: SearchResponse; meta: SearchMeta } {
+  const { q, limit, offset, ...filters } = query;
+  const r = ctx.search.search(q, filters, limit, offset);
+  return {
+    data: {
+      hits: r.hits,
+      facets: r.facets,
+      ...(r.didYouMean ? { didYouMean: r.didYouMean } : {}),
+      ...(r.searchedFor ? { searchedFor: r.searchedFor } : {}),
+    },
+    meta: { total: r.total, offset, limit, tookMs: r.tookMs },
+  };
+}
 
 export const searchRoutes = [
   defineRoute({
@@ -11,20 +35,7 @@ export const searchRoutes = [
     access: 'public',
     query: searchQuerySchema,
     response: searchResponseSchema,
-    handler: ({ query, ctx }) => {
-      const { q, limit, offset, ...filters } = query;
-      const r = ctx.search.search(q, filters, limit, offset);
-      const meta: SearchMeta = { total: r.total, offset, limit, tookMs: r.tookMs };
-      return {
-        data: {
-          hits: r.hits,
-          facets: r.facets,
-          ...(r.didYouMean ? { didYouMean: r.didYouMean } : {}),
-          ...(r.searchedFor ? { searchedFor: r.searchedFor } : {}),
-        },
-        meta,
-      };
-    },
+    handler: ({ query, ctx }) => searchAnswer(ctx, query),
   }),
   defineRoute({
     method: 'get',

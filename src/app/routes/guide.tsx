@@ -4,6 +4,7 @@ import { Link, useParams } from 'react-router-dom';
 import { hasRole } from '@shared/constants';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { WhenNear } from '@/components/ui/when-near';
 import { ApiError } from '@/lib/api-client';
 import { useCurrentUser } from '@/features/auth/api/auth';
 import { guideQueries } from '@/features/guides/api/guides';
@@ -115,15 +116,18 @@ export function GuidePage() {
 }
 
 // The evidence card (uPlot and its stylesheet) loads only in the browser, after the page is up: the server's
-// page drawing imports this module and must never load chart code or CSS.
+// page drawing imports this module and must never load chart code or CSS. It sits below the guide's body, so
+// its code is fetched only when the reader scrolls near it, not with the page.
 const GuideEvidence = lazy(() => import('@/features/runs/components/evidence').then((m) => ({ default: m.GuideEvidence })));
 function LazyGuideEvidence({ slug }: { slug: string }) {
   const [mounted, setMounted] = useState(false);
   useEffect(() => setMounted(true), []);
   if (!mounted) return null;
   return (
-    <Suspense fallback={null}>
-      <GuideEvidence slug={slug} />
-    </Suspense>
+    <WhenNear placeholder={null}>
+      <Suspense fallback={null}>
+        <GuideEvidence slug={slug} />
+      </Suspense>
+    </WhenNear>
   );
 }

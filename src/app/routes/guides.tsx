@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { Link } from 'react-router-dom';
 import { PageHeader } from '@/components/ui/card';
 import { useCurrentUser } from '@/features/auth/api/auth';
@@ -7,6 +8,9 @@ import { GuideList } from '@/features/guides/components/guide-list';
 export function GuidesPage() {
   const [filters] = useGuideFilters();
   const me = useCurrentUser().data;
+  useEffect(() => {
+    document.title = 'Guides · Tunewright';
+  }, []);
   return (
     <>
       <PageHeader

@@ -92,6 +92,7 @@ describe('GET /api/guides', () => {
       surface: 'asphalt',
       parameters: ['throttle-punch', 'current-limit'],
       summary: 'Launch control for a short asphalt strip.',
+      tags: ['launch', '17.5T'],
     });
     const draft = await createDraftGuide(author, { title: 'Drag car draft never published', class: 'drag', surface: 'asphalt' });
 
@@ -114,6 +115,13 @@ describe('GET /api/guides', () => {
     expect(await bySlugs('q=LONG%20STRAIGHTS')).toEqual([a.slug]);
     expect(await bySlugs('q=short%20asphalt')).toEqual([b.slug]);
     expect(await bySlugs('q=100%25')).toEqual([]);
+    // A tag matches as written on the guide, whole (not a part of another tag, not another case).
+    expect(await bySlugs('tag=17.5T')).toEqual([b.slug]);
+    expect(await bySlugs('tag=17.5')).toEqual([]);
+    expect(await bySlugs('tag=LAUNCH')).toEqual([]);
+    // The unfiltered first page is kept between changes; a tag filter must not be answered from it.
+    expect((await bySlugs('')).length).toBeGreaterThan(1);
+    expect(await bySlugs('tag=launch')).toEqual([b.slug]);
     expect((await visitor.get('/api/guides?class=monster')).status).toBe(400);
   });
 });

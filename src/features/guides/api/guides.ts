@@ -17,6 +17,19 @@ export type HistoryItem = RevisionHistoryItem;
 
 export type GuideFilters = { class?: string; surface?: string; parameter?: string; tag?: string; q?: string };
 
+/** The guides list's filters in its URL (`?class=…&surface=…&parameter=…&tag=…`). */
+export const GUIDE_FILTER_KEYS = ['class', 'surface', 'parameter', 'tag'] as const;
+
+/** The filters a guides list URL asks for; the page in the browser and the page the server draws read them alike. */
+export function guideFiltersFrom(params: URLSearchParams): GuideFilters {
+  const filters: GuideFilters = {};
+  for (const k of GUIDE_FILTER_KEYS) {
+    const v = params.get(k);
+    if (v) filters[k] = v;
+  }
+  return filters;
+}
+
 const fallbackTaxonomy: Taxonomy = { classes: CLASSES.map((c) => ({ ...c })), surfaces: SURFACES.map((s) => ({ ...s })) };
 
 /** Query-option factories for guides (keys general → specific). */

@@ -1,18 +1,12 @@
 import { useQuery } from '@tanstack/react-query';
 import { useSearchParams } from 'react-router-dom';
 import { SelectField } from '@/components/ui/field';
-import { guideQueries, type GuideFilters } from '../api/guides';
-
-const KEYS = ['class', 'surface', 'parameter', 'tag'] as const;
+import { GUIDE_FILTER_KEYS as KEYS, guideFiltersFrom, guideQueries, type GuideFilters } from '../api/guides';
 
 /** The list filters, read from the URL query so a filtered list can be linked and bookmarked. */
 export function useGuideFilters(): [GuideFilters, (key: (typeof KEYS)[number], value: string) => void, () => void] {
   const [params, setParams] = useSearchParams();
-  const filters: GuideFilters = {};
-  for (const k of KEYS) {
-    const v = params.get(k);
-    if (v) filters[k] = v;
-  }
+  const filters = guideFiltersFrom(params);
   const set = (key: (typeof KEYS)[number], value: string) => {
     const next = new URLSearchParams(params);
     if (value) next.set(key, value);

@@ -1,4 +1,4 @@
-import { snippetSegments } from '@shared/schemas/search';
+import { snippetSegments } from '@shared/search';
 
 /** A result snippet with its matched words marked, rendered as text nodes (never as HTML). */
 export function HighlightedSnippet({ snippet, className = '' }: { snippet: string; className?: string }) {

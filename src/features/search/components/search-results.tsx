@@ -6,7 +6,7 @@ import type { FacetValue, SearchType } from '@shared/schemas/search';
 import { Button } from '@/components/ui/button';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
-import { searchQueries, type SearchParams } from '../api/search';
+import { RESULTS_PAGE_SIZE as PAGE, searchQueries, type SearchParams } from '../api/search';
 import { FacetList } from './facet-list';
 import { HighlightedSnippet } from './highlighted-snippet';
 import { TypeBadge } from './type-badge';
@@ -19,7 +19,6 @@ const FACETS: Array<{ key: SearchFilterKey; label: string }> = [
   { key: 'parameter', label: 'Setting discussed' },
 ];
 const STARTERS = ['drag brake', 'throttle punch', 'LVC', 'boost', 'final drive ratio', '17.5T buggy clay'];
-const PAGE = 20;
 
 type Props = {
   params: SearchParams;
@@ -32,7 +31,7 @@ export function SearchResults({ params, onChange }: Props) {
   const [draft, setDraft] = useState(params.q);
   const [filtersOpen, setFiltersOpen] = useState(false);
   useEffect(() => setDraft(params.q), [params.q]);
-  const results = useInfiniteQuery(searchQueries.results({ ...params, limit: PAGE }));
+  const results = useInfiniteQuery(searchQueries.page(params));
   // Facets, the total and the corrections come with every page and are the same on each: read the first.
   const page = results.data?.pages[0];
   const hits = results.data?.pages.flatMap((p) => p.data.hits) ?? [];
