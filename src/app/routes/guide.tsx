@@ -11,6 +11,7 @@ import { GuideArticle } from '@/features/guides/components/guide-article';
 import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
 import { SetupSheet } from '@/features/setups/components/setup-sheet';
+import { KeepForTrackButton } from '@/features/offline/components/keep-for-track';
 import { renderWorkedExample } from '../worked-example';
 
 function Missing({ error }: { error: Error }) {
@@ -57,6 +58,7 @@ export function GuidePage() {
           Propose an edit
         </Link>
       )}
+      {revision.number === liveNumber && <KeepForTrackButton slug={slug} parameters={revision.content.parameters ?? []} signedIn={!!me} />}
       {canModerate && !hidden && <HideGuideButton slug={slug} onHidden={() => setSwapped('hidden')} focusOnMount={swapped === 'shown'} />}
     </>
   );
