@@ -8,6 +8,8 @@ export type E2EServer = {
   /** http://127.0.0.1:<port>, no trailing slash. */
   baseUrl: string;
   t: TestApp;
+  /** Stops answering on the port but keeps the database (another server takes over, as in a deployment). */
+  stopListening: () => Promise<void>;
   close: () => Promise<void>;
 };
 
@@ -46,13 +48,18 @@ export async function start(opts: E2EServerOptions = {}): Promise<E2EServer> {
       server.once('error', reject);
     });
     const { port } = server.address() as AddressInfo;
+    const stopListening = async () => {
+      if (!server.listening) return;
+      // Browsers keep connections alive; drop them so close() does not wait for their timeout.
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+    };
     return {
       baseUrl: `http://127.0.0.1:${port}`,
       t,
+      stopListening,
       async close() {
-        // Browsers keep connections alive; drop them so close() does not wait for their timeout.
-        server.closeAllConnections();
-        await new Promise<void>((resolve) => server.close(() => resolve()));
+        await stopListening();
         await t.close();
       },
     };
