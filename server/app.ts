@@ -19,10 +19,11 @@ import { compressAnswers, staticBuild } from './middleware/compress';
 import { requestLog } from './middleware/request-log';
 import { oneClickUnsubscribe } from './modules/watches/routes';
 import { changesFeed } from './modules/changes/routes';
+import { PRIVATE_HEADER } from '../shared/offline';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
-const distDir = path.resolve(process.cwd(), 'dist');
+const defaultDistDir = path.resolve(process.cwd(), 'dist');
 
 /**
  * Browser features the app never uses are switched off for it and anything it might embed, so injected
@@ -60,7 +61,7 @@ export const PERMISSIONS_POLICY = [
 ].join(', ');
 
 /** Builds the Express app (middleware, module routers, 404, error handler). Does not listen. */
-export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveClient?: boolean } = {}): CreatedApp {
+export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveClient?: boolean; clientDir?: string } = {}): CreatedApp {
   assertServeable(ctx.config);
   const routes = opts.routes ?? routeTable;
   const app = express();
@@ -106,6 +107,11 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   app.use(compressAnswers());
   app.use('/api', express.json({ limit: LIMITS.jsonBodyBytes, strict: true }));
   const { pool } = installAuth(app, ctx);
+  // Marks every answer given to a session: the service worker stores those apart and drops them at sign-out.
+  app.use((req, res, next) => {
+    if (req.user) res.setHeader(PRIVATE_HEADER, '1');
+    next();
+  });
   app.use('/api', csrf.csrfSynchronisedProtection);
   app.use('/api', (_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
@@ -125,7 +131,13 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   app.get('/changes.atom', changesFeed(ctx));
 
   if (opts.serveClient ?? true) {
+    const distDir = opts.clientDir ?? defaultDistDir;
     if (fs.existsSync(path.join(distDir, 'index.html'))) {
+      // The browser checks the service worker and the manifest for a new build; never from a stale copy.
+      app.use(['/sw.js', '/manifest.webmanifest'], (_req, res, next) => {
+        res.setHeader('Cache-Control', 'no-cache');
+        next();
+      });
       app.use('/assets', staticBuild(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
       app.use(staticBuild(distDir, { index: false, maxAge: '1h' }));
       const shell = loadShell(distDir);

@@ -1,4 +1,6 @@
 import type { FieldIssue } from '@shared/schemas/common';
+import { SAVED_AT_HEADER } from '@shared/offline';
+import { noteSavedCopy } from './offline/saved-copy';
 
 /** A failed API call, parsed from the one error shape. */
 export class ApiError extends Error {
@@ -85,6 +87,8 @@ async function request<T>(method: string, path: string, opts: Options = {}, retr
     if ((err as Error).name === 'AbortError') throw err;
     throw new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection; nothing you typed has been lost.');
   }
+  // The service worker answered from its store (the network failed): the page says it shows a saved copy.
+  if (!mutating) noteSavedCopy(res.headers.get(SAVED_AT_HEADER));
   if (!res.ok) {
     const error = await parseError(res);
     if (error.code === 'csrf_invalid' && !retried) {

@@ -30,7 +30,7 @@ export type TestApp = {
 /** createApp() on its own migrated database, with a loopback mail catcher, for one test file. */
 export async function createTestApp(
   overrides: Record<string, string> = {},
-  opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase } = {},
+  opts: { catcher?: boolean; serveClient?: boolean; db?: TestDatabase; clientDir?: string } = {},
 ): Promise<TestApp> {
   // Passing `db` puts a second app instance on the same database (as behind a load balancer).
   const db = opts.db ?? (await createTestDatabase());
@@ -58,7 +58,7 @@ export async function createTestApp(
   const search = createSearchService({ dataSource, logger, listener: documentListener });
   await search.start();
   const ctx: AppContext = { config, dataSource, mailer, logger, documentListener, storage: createStorage(config.storage), search };
-  const created = createApp(ctx, { serveClient: opts.serveClient ?? false });
+  const created = createApp(ctx, { serveClient: opts.serveClient ?? false, clientDir: opts.clientDir });
   return {
     app: created.app,
     ctx,

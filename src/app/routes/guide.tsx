@@ -13,6 +13,7 @@ import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components
 import { RevisionHistory } from '@/features/guides/components/revision-history';
 import { SetupSheet } from '@/features/setups/components/setup-sheet';
 import { WatchButton } from '@/features/watches/components/watch-button';
+import { KeepForTrackButton } from '@/features/offline/components/keep-for-track';
 import { renderWorkedExample } from '../worked-example';
 
 function Missing({ error }: { error: Error }) {
@@ -60,6 +61,7 @@ export function GuidePage() {
         </Link>
       )}
       {me && liveNumber != null && <WatchButton kind="guide" slug={slug} />}
+      {revision.number === liveNumber && <KeepForTrackButton slug={slug} parameters={revision.content.parameters ?? []} signedIn={!!me} />}
       {canModerate && !hidden && <HideGuideButton slug={slug} onHidden={() => setSwapped('hidden')} focusOnMount={swapped === 'shown'} />}
     </>
   );

@@ -1,5 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { SavedCopyNotice, UpdateNotice } from './offline-notices';
 import { toast } from 'sonner';
 import { hasRole, type Role } from '@shared/constants';
 import type { User } from '@shared/schemas/user';
@@ -158,6 +159,8 @@ export function AppLayout() {
         </div>
       </header>
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-8">
+        <UpdateNotice />
+        <SavedCopyNotice />
         <Outlet />
       </main>
       <footer className="no-print border-t border-paper-line bg-paper-deep/60">

@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { SignUpAccepted, SignUpInput, User } from '@shared/schemas/user';
 import { api, resetCsrf, type Envelope } from '@/lib/api-client';
+import { forgetPrivateData } from '@/lib/offline/worker';
 
 /** Query-option factories for the session (keys general → specific). */
 export const authQueries = {
@@ -17,13 +18,17 @@ export function useCurrentUser() {
   return useQuery(authQueries.me());
 }
 
-/** Forgets everything cached for the previous session. */
+/**
+ * Forgets everything cached for the previous session: the query cache, and what the service worker stored
+ * for offline reading from signed-in answers (so the next person on this device cannot read it).
+ */
 function useSessionChanged() {
   const qc = useQueryClient();
-  return (user: User | null) => {
+  return async (user: User | null) => {
     resetCsrf();
     qc.removeQueries({ predicate: (q) => q.queryKey[0] !== 'auth' });
     qc.setQueryData(authQueries.me().queryKey, user);
+    await forgetPrivateData();
   };
 }
 
@@ -37,7 +42,12 @@ export function useSignIn() {
 
 export function useSignOut() {
   const changed = useSessionChanged();
-  return useMutation({ mutationFn: () => api.post<void>('/api/auth/sign-out'), onSuccess: () => changed(null) });
+  return useMutation({
+    mutationFn: () => api.post<void>('/api/auth/sign-out'),
+    onSuccess: () => changed(null),
+    // Without a connection the server cannot be told, but what this device stored for the member goes anyway.
+    onError: () => forgetPrivateData(),
+  });
 }
 
 export function useSignUp() {

@@ -1,0 +1,1 @@
+declare const __TW_BUILD__: string;
