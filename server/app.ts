@@ -105,6 +105,23 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   });
 
   app.use(compressAnswers());
+
+  // The build's files are served before the session is read: they are the same for everyone, and an
+  // answer that went through the session middleware carries a refreshed session cookie. The service
+  // worker fetches a whole build's files at once when it installs; one of those answers arriving after
+  // a sign-in would put the signed-out session's cookie back (seen as pages drawn signed out under load).
+  const distDir = opts.clientDir ?? defaultDistDir;
+  const clientBuilt = (opts.serveClient ?? true) && fs.existsSync(path.join(distDir, 'index.html'));
+  if (clientBuilt) {
+    // The browser checks the service worker and the manifest for a new build; never from a stale copy.
+    app.use(['/sw.js', '/manifest.webmanifest'], (_req, res, next) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      next();
+    });
+    app.use('/assets', staticBuild(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
+    app.use(staticBuild(distDir, { index: false, maxAge: '1h' }));
+  }
+
   app.use('/api', express.json({ limit: LIMITS.jsonBodyBytes, strict: true }));
   const { pool } = installAuth(app, ctx);
   // Marks every answer given to a session: the service worker stores those apart and drops them at sign-out.
@@ -131,15 +148,7 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   app.get('/changes.atom', changesFeed(ctx));
 
   if (opts.serveClient ?? true) {
-    const distDir = opts.clientDir ?? defaultDistDir;
-    if (fs.existsSync(path.join(distDir, 'index.html'))) {
-      // The browser checks the service worker and the manifest for a new build; never from a stale copy.
-      app.use(['/sw.js', '/manifest.webmanifest'], (_req, res, next) => {
-        res.setHeader('Cache-Control', 'no-cache');
-        next();
-      });
-      app.use('/assets', staticBuild(path.join(distDir, 'assets'), { immutable: true, maxAge: '1y', index: false }));
-      app.use(staticBuild(distDir, { index: false, maxAge: '1h' }));
+    if (clientBuilt) {
       const shell = loadShell(distDir);
       app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
       app.get('/parameters/:slug', parameterPageHandler(ctx, shell));

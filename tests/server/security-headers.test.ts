@@ -99,6 +99,25 @@ describe('security headers in production', () => {
     expect(res.headers['cache-control']).toBe('no-store');
   });
 
+  it("the build's files never carry a session cookie (a late one would undo a sign-in), API answers to a session do", async () => {
+    // Secure cookies: sent back by hand (the test talks plain HTTP behind a pretend TLS proxy).
+    const csrf = await request(t.app).get('/api/csrf').set(https);
+    expect(csrf.status).toBe(200);
+    const cookie = String(csrf.headers['set-cookie']?.[0] ?? '').split(';')[0];
+    expect(cookie).toMatch(/=/);
+    const send = (p: string) => request(t.app).get(p).set(https).set('Cookie', cookie);
+    // The session exists now; an API answer to it refreshes its cookie (rolling sessions), so this check can fail.
+    expect((await send('/api/auth/me')).headers['set-cookie']).toBeDefined();
+    const page = await send('/calculators');
+    const assets = [...page.text.matchAll(/(?:src|href)="(\/assets\/[^"]+)"/g)].map((m) => m[1]);
+    expect(assets.length).toBeGreaterThan(0);
+    for (const file of [...assets, '/sw.js', '/manifest.webmanifest']) {
+      const res = await send(file);
+      expect(res.status, file).toBe(200);
+      expect(res.headers['set-cookie'], file).toBeUndefined();
+    }
+  });
+
   it('error answers carry the same headers and no stack trace', async () => {
     const res = await request(t.app).get('/api/no-such-route').set(https);
     expect(res.status).toBe(404);
@@ -107,7 +126,8 @@ describe('security headers in production', () => {
   });
 
   it('pages of the client carry the same headers, and the built HTML has no inline script or event handler', async () => {
-    const res = await request(t.app).get('/parameters').set(https);
+    // A page the server does not draw (drawn pages add a JSON data block, tested in tests/server/pages).
+    const res = await request(t.app).get('/calculators').set(https);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/html/);
     expectProductionHeaders(res);

@@ -1,13 +1,13 @@
 import escapeHtml from 'escape-html';
 import { Feed } from 'feed';
+import { documentPath, paths } from '../../../shared/paths';
 import { CHANGE_ACTION_LABELS, type Change } from '../../../shared/schemas/change';
-
-const pagePath = (c: Change) => (c.kind === 'guide' ? `/guides/${c.slug}` : `/parameters/${c.slug}`);
 
 /** Where an entry points: the side-by-side diff of a guide's new version, else the page itself. */
 export function changeLink(appUrl: string, c: Change): string {
-  if (c.kind === 'guide' && c.action !== 'hidden' && c.number && c.number > 1) return `${appUrl}${pagePath(c)}/compare?from=${c.number - 1}&to=${c.number}`;
-  return `${appUrl}${pagePath(c)}${c.kind === 'guide' && c.number && c.action !== 'hidden' ? `/v/${c.number}` : ''}`;
+  if (c.kind === 'guide' && c.action !== 'hidden' && c.number && c.number > 1) return `${appUrl}${paths.documentCompare(c.kind, c.slug, c.number - 1, c.number)}`;
+  if (c.kind === 'guide' && c.number && c.action !== 'hidden') return `${appUrl}${paths.documentVersion(c.kind, c.slug, c.number)}`;
+  return `${appUrl}${documentPath(c.kind, c.slug)}`;
 }
 
 /**

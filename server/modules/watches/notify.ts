@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { documentPath } from '../../../shared/paths';
 import type { AppContext } from '../../context';
 import { UserEntity } from '../auth/user.entity';
 import type { DocumentEntity } from '../revisions/document.entity';
@@ -8,7 +9,6 @@ import { changeMail, hiddenNoticeMail } from './mail';
 import { unsubscribeLinks } from './links';
 import { WatchDigestItemEntity, WatchEntity, type WatchedChange } from './watch.entity';
 
-const pagePath = (kind: string, slug: string) => (kind === 'guide' ? `/guides/${slug}` : `/parameters/${slug}`);
 
 /**
  * Authors watch what they write: called when someone starts a document or a new version of one. A
@@ -41,7 +41,7 @@ export async function notifyWatchers(ctx: AppContext, m: EntityManager, e: LiveC
   const base = e.action !== 'hidden' && rev.baseRevisionId ? await m.getRepository(RevisionEntity).findOneBy({ id: rev.baseRevisionId }) : null;
   const actor = await m.getRepository(UserEntity).findOneBy({ id: e.actorId });
   const appUrl = ctx.config.appUrl;
-  const page = `${appUrl}${pagePath(doc.kind, doc.slug)}`;
+  const page = `${appUrl}${documentPath(doc.kind, doc.slug)}`;
   const change: WatchedChange = {
     kind: doc.kind,
     slug: doc.slug,
