@@ -5,7 +5,8 @@ import { CHANGE_ACTION_LABELS, type Change } from '../../../shared/schemas/chang
 
 /** Where an entry points: the side-by-side diff of a guide's new version, else the page itself. */
 export function changeLink(appUrl: string, c: Change): string {
-  if (c.kind === 'guide' && c.action !== 'hidden' && c.number && c.number > 1) return `${appUrl}${paths.documentCompare(c.kind, c.slug, c.number - 1, c.number)}`;
+  if (c.kind === 'guide' && c.action !== 'hidden' && c.number && c.number > 1)
+    return `${appUrl}${paths.documentCompare(c.kind, c.slug, c.number - 1, c.number)}`;
   if (c.kind === 'guide' && c.number && c.action !== 'hidden') return `${appUrl}${paths.documentVersion(c.kind, c.slug, c.number)}`;
   return `${appUrl}${documentPath(c.kind, c.slug)}`;
 }

@@ -9,7 +9,6 @@ import { changeMail, hiddenNoticeMail } from './mail';
 import { unsubscribeLinks } from './links';
 import { WatchDigestItemEntity, WatchEntity, type WatchedChange } from './watch.entity';
 
-
 /**
  * Authors watch what they write: called when someone starts a document or a new version of one. A
  * person who stopped watching keeps their choice (the row stays with watching = false).
