@@ -20,6 +20,7 @@ import { requestLog } from './middleware/request-log';
 import { oneClickUnsubscribe } from './modules/watches/routes';
 import { changesFeed } from './modules/changes/routes';
 import { PRIVATE_HEADER } from '../shared/offline';
+import { PAGE_PATTERNS } from '../shared/paths';
 
 export type CreatedApp = { app: Express; close: () => Promise<void> };
 
@@ -150,8 +151,8 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
   if (opts.serveClient ?? true) {
     if (clientBuilt) {
       const shell = loadShell(distDir);
-      app.get(['/guides/:slug', '/guides/:slug/v/:n'], guidePageHandler(ctx, shell));
-      app.get('/parameters/:slug', parameterPageHandler(ctx, shell));
+      app.get([PAGE_PATTERNS.guide, PAGE_PATTERNS.guideVersion], guidePageHandler(ctx, shell));
+      app.get(PAGE_PATTERNS.parameter, parameterPageHandler(ctx, shell));
       for (const [route, handler] of Object.entries(listPageHandlers(ctx, shell))) app.get(route, handler);
       app.get('/{*splat}', (_req, res) => {
         res.setHeader('Cache-Control', 'no-cache');

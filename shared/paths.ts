@@ -39,6 +39,8 @@ export const PAGE_PATTERNS = {
   motor: '/motors/:id',
   motorPrint: '/motors/:id/print',
   search: '/search',
+  unsubscribe: '/unsubscribe',
+  changes: '/changes',
   devMail: '/dev/mail',
 } as const;
 

@@ -7,6 +7,7 @@ import type { DrawnPage } from './anonymous-pages';
 import { guidePageHtml } from './guide-page';
 import { guidesPageHtml, homePageHtml, parametersPageHtml, searchPageHtml } from './list-pages';
 import { parameterPageHtml } from './parameter-page';
+import { PAGE_PATTERNS } from '../../../shared/paths';
 
 /** Paths under /guides/ that are other pages, not guide slugs. */
 const NOT_GUIDES = new Set(['new']);
@@ -73,15 +74,15 @@ export function parameterPageHandler(ctx: AppContext, shell: Shell): RequestHand
 }
 
 /** The home page, the parameter library, the guides list and search results. */
-export function listPageHandlers(ctx: AppContext, shell: Shell): Record<'/' | '/parameters' | '/guides' | '/search', RequestHandler> {
+export function listPageHandlers(ctx: AppContext, shell: Shell): Record<string, RequestHandler> {
   const handle =
     (draw: (user: User | null, url: string) => ReturnType<Draw>): RequestHandler =>
     (req, res) =>
       sendDrawn(ctx, shell, req, res, draw);
   return {
-    '/': handle((user, url) => homePageHtml(ctx, shell, user, url)),
-    '/parameters': handle((user, url) => parametersPageHtml(ctx, shell, user, url)),
-    '/guides': handle(async (user, url) => (await guidesPageHtml(ctx, shell, user, url)) ?? 'plain'),
-    '/search': handle((user, url) => searchPageHtml(ctx, shell, user, url) ?? 'plain'),
+    [PAGE_PATTERNS.home]: handle((user, url) => homePageHtml(ctx, shell, user, url)),
+    [PAGE_PATTERNS.parameters]: handle((user, url) => parametersPageHtml(ctx, shell, user, url)),
+    [PAGE_PATTERNS.guides]: handle(async (user, url) => (await guidesPageHtml(ctx, shell, user, url)) ?? 'plain'),
+    [PAGE_PATTERNS.search]: handle((user, url) => searchPageHtml(ctx, shell, user, url) ?? 'plain'),
   };
 }
