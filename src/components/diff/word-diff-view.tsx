@@ -148,14 +148,15 @@ function show(value: unknown): string {
   return String(value);
 }
 
-const FIELD_LABELS: Record<string, string> = {
+/** The names readers see for a document's fields, in every diff and merge view. */
+export const FIELD_LABELS: Record<string, string> = {
   title: 'Title',
   summary: 'Summary',
   class: 'Class',
   surface: 'Surface',
   conditions: 'Conditions',
   tags: 'Tags',
-  parameters: 'Parameters discussed',
+  parameters: 'Settings discussed',
   name: 'Name',
   aliases: 'Also called',
   category: 'Category',

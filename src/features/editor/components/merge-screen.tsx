@@ -6,23 +6,7 @@ import { Notice } from '@/components/ui/notice';
 import { patchRevision, useRebaseRevision, type RebaseResult } from '../api/revisions';
 import { aroundChanges, handEditStart, resolveBody, resolveFields, type ConflictChoice, type ConflictRegion, type WordPart } from '../lib/merge';
 import { writeLocalDraft } from '../lib/autosave';
-
-const LABELS: Record<string, string> = {
-  title: 'Title',
-  summary: 'Summary',
-  class: 'Class',
-  surface: 'Surface',
-  conditions: 'Conditions',
-  tags: 'Tags',
-  parameters: 'Settings discussed',
-  name: 'Name',
-  aliases: 'Also called',
-  category: 'Category',
-  unit: 'Unit',
-  range: 'Typical range',
-  related: 'Related settings',
-  calculator: 'Calculator',
-};
+import { FIELD_LABELS } from '@/components/diff/word-diff-view';
 
 function show(v: unknown) {
   if (Array.isArray(v)) return v.join(', ') || '—';
@@ -243,9 +227,9 @@ export function MergeScreen({
           <div className="flex flex-col gap-3">
             {fieldConflicts.map((c) => (
               <fieldset key={c.field} className="grid gap-2 rounded-md border border-caution-line p-3 sm:grid-cols-[10rem_1fr_1fr] sm:items-start">
-                <legend className="sr-only">{LABELS[c.field] ?? c.field}</legend>
+                <legend className="sr-only">{FIELD_LABELS[c.field] ?? c.field}</legend>
                 <p className="text-sm font-semibold" aria-hidden>
-                  {LABELS[c.field] ?? c.field}
+                  {FIELD_LABELS[c.field] ?? c.field}
                 </p>
                 {(['theirs', 'ours'] as const).map((side) => (
                   <label

@@ -4,26 +4,9 @@ import type { ReactNode } from 'react';
 import { classLabel, showValue, surfaceLabel } from '@shared/setup/show-value';
 import { labelForSlug, type SetupLeafValue } from '@shared/setup/fields';
 import type { BodyDiffDetail } from '@shared/schemas/revision';
-import { WordDiffView, type FieldChange, type WordChange } from '@/components/diff/word-diff-view';
+import { FIELD_LABELS, WordDiffView, type FieldChange, type WordChange } from '@/components/diff/word-diff-view';
 import { Markdown } from '@/lib/markdown';
 import type { SetupChange } from '../api/reviews';
-
-const FIELD_LABELS: Record<string, string> = {
-  title: 'Title',
-  summary: 'Summary',
-  class: 'Class',
-  surface: 'Surface',
-  conditions: 'Conditions',
-  tags: 'Tags',
-  parameters: 'Settings discussed',
-  name: 'Name',
-  aliases: 'Also called',
-  category: 'Category',
-  unit: 'Unit',
-  range: 'Typical range',
-  related: 'Related settings',
-  calculator: 'Calculator',
-};
 
 /** A metadata value in words: classes and surfaces by their labels, setting slugs by name, lists joined. */
 function fieldText(field: string, v: unknown): string {
