@@ -13,10 +13,10 @@ import { SearchPage } from './app/routes/search';
 import { AppLayout } from './components/layout/app-layout';
 import { createQueryClient } from './lib/query-client';
 
-export { INITIAL_DATA_ID, type InitialData } from './app/initial-data';
-export { guideFiltersFrom, type GuideDetail, type GuideFilters, type GuideSummary, type ReadableGuideRevision } from './features/guides/api/guides';
-export type { ParameterPageData } from './features/parameters/api/parameters';
-export { RESULTS_PAGE_SIZE, searchParamsFrom, type SearchPage, type SearchParams } from './features/search/api/search';
+// Data shapes come from shared/schemas (initial-data.ts, reading.ts); only behaviour is exported here.
+export { INITIAL_DATA_ID } from './app/initial-data';
+export { guideFiltersFrom } from './features/guides/api/guides';
+export { RESULTS_PAGE_SIZE, searchParamsFrom } from './features/search/api/search';
 
 /** The app's own layout and page components, drawn to HTML from the reads the browser would make. */
 function drawApp(url: string, data: InitialData, pages: ReactNode): string {

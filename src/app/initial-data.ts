@@ -1,30 +1,15 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { ParameterSummary } from '@shared/schemas/parameter';
-import type { User } from '@shared/schemas/user';
+import type { InitialData } from '@shared/schemas/initial-data';
 import { authQueries } from '@/features/auth/api/auth';
-import { guideQueries, type GuideDetail, type GuideFilters, type GuideSummary, type ReadableGuideRevision } from '@/features/guides/api/guides';
-import { parameterQueries, type ParameterPageData } from '@/features/parameters/api/parameters';
-import { searchQueries, type SearchPage, type SearchParams } from '@/features/search/api/search';
+import { guideQueries } from '@/features/guides/api/guides';
+import { parameterQueries } from '@/features/parameters/api/parameters';
+import { searchQueries } from '@/features/search/api/search';
 
 /** The id of the JSON block the server puts in a pre-rendered page (main.tsx looks for it by name too). */
 export const INITIAL_DATA_ID = 'tw-initial-data';
 
-/**
- * What the server sends with a pre-rendered page (home, a guide, a parameter entry, the library, the
- * guides list, search results): the reads the page's first render needs, so the browser draws the same
- * page without asking for them again.
- */
-export type InitialData = {
-  me: User | null;
-  guide?: { slug: string; detail: GuideDetail; version?: { number: number; revision: ReadableGuideRevision }; parameters: ParameterSummary[] };
-  parameter?: { slug: string; detail: ParameterPageData };
-  /** The parameter library (/parameters). */
-  library?: ParameterSummary[];
-  /** The guides list (/guides), for these filters, with the settings its filter offers. */
-  guides?: { filters: GuideFilters; list: GuideSummary[]; parameters: ParameterSummary[] };
-  /** The first page of results of a search (/search?q=…). */
-  search?: { params: SearchParams; page: SearchPage };
-};
+/** What the server sends with a pre-rendered page: one schema in shared/, used by both sides. */
+export type { InitialData } from '@shared/schemas/initial-data';
 
 /** Puts the server's reads into the query cache under the keys the pages use (server and browser alike). */
 export function seedInitialData(qc: QueryClient, data: InitialData) {

@@ -1,5 +1,7 @@
 import type { User } from '../../../shared/schemas/user';
-import { drawGuidePage, INITIAL_DATA_ID, type GuideDetail, type InitialData, type ReadableGuideRevision } from '../../../src/entry-server';
+import { drawGuidePage, INITIAL_DATA_ID } from '../../../src/entry-server';
+import type { GuideDetail, ReadableGuideRevision } from '../../../shared/schemas/reading';
+import type { InitialData } from '../../../shared/schemas/initial-data';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';

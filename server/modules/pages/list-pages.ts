@@ -10,8 +10,8 @@ import {
   INITIAL_DATA_ID,
   RESULTS_PAGE_SIZE,
   searchParamsFrom,
-  type InitialData,
 } from '../../../src/entry-server';
+import type { InitialData } from '../../../shared/schemas/initial-data';
 import type { AppContext } from '../../context';
 import type { Shell } from '../../lib/html-shell';
 import { liveGuideList } from '../guides/routes';

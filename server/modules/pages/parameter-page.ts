@@ -1,5 +1,7 @@
 import type { User } from '../../../shared/schemas/user';
-import { drawParameterPage, INITIAL_DATA_ID, type InitialData, type ParameterPageData } from '../../../src/entry-server';
+import { drawParameterPage, INITIAL_DATA_ID } from '../../../src/entry-server';
+import type { ParameterPageData } from '../../../shared/schemas/reading';
+import type { InitialData } from '../../../shared/schemas/initial-data';
 import type { AppContext } from '../../context';
 import { AppError } from '../../lib/errors';
 import type { Shell } from '../../lib/html-shell';

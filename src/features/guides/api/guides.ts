@@ -1,3 +1,4 @@
+import type { GuideFilters } from '@shared/schemas/initial-data';
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { CLASSES, SURFACES } from '@shared/constants';
 import type { GuideSummary } from '@shared/schemas/guide';
@@ -15,7 +16,7 @@ export type { GuideRecord, GuideSummary } from '@shared/schemas/guide';
 /** One row of a guide's history (no content). */
 export type HistoryItem = RevisionHistoryItem;
 
-export type GuideFilters = { class?: string; surface?: string; parameter?: string; tag?: string; q?: string };
+export type { GuideFilters } from '@shared/schemas/initial-data';
 
 /** The guides list's filters in its URL (`?class=…&surface=…&parameter=…&tag=…`). */
 export const GUIDE_FILTER_KEYS = ['class', 'surface', 'parameter', 'tag'] as const;

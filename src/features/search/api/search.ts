@@ -1,11 +1,11 @@
+import type { SearchPage, SearchParams } from '@shared/schemas/initial-data';
 import { infiniteQueryOptions, keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { CLASS_SLUGS, SURFACE_SLUGS } from '@shared/constants';
-import type { SearchMeta, SearchResponse, SearchSuggestion } from '@shared/schemas/search';
+import type { SearchSuggestion } from '@shared/schemas/search';
 import { SEARCH_TYPES, type SearchType } from '@shared/search';
 import { api, type Envelope } from '@/lib/api-client';
 
-export type SearchParams = { q: string; type?: SearchType; class?: string; surface?: string; parameter?: string; limit?: number };
-export type SearchPage = { data: SearchResponse; meta: SearchMeta };
+export type { SearchPage, SearchParams } from '@shared/schemas/initial-data';
 
 /** How many results the search page asks for at a time. */
 export const RESULTS_PAGE_SIZE = 20;
