@@ -118,7 +118,7 @@ function upload<T>(path: string, form: FormData, onProgress?: (fraction: number)
         xhr.upload.onprogress = (e) => {
           if (e.lengthComputable && onProgress) onProgress(e.loaded / e.total);
         };
-        xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection; nothing you typed has been lost.'));
+        xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection and try again; nothing was stored.'));
         xhr.onload = () => {
           let json: { data?: unknown; error?: { code: string; message: string; details?: unknown } } | null = null;
           try {

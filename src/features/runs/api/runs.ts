@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Run, RunCompare, RunListItem, RunPatch, RunSeries } from '@shared/schemas/run';
 import type { RunMapping } from '@shared/runlog/mapping';
-import { api, ApiError, type Envelope } from '@/lib/api-client';
+import { api, type Envelope } from '@/lib/api-client';
 
 /** Query-option factories for runs (keys general → specific). */
 export const runQueries = {
@@ -36,43 +36,16 @@ export const runQueries = {
     }),
 };
 
-async function csrfToken(): Promise<string> {
-  const res = await fetch('/api/csrf', { credentials: 'same-origin' });
-  return ((await res.json()) as { data: { token: string } }).data.token;
-}
-
 export type RunUploadInput = { file: File; title?: string; setupId?: string; mapping?: RunMapping; onProgress: (fraction: number) => void };
 
-/** Uploads a run log with XMLHttpRequest (fetch reports no upload progress); rejects with the API's error. */
+/** Uploads a run log with its upload progress (the API client's XMLHttpRequest upload); rejects with the API's error. */
 export async function uploadRunFile({ file, title, setupId, mapping, onProgress }: RunUploadInput): Promise<Run> {
-  const token = await csrfToken();
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', '/api/runs');
-    xhr.setRequestHeader('x-csrf-token', token);
-    xhr.setRequestHeader('Accept', 'application/json');
-    xhr.withCredentials = true;
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable) onProgress(e.loaded / e.total);
-    };
-    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection and try again; nothing was stored.'));
-    xhr.onload = () => {
-      let body: { data?: Run; error?: { code: string; message: string; details?: unknown } } = {};
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        /* not JSON */
-      }
-      if (xhr.status === 201 && body.data) resolve(body.data);
-      else reject(new ApiError(xhr.status, body.error?.code ?? 'http_error', body.error?.message ?? `Upload failed (${xhr.status})`, body.error?.details));
-    };
-    const form = new FormData();
-    if (title) form.append('title', title);
-    if (setupId) form.append('setupId', setupId);
-    if (mapping) form.append('mapping', JSON.stringify(mapping));
-    form.append('file', file, file.name);
-    xhr.send(form);
-  });
+  const form = new FormData();
+  if (title) form.append('title', title);
+  if (setupId) form.append('setupId', setupId);
+  if (mapping) form.append('mapping', JSON.stringify(mapping));
+  form.append('file', file, file.name);
+  return (await api.upload<Envelope<Run>>('/api/runs', form, onProgress)).data;
 }
 
 export function useUploadRun() {

@@ -1,10 +1,9 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { FieldIssue } from '@shared/schemas/common';
 import type { SettingDefinitionRow, SetupLibrary, SetupUpload, CompareSide } from '@shared/schemas/setup';
 import type { SetupRecord } from '@shared/schemas/setup-record';
 import type { SetupComputed } from '@shared/setup/computed';
 import type { SetupComparison } from '@shared/setup/compare';
-import { api, ApiError, type Envelope } from '@/lib/api-client';
+import { api, type Envelope } from '@/lib/api-client';
 
 export type CompareResult = SetupComparison & { a: CompareSide; b: CompareSide };
 
@@ -41,45 +40,16 @@ export const guideSetupLinks = (slug: string) => ({
   print: `/guides/${encodeURIComponent(slug)}/setup/print`,
 });
 
-async function csrfToken(): Promise<string> {
-  const res = await fetch('/api/csrf', { credentials: 'same-origin' });
-  return ((await res.json()) as { data: { token: string } }).data.token;
-}
-
 /**
- * Uploads a setup file with XMLHttpRequest, because fetch reports no upload progress.
+ * Uploads a setup file with its upload progress (the API client's XMLHttpRequest upload).
  * Resolves with the stored upload; rejects with an ApiError whose details list every problem.
  */
 export async function uploadSetupFile(file: File, onProgress: (fraction: number) => void): Promise<SetupUpload> {
-  const token = await csrfToken();
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', '/api/setups');
-    xhr.setRequestHeader('x-csrf-token', token);
-    xhr.setRequestHeader('Accept', 'application/json');
-    xhr.withCredentials = true;
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable) onProgress(e.loaded / e.total);
-    };
-    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach Tunewright. Check your connection and try again; nothing was stored.'));
-    xhr.onload = () => {
-      let body: { data?: SetupUpload; error?: { code: string; message: string; details?: FieldIssue[] } } = {};
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        /* not JSON */
-      }
-      if (xhr.status === 201 && body.data) {
-        onProgress(1);
-        resolve(body.data);
-      } else {
-        reject(new ApiError(xhr.status, body.error?.code ?? 'http_error', body.error?.message ?? `Upload failed (${xhr.status})`, body.error?.details));
-      }
-    };
-    const form = new FormData();
-    form.append('file', file, file.name);
-    xhr.send(form);
-  });
+  const form = new FormData();
+  form.append('file', file, file.name);
+  const stored = (await api.upload<Envelope<SetupUpload>>('/api/setups', form, onProgress)).data;
+  onProgress(1);
+  return stored;
 }
 
 export function useUploadSetup() {
