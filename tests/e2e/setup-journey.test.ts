@@ -113,7 +113,7 @@ describe('setup journey in Chromium', () => {
 
     expect(errors).toEqual([]);
     await context.close();
-  });
+  }, 120_000); // a whole journey (download, two uploads, compare, print sheet, phone width), like the run-log journeys
 
   it('builds a setup on /setups/new from the parameter library and checks it live', async () => {
     const page = await suite.browser.newPage({ viewport: { width: 1280, height: 900 } });
