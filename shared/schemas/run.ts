@@ -136,7 +136,19 @@ export const runCompareSchema = z.object({
   a: runListItemSchema,
   b: runListItemSchema,
   differences: z.array(figureDiff),
-  alignment: z.object({ offsetS: num, method: z.enum(['full-throttle', 'start']), aAtS: maybe, bAtS: maybe }),
+  /**
+   * How b is lined up on a: `offsetS` is b's time of the same moment minus a's. `method` says how it was found:
+   * `cross-correlation` of `channel` in both runs (with the `correlation` reached), `full-throttle` (first
+   * sustained full throttle, `aAtS`/`bAtS`), or `start` (no common trace and no full throttle in one run).
+   */
+  alignment: z.object({
+    offsetS: num,
+    method: z.enum(['cross-correlation', 'full-throttle', 'start']),
+    channel: z.enum(['throttle_pct', 'motor_rpm']).nullable(),
+    correlation: maybe,
+    aAtS: maybe,
+    bAtS: maybe,
+  }),
   settings: z.array(z.object({ path: z.string(), label: z.string(), unit: z.string(), a: z.unknown(), b: z.unknown() })),
   settingsNote: z.string().nullable(),
 });

@@ -10,6 +10,7 @@ import { parseRunlog } from '../../shared/runlog/parse';
 import { computeRunFigures } from '../../shared/runlog/figures';
 import { encodeColumnar } from '../../shared/runlog/columnar';
 import { simulateRunCsv } from '../../shared/runlog/simulate';
+import { crossCorrelationOffset } from '../../shared/runlog/align';
 import { launchBrowser } from '../setup/browser';
 
 const ROWS = 60_000;
@@ -50,6 +51,27 @@ async function main() {
   }
   console.log(`server parse + validate + figures: median ${ms(median(parseTimes))} of ${REPEATS}`);
   console.log(`figures alone: median ${ms(median(figureTimes))}`);
+  // Compare's alignment: two 60,000-row runs, the second idling 1.5 s longer, matched by cross-correlation of the throttle.
+  const second = parseRunlog(
+    simulateRunCsv({ seed: 5, durationS: (ROWS - 1) / 100, rateHz: 100, kvRpmPerV: 4000, cells: 2, capacityMah: 5000, ambientC: 20, idleS: 3.5 }),
+  );
+  const first = parseRunlog(csv);
+  if (!second.ok || !first.ok) throw new Error('simulated runs must parse');
+  const alignTimes: number[] = [];
+  let offset = NaN;
+  for (let i = 0; i < REPEATS; i++) {
+    const [found, t] = time(() =>
+      crossCorrelationOffset(
+        { time: first.run.time, values: first.run.channels.throttle_pct! },
+        { time: second.run.time, values: second.run.channels.throttle_pct! },
+      ),
+    );
+    alignTimes.push(t);
+    offset = found?.offsetS ?? NaN;
+  }
+  console.log(
+    `compare alignment (cross-correlation, 2 × ${ROWS.toLocaleString('en-GB')} rows): median ${ms(median(alignTimes))}, offset ${offset.toFixed(2)} s (expected 1.50)`,
+  );
   console.log(
     `stored columns: ${stored.toLocaleString('en-GB')} bytes for ${values.toLocaleString('en-GB')} values = ${(stored / values).toFixed(3)} bytes per sample value (goal ≤ 4)`,
   );

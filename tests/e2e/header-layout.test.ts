@@ -99,6 +99,73 @@ describe('site header', () => {
     await page.context().close();
   });
 
+  it('opens the Notebook (setups, run logs, motors) from one header entry, by mouse and by keyboard, at 1280 px', async () => {
+    const { page, errors, boxes: b } = await openAs('rosa', 1280);
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    const notebook = nav.getByRole('button', { name: 'Notebook' });
+    const box = (await notebook.boundingBox())!;
+    expect(sameRow(b.brand, { top: box.y, bottom: box.y + box.height })).toBe(true);
+    expect(await notebook.getAttribute('aria-expanded')).toBe('false');
+
+    // Keyboard: Enter opens, the arrow moves into the list, Escape closes and puts focus back on the button.
+    await notebook.focus();
+    await page.keyboard.press('Enter');
+    await nav.getByRole('link', { name: /Run logs/ }).waitFor();
+    expect(await notebook.getAttribute('aria-expanded')).toBe('true');
+    await page.keyboard.press('ArrowDown');
+    await expect.poll(() => page.evaluate(() => document.activeElement?.textContent ?? '')).toMatch(/^Setups/);
+    await page.keyboard.press('ArrowDown');
+    await expect.poll(() => page.evaluate(() => document.activeElement?.textContent ?? '')).toMatch(/^Run logs/);
+    await screenshot(page, 'header-notebook-open-1280');
+    const after = await headerBoxes(page);
+    expect(after.overflowX).toBe(false);
+    expect(after.header.height).toBe(b.header.height); // the list floats over the page; the header keeps its one row
+    await page.keyboard.press('Escape');
+    await nav.getByRole('link', { name: /Run logs/ }).waitFor({ state: 'detached' });
+    expect(await notebook.getAttribute('aria-expanded')).toBe('false');
+    expect(await notebook.evaluate((el) => el === document.activeElement)).toBe(true);
+
+    // Mouse: a click elsewhere closes it; choosing an entry goes there and closes it.
+    await notebook.click();
+    await nav.getByRole('link', { name: /Motors/ }).waitFor();
+    await page
+      .getByRole('heading', { level: 1 })
+      .first()
+      .click({ position: { x: 5, y: 5 } });
+    await nav.getByRole('link', { name: /Motors/ }).waitFor({ state: 'detached' });
+    await notebook.click();
+    await nav.getByRole('link', { name: /Motors/ }).click();
+    await page.waitForURL('**/motors');
+    await nav.getByRole('link', { name: /Motors/ }).waitFor({ state: 'detached' });
+    // The entry shows that a notebook page is the current one.
+    await expect.poll(() => notebook.evaluate((el) => el.className)).toMatch(/bg-ink/);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  }, 90_000);
+
+  it('reaches the Notebook inside the phone menu at 390 px', async () => {
+    const page = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa', { width: 390, height: 844 });
+    const errors = watchPageErrors(page);
+    await page.goto(`${suite.server.baseUrl}/guides`);
+    await page.getByRole('heading', { level: 1 }).first().waitFor();
+    await page.getByRole('button', { name: 'Menu' }).click();
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    await nav.getByRole('button', { name: 'Notebook' }).click();
+    await nav.getByRole('link', { name: /Run logs/ }).waitFor();
+    expect((await headerBoxes(page)).overflowX).toBe(false);
+    await screenshot(page, 'header-notebook-open-phone');
+    await page.keyboard.press('Escape');
+    await nav.getByRole('link', { name: /Run logs/ }).waitFor({ state: 'detached' });
+    expect(await nav.isVisible()).toBe(true); // Escape closed the Notebook list, not the phone menu
+    await nav.getByRole('button', { name: 'Notebook' }).click();
+    await nav.getByRole('link', { name: /Run logs/ }).click();
+    await page.waitForURL('**/runs');
+    // Choosing a page folds the phone menu away again.
+    await expect.poll(() => nav.isVisible()).toBe(false);
+    expect(errors).toEqual([]);
+    await page.context().close();
+  }, 90_000);
+
   it('folds navigation, search and account into the menu on a phone', async () => {
     const page = await signedInPage(suite.browser, suite.server.baseUrl, 'nell', { width: 375, height: 780 });
     await page.goto(`${suite.server.baseUrl}/guides`);

@@ -119,6 +119,34 @@ describe('motor bench journey in Chromium', () => {
     }, 120_000);
   }
 
+  it('shows the timing reading in mechanical degrees for the motor’s pole count as it is typed (phone)', async () => {
+    const { user, password } = await createUser(suite.server.t, { displayName: 'Harbour Four-Pole Racer' });
+    const context = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
+    const page = await context.newPage();
+    const errors = watchPageErrors(page);
+    await signIn(page, user.email, password);
+    await page.getByLabel('Your label').fill('Four-pole mod');
+    await page.getByLabel('Rotor poles').selectOption('4');
+    await page.getByRole('button', { name: 'Register motor' }).click();
+    await page.waitForURL(/\/motors\/[0-9a-f-]{36}$/);
+    const form = page.getByRole('form', { name: 'Add a bench check' });
+    const timing = form.getByLabel(/Timing reading, electrical degrees/);
+    const out = form.getByTestId('timing-mechanical');
+    // Before anything is typed: the rule for this rotor.
+    await expect.poll(() => out.textContent()).toMatch(/electrical ÷ 2 on this 4-pole rotor/);
+    // Handbook relation: mechanical degrees = electrical degrees ÷ pole pairs; a 4-pole rotor has 2 pole pairs.
+    await timing.fill('30');
+    await expect.poll(() => out.textContent()).toBe('30° electrical = 15° mechanical (endbell) on this 4-pole rotor');
+    await timing.fill('30 31');
+    await expect.poll(() => out.textContent()).toBe('30, 31° electrical = 15, 15.5° mechanical (endbell) on this 4-pole rotor');
+    // The hint is the field's description, so a screen reader hears it with the field.
+    expect(await timing.getAttribute('aria-describedby')).toBeTruthy();
+    await timing.scrollIntoViewIfNeeded();
+    await screenshot(page, 'motor-check-timing-degrees-phone');
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 60_000);
+
   it("another member's motor page says it is not found", async () => {
     const owner = await createUser(suite.server.t);
     const other = await createUser(suite.server.t);

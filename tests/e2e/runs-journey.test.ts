@@ -104,9 +104,11 @@ describe('run log journey in Chromium', () => {
     const second = await uploadThrough(page, after, 'Heat 2, 34-tooth pinion');
     await page.goto(`${suite.server.baseUrl}/runs/compare?a=${first}&b=${second}`);
     await page.getByTestId('compare-figures').getByText('Peak current').waitFor();
-    await expect.poll(() => page.getByTestId('alignment').textContent()).toMatch(/shifted by (0\.9|1\.0)\d s \(first sustained full throttle\)/);
+    await expect
+      .poll(() => page.getByTestId('alignment').textContent())
+      .toMatch(/shifted by (0\.9|1\.0)\d s \(matched throttle traces by cross-correlation, r = (0\.9\d|1\.00)\)/);
     await page.getByRole('button', { name: '+0.1 s' }).click();
-    await expect.poll(() => page.getByTestId('alignment').textContent()).toMatch(/shifted by 1\.(0|1)\d s/);
+    await expect.poll(() => page.getByTestId('alignment').textContent()).toMatch(/shifted by 1\.(0|1)\d s \(.*, nudged \+0\.1 s\)/);
     await screenshot(page, 'runs-compare-desktop');
 
     expect(errors).toEqual([]);

@@ -246,7 +246,7 @@ describe('GET /api/runs/:id/series', () => {
 });
 
 describe('GET /api/runs/compare', () => {
-  it('aligns on the first sustained full throttle and lists figures and settings that differ', async () => {
+  it('aligns by cross-correlating the throttle traces and lists figures and settings that differ', async () => {
     const [s1, s2] = [
       await uploadSetup(rosa),
       await uploadSetup(rosa, { gearing: { spurTeeth: 84, pinionTeeth: 34, internalRatio: 2.6, tyreDiameterMm: 62 } }),
@@ -255,12 +255,52 @@ describe('GET /api/runs/compare', () => {
     const b = await uploadRun(rosa, { fields: { setupId: s2 }, body: buildRunCsv({ idleS: 3.5, loadScale: 1.2, seed: 9 }) });
     const res = await rosa.get(`/api/runs/compare?a=${a}&b=${b}`);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
-    expect(res.body.data.alignment.method).toBe('full-throttle');
+    expect(res.body.data.alignment).toMatchObject({ method: 'cross-correlation', channel: 'throttle_pct' });
+    expect(res.body.data.alignment.correlation).toBeGreaterThan(0.9);
     expect(Math.abs(res.body.data.alignment.offsetS - 1.5)).toBeLessThanOrEqual(0.1); // b idles 1.5 s longer before the same lap (within two samples at 20 Hz)
+    // The first-full-throttle marks are still reported, and agree.
+    expect(Math.abs(res.body.data.alignment.bAtS - res.body.data.alignment.aAtS - 1.5)).toBeLessThanOrEqual(0.1);
     const peak = res.body.data.differences.find((d: { key: string }) => d.key === 'peakCurrentA');
     expect(peak.delta).toBeCloseTo(peak.b - peak.a, 9);
     expect(res.body.data.settings).toEqual([expect.objectContaining({ path: 'gearing.pinionTeeth', a: 32, b: 34 })]);
     expect((await jonah.get(`/api/runs/compare?a=${a}&b=${b}`)).status).toBe(404);
+  });
+
+  /** Our CSV with some columns dropped, or the throttle held at one value. */
+  function reshape(csv: string, opts: { keep: string[]; flatThrottle?: number }) {
+    const [head, ...rows] = csv.trim().split('\n');
+    const cols = head.split(',');
+    const idx = opts.keep.map((k) => cols.indexOf(k));
+    return [
+      opts.keep.join(','),
+      ...rows
+        .map((r) => r.split(','))
+        .map((c) => idx.map((i, j) => (opts.keep[j] === 'throttle_pct' && opts.flatThrottle !== undefined ? opts.flatThrottle : c[i])).join(',')),
+    ].join('\n');
+  }
+
+  it('falls back to motor speed, then to the first full throttle, then to the starts, and says which it used', async () => {
+    // No throttle in either run: the motor speed traces are matched instead.
+    const noThrottle = ['time_s', 'motor_rpm', 'current_a'];
+    const a = await uploadRun(rosa, { body: reshape(buildRunCsv({ idleS: 2 }), { keep: noThrottle }) });
+    const b = await uploadRun(rosa, { body: reshape(buildRunCsv({ idleS: 4, seed: 3 }), { keep: noThrottle }) });
+    const byRpm = (await rosa.get(`/api/runs/compare?a=${a}&b=${b}`)).body.data.alignment;
+    expect(byRpm).toMatchObject({ method: 'cross-correlation', channel: 'motor_rpm' });
+    expect(Math.abs(byRpm.offsetS - 2)).toBeLessThanOrEqual(0.1); // 2 s more idling (simulator input)
+
+    // b's throttle never moves (held at 100 %): no correlation is defined, so the first sustained full throttle is used.
+    const all = ['time_s', 'throttle_pct', 'current_a'];
+    const c = await uploadRun(rosa, { body: reshape(buildRunCsv({ idleS: 2 }), { keep: all }) });
+    const d = await uploadRun(rosa, { body: reshape(buildRunCsv({ idleS: 2 }), { keep: all, flatThrottle: 100 }) });
+    const byMark = (await rosa.get(`/api/runs/compare?a=${c}&b=${d}`)).body.data.alignment;
+    expect(byMark).toMatchObject({ method: 'full-throttle', channel: 'throttle_pct', correlation: null });
+    expect(byMark.offsetS).toBeCloseTo(byMark.bAtS - byMark.aAtS, 9);
+    expect(byMark.bAtS).toBe(0); // full from the first row
+
+    // Only current in one run: nothing to match and no full throttle there, so the starts line up.
+    const e = await uploadRun(rosa, { body: reshape(buildRunCsv({ idleS: 2 }), { keep: ['time_s', 'current_a'] }) });
+    const byStart = (await rosa.get(`/api/runs/compare?a=${c}&b=${e}`)).body.data.alignment;
+    expect(byStart).toMatchObject({ method: 'start', offsetS: 0, channel: null, bAtS: null });
   });
 });
 

@@ -5,7 +5,7 @@ import type { AppContext } from '../../context';
 import { SetupEntity } from '../setups/setup.entity';
 import { loadSettingLibrary, namesOf } from '../setups/service';
 import { presentRunListItem } from './presenter';
-import { fullThrottleMark, getRun, runLabels } from './service';
+import { alignRuns, getRun, runLabels } from './service';
 
 /** The figures compared side by side, in the order the screen lists them. */
 export const COMPARED_FIGURES = [
@@ -26,9 +26,9 @@ export const COMPARED_FIGURES = [
 ] as const satisfies ReadonlyArray<keyof RunSummary>;
 
 /**
- * Two runs side by side: figures with b − a, the offset that lines b's first sustained full throttle up with a's
- * (0 and `start` when either run never holds full throttle), and the setup fields that differ when both runs are
- * attached to setups of the caller's own.
+ * Two runs side by side: figures with b − a, the offset that lines b up on a (see {@link alignRuns}: by
+ * cross-correlation of a trace both runs have, else their first sustained full throttle, else their starts), and
+ * the setup fields that differ when both runs are attached to setups of the caller's own.
  */
 export async function compareRuns(ctx: AppContext, user: { id: string } | null, aId: string, bId: string): Promise<RunCompare> {
   const [a, b] = [await getRun(ctx.dataSource, user, aId), await getRun(ctx.dataSource, user, bId)];
@@ -40,11 +40,7 @@ export async function compareRuns(ctx: AppContext, user: { id: string } | null, 
     const vb = sb[key] as number | null;
     return { key, a: va, b: vb, delta: va !== null && vb !== null ? vb - va : null };
   });
-  const [aAt, bAt] = [await fullThrottleMark(ctx, a), await fullThrottleMark(ctx, b)];
-  const alignment =
-    aAt !== null && bAt !== null
-      ? { offsetS: bAt - aAt, method: 'full-throttle' as const, aAtS: aAt, bAtS: bAt }
-      : { offsetS: 0, method: 'start' as const, aAtS: aAt, bAtS: bAt };
+  const alignment = await alignRuns(ctx, a, b);
 
   let settings: RunCompare['settings'] = [];
   let settingsNote: string | null = null;

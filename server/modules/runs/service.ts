@@ -3,11 +3,12 @@ import { computeRunFigures, withRunContext, type RunContext, type RunFigures } f
 import { encodeColumnar, decodeColumnar } from '../../../shared/runlog/columnar';
 import { proposeMapping, type RunMapping } from '../../../shared/runlog/mapping';
 import { parseTable } from '../../../shared/runlog/parse';
+import { crossCorrelationOffset } from '../../../shared/runlog/align';
 import { bucketMinMax, firstSustainedFullThrottle } from '../../../shared/runlog/series';
 import { readTable } from '../../../shared/runlog/table';
 import { RUNLOG_LIMITS, VALUE_CHANNELS } from '../../../shared/runlog/vocabulary';
 import type { SetupRecord } from '../../../shared/schemas/setup-record';
-import type { RunPatch, RunPreview } from '../../../shared/schemas/run';
+import type { RunCompare, RunPatch, RunPreview } from '../../../shared/schemas/run';
 import type { AppContext } from '../../context';
 import { AppError, notFound, validationFailed } from '../../lib/errors';
 import { newStorageKey } from '../../lib/storage';
@@ -211,8 +212,29 @@ export async function runSeries(ctx: AppContext, row: RunEntity, points: number)
   return { ...bucketMinMax(cols.time, cols.channels, points), points, sampleCount: cols.time.length };
 }
 
-/** Where the run's first sustained full throttle is, in seconds from its start (null when it never holds it). */
-export async function fullThrottleMark(ctx: AppContext, row: RunEntity) {
-  const cols = await loadColumns(ctx, row);
-  return firstSustainedFullThrottle(cols.time, cols.channels.throttle_pct);
+/** The traces tried for cross-correlation, in order: the first both runs carry is used. */
+const ALIGN_CHANNELS = ['throttle_pct', 'motor_rpm'] as const;
+
+/**
+ * The offset (s) that lines run b up on run a, and how it was found: by cross-correlating the throttle (or, when
+ * a run has no throttle, the motor speed) traces when both runs carry one and they match well enough; else
+ * by their first sustained full throttle; else 0 (their starts). The full-throttle marks are always reported.
+ */
+export async function alignRuns(ctx: AppContext, a: RunEntity, b: RunEntity): Promise<RunCompare['alignment']> {
+  const [ca, cb] = [await loadColumns(ctx, a), await loadColumns(ctx, b)];
+  const aAtS = firstSustainedFullThrottle(ca.time, ca.channels.throttle_pct);
+  const bAtS = firstSustainedFullThrottle(cb.time, cb.channels.throttle_pct);
+  const channel = ALIGN_CHANNELS.find((c) => ca.channels[c] && cb.channels[c]);
+  const found = channel ? crossCorrelationOffset({ time: ca.time, values: ca.channels[channel]! }, { time: cb.time, values: cb.channels[channel]! }) : null;
+  if (channel && found)
+    return {
+      offsetS: Math.round(found.offsetS * 1000) / 1000,
+      method: 'cross-correlation',
+      channel,
+      correlation: Math.round(found.correlation * 1000) / 1000,
+      aAtS,
+      bAtS,
+    };
+  if (aAtS !== null && bAtS !== null) return { offsetS: bAtS - aAtS, method: 'full-throttle', channel: 'throttle_pct', correlation: null, aAtS, bAtS };
+  return { offsetS: 0, method: 'start', channel: null, correlation: null, aAtS, bAtS };
 }

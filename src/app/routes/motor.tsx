@@ -98,7 +98,7 @@ function MotorDetail({ id }: { id: string }) {
               Add a check
             </h2>
             <Card className="p-4">
-              <CheckForm motorId={id} onAdded={() => toast.success('Check saved')} />
+              <CheckForm motorId={id} poles={m.poles} onAdded={() => toast.success('Check saved')} />
             </Card>
           </div>
           <div className="flex flex-col gap-4">

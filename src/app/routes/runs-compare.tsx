@@ -4,11 +4,20 @@ import { useSearchParams } from 'react-router-dom';
 import { Card, PageHeader, Spinner } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
+import type { RunCompare } from '@shared/schemas/run';
 import { runQueries } from '@/features/runs/api/runs';
 import { CompareFigures } from '@/features/runs/components/compare-figures';
 import { RunCharts } from '@/features/runs/components/run-charts';
 
-/** "Did my change help?": two runs overlaid on one time axis, aligned on the first sustained full throttle. */
+/** How the offset was found, in words (the method is the server's; see alignRuns). */
+function alignmentMethod(al: RunCompare['alignment']): string {
+  if (al.method === 'cross-correlation')
+    return `matched ${al.channel === 'motor_rpm' ? 'motor speed' : 'throttle'} traces by cross-correlation, r = ${(al.correlation ?? 0).toFixed(2)}`;
+  if (al.method === 'full-throttle') return 'first sustained full throttle: the throttle traces did not match well enough';
+  return 'run starts: no trace to match and one run never held full throttle';
+}
+
+/** "Did my change help?": two runs overlaid on one time axis, lined up by matching their throttle traces. */
 export function RunsComparePage() {
   const [params, setParams] = useSearchParams();
   const a = params.get('a') ?? '';
@@ -40,8 +49,8 @@ export function RunsComparePage() {
   return (
     <>
       <PageHeader eyebrow="Run logs" title="Compare two runs">
-        Pick the run before a change (A) and the one after it (B). B is shifted so both runs&apos; first sustained full throttle line up; nudge the offset if
-        another moment lines up better.
+        Pick the run before a change (A) and the one after it (B). B is shifted so the two throttle traces line up best (cross-correlation), or on their first
+        sustained full throttle when the traces do not match; nudge the offset if another moment lines up better.
       </PageHeader>
       <Card className="mb-6 grid gap-3 p-4 sm:grid-cols-2">
         {(['a', 'b'] as const).map((key) => (
@@ -70,8 +79,8 @@ export function RunsComparePage() {
           <section aria-label="Overlaid charts" className="min-w-0">
             <div className="mb-2 flex flex-wrap items-center gap-2 text-sm" data-testid="alignment">
               <span>
-                B shifted by <strong className="tabular-nums">{offset.toFixed(2)} s</strong> (
-                {compare.data.alignment.method === 'full-throttle' ? 'first sustained full throttle' : 'run starts: one run never held full throttle'})
+                B shifted by <strong className="tabular-nums">{offset.toFixed(2)} s</strong> ({alignmentMethod(compare.data.alignment)}
+                {nudge !== 0 && `, nudged ${nudge > 0 ? '+' : '−'}${Math.abs(nudge).toFixed(1)} s`})
               </span>
               {[-1, -0.1, 0.1, 1].map((d) => (
                 <Button key={d} size="sm" variant="secondary" type="button" onClick={() => setNudge((n) => Math.round((n + d) * 100) / 100)}>

@@ -7,12 +7,15 @@ import type { User } from '@shared/schemas/user';
 import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';
 import { firstName } from '@/lib/names';
 import { navExtras } from './nav-extras';
+import { NotebookMenu } from './notebook-menu';
 
 type NavItem = { to: string; label: string; min?: Role };
+/** `notebook` stands for the Notebook entry (setups, run logs, motors), drawn by {@link NotebookMenu}. */
+const NOTEBOOK = 'notebook';
 const NAV: NavItem[] = [
   { to: '/parameters', label: 'Parameters' },
   { to: '/guides', label: 'Guides' },
-  { to: '/setups', label: 'Setups' },
+  { to: NOTEBOOK, label: 'Notebook' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/me/revisions', label: 'Workbench', min: 'member' },
   { to: '/review', label: 'Review', min: 'moderator' },
@@ -137,19 +140,23 @@ export function AppLayout() {
             aria-label="Main"
             className={`${menuOpen ? 'flex' : 'hidden'} w-full flex-col gap-1 md:flex md:w-auto md:flex-row md:items-center`}
           >
-            {items.map((n) => (
-              <NavLink
-                key={n.to}
-                to={n.to}
-                onClick={() => setMenuOpen(false)}
-                className={({ isActive }) =>
-                  `rounded-md px-2 py-1.5 text-sm font-medium no-underline md:px-1.5 ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`
-                }
-              >
-                {n.label}
-                {n.to === '/review' && Badge && <Badge />}
-              </NavLink>
-            ))}
+            {items.map((n) =>
+              n.to === NOTEBOOK ? (
+                <NotebookMenu key={n.to} onNavigate={() => setMenuOpen(false)} />
+              ) : (
+                <NavLink
+                  key={n.to}
+                  to={n.to}
+                  onClick={() => setMenuOpen(false)}
+                  className={({ isActive }) =>
+                    `rounded-md px-2 py-1.5 text-sm font-medium no-underline md:px-1 ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`
+                  }
+                >
+                  {n.label}
+                  {n.to === '/review' && Badge && <Badge />}
+                </NavLink>
+              ),
+            )}
           </nav>
           {/* The search box stays in view on a phone (one tap away on every page); the account links fold into the menu. */}
           <div className="flex w-full flex-col gap-3 sm:flex-row sm:items-center md:ml-auto md:w-auto">

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { electricalToMechanicalDeg } from '@shared/calc/electrical-degrees';
 import { BENCH_READINGS, MAX_REPEATS, QUANTITY_INFO, type BenchReading } from '@shared/motors/quantities';
 import { Button } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
@@ -30,8 +31,29 @@ function errorFor(fe: Record<string, string>, q: string): string | undefined {
   return fe[q] ?? fe[`readings.${q}`] ?? Object.entries(fe).find(([k]) => k.startsWith(`readings.${q}.`))?.[1];
 }
 
+const degFmt = (n: number) => n.toLocaleString('en-GB', { maximumFractionDigits: 2 });
+
+/**
+ * The timing field's hint: the bench reads electrical degrees; as soon as a reading is typed, its mechanical
+ * equivalent on this motor's rotor (the endbell's degrees) through the shared degrees calculator.
+ */
+function TimingHint({ text, poles }: { text: string; poles: number }) {
+  const parsed = parseRepeats(text);
+  const readings = Array.isArray(parsed) ? parsed : [];
+  return (
+    <>
+      <span className="block">{HINTS.timingDeg}</span>
+      <output className="mt-0.5 block font-medium text-ink-soft" data-testid="timing-mechanical" aria-live="polite">
+        {readings.length > 0
+          ? `${readings.map(degFmt).join(', ')}° electrical = ${readings.map((d) => degFmt(electricalToMechanicalDeg(d, poles))).join(', ')}° mechanical (endbell) on this ${poles}-pole rotor`
+          : `Mechanical (endbell) degrees = electrical ÷ ${poles / 2} on this ${poles}-pole rotor.`}
+      </output>
+    </>
+  );
+}
+
 /** Adds a bench check; each reading takes one value or up to five repeats separated by spaces. */
-export function CheckForm({ motorId, onAdded }: { motorId: string; onAdded?: () => void }) {
+export function CheckForm({ motorId, poles, onAdded }: { motorId: string; poles: number; onAdded?: () => void }) {
   const add = useAddCheck(motorId);
   const [v, setV] = useState<Values>(empty);
   const [errors, setErrors] = useState<Record<string, string>>({});
@@ -81,12 +103,16 @@ export function CheckForm({ motorId, onAdded }: { motorId: string; onAdded?: () 
           <TextField
             key={q}
             name={q}
-            label={`${QUANTITY_INFO[q].label} (${QUANTITY_INFO[q].unit})`}
+            label={
+              q === 'timingDeg'
+                ? `${QUANTITY_INFO[q].label}, electrical degrees (${QUANTITY_INFO[q].unit})`
+                : `${QUANTITY_INFO[q].label} (${QUANTITY_INFO[q].unit})`
+            }
             inputMode="decimal"
             value={v[q]}
             onChange={(e) => setV({ ...v, [q]: e.target.value })}
             error={errors[q]}
-            hint={HINTS[q]}
+            hint={q === 'timingDeg' ? <TimingHint text={v[q]} poles={poles} /> : HINTS[q]}
           />
         ))}
         <TextField

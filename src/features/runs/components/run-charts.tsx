@@ -30,8 +30,9 @@ const fmt = (v: number | null | undefined, digits = 1) =>
 
 /**
  * Stacked charts on one time axis: each bucket's high and low drawn as a band (so no peak is lost), one cursor
- * across all panels with the values under it, drag to zoom, buttons to zoom and pan. A second run (compare)
- * is drawn in grey, shifted by its offset.
+ * across all panels with the values under it, drag to zoom, buttons to zoom and pan, and on a touch screen
+ * pinch to zoom and a sideways swipe to pan (every panel follows). A second run (compare) is drawn in grey,
+ * shifted by its offset.
  */
 export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: number) => number) | null }) {
   const charts = useRef<uPlot[]>([]);
@@ -101,10 +102,20 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
     [runs, base, road],
   );
 
+  // The whole run's span, read through a ref so the touch handlers attached at creation always see the current one.
+  const spanRef = useRef(span);
+  spanRef.current = span;
+
   const register = useCallback(
     (u: uPlot) => {
       charts.current.push(u);
+      const detach = attachTouch(
+        u,
+        (min, max) => setXRef.current(min, max),
+        () => spanRef.current,
+      );
       return () => {
+        detach();
         charts.current = charts.current.filter((c) => c !== u);
       };
     },
@@ -116,6 +127,8 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
     for (const c of charts.current) c.setScale('x', { min, max });
     syncing.current = false;
   };
+  const setXRef = useRef(setX);
+  setXRef.current = setX;
   const view = () => {
     const s = charts.current[0]?.scales.x;
     return s && s.min !== undefined && s.max !== undefined ? [s.min, s.max] : span;
@@ -159,9 +172,12 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
           hooks: {
             setScale: [
               (u, key) => {
-                if (key !== 'x' || syncing.current) return;
+                if (key !== 'x') return;
                 const { min, max } = u.scales.x;
                 if (min === undefined || max === undefined) return;
+                // The stretch in view, on the chart's element: lets a test (or a person's dev tools) see that every panel agrees.
+                u.root.dataset.view = `${min.toFixed(3)}–${max.toFixed(3)}`;
+                if (syncing.current) return;
                 syncing.current = true;
                 for (const c of charts.current) if (c !== u) c.setScale('x', { min, max });
                 syncing.current = false;
@@ -210,9 +226,9 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
           ▶
         </Button>
         <Button size="sm" variant="ghost" type="button" onClick={() => setX(span[0], span[1])}>
-          Whole run
+          Reset zoom
         </Button>
-        <span className="text-xs text-ink-muted">Drag across a chart to zoom to that stretch.</span>
+        <span className="text-xs text-ink-muted">Drag across a chart to zoom to that stretch; on a touch screen, pinch to zoom and swipe sideways to pan.</span>
       </div>
       <div
         className="sticky top-0 z-10 rounded-md border border-ink/15 bg-paper-card px-3 py-2 text-xs tabular-nums"
@@ -249,6 +265,80 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
       ))}
     </div>
   );
+}
+
+/** The narrowest stretch of time a pinch may zoom to, in seconds. */
+const MIN_SPAN_S = 0.25;
+
+/** Clamps a view [min, max] inside the run's span, keeping its width (or the whole span when wider). */
+function clampView(min: number, max: number, span: number[]): [number, number] {
+  const full = span[1] - span[0];
+  let w = Math.max(Math.min(max - min, full), Math.min(MIN_SPAN_S, full));
+  if (!(w > 0)) w = full;
+  let lo = min + (max - min - w) / 2;
+  lo = Math.max(span[0], Math.min(span[1] - w, lo));
+  return [lo, lo + w];
+}
+
+/**
+ * Touch on a chart: two fingers pinch-zoom the time axis, keeping the moments under the fingers under them;
+ * one finger swiped sideways pans. A vertical swipe is left to the page (CSS touch-action: pan-y), so the page
+ * still scrolls past the charts. `setX` moves every panel together.
+ */
+function attachTouch(u: uPlot, setX: (min: number, max: number) => void, span: () => number[]) {
+  const el = u.over;
+  el.style.touchAction = 'pan-y';
+  type Start = { min: number; max: number; xs: number[]; vals: number[]; mode: 'pending' | 'pan' | 'pinch' | 'scroll'; y0: number };
+  let start: Start | null = null;
+  const px = (t: Touch) => t.clientX - el.getBoundingClientRect().left;
+  const begin = (e: TouchEvent) => {
+    const { min, max } = u.scales.x;
+    if (min === undefined || max === undefined) return;
+    const xs = Array.from(e.touches, px);
+    start = { min, max, xs, vals: xs.map((x) => u.posToVal(x, 'x')), mode: e.touches.length >= 2 ? 'pinch' : 'pending', y0: e.touches[0].clientY };
+  };
+  const onStart = (e: TouchEvent) => {
+    if (e.touches.length <= 2) begin(e);
+  };
+  const onMove = (e: TouchEvent) => {
+    if (!start) return;
+    const width = u.over.clientWidth || 1;
+    if (start.mode === 'pinch' && e.touches.length >= 2) {
+      e.preventDefault();
+      const [q1, q2] = [px(e.touches[0]), px(e.touches[1])];
+      if (Math.abs(q2 - q1) < 10 || Math.abs(start.xs[1] - start.xs[0]) < 10) return;
+      const slope = (start.vals[1] - start.vals[0]) / (q2 - q1);
+      if (!(slope > 0)) return;
+      const lo = start.vals[0] - q1 * slope;
+      setX(...clampView(lo, lo + width * slope, span()));
+      return;
+    }
+    if (e.touches.length !== 1) return;
+    const dx = px(e.touches[0]) - start.xs[0];
+    const dy = e.touches[0].clientY - start.y0;
+    if (start.mode === 'pending' && Math.hypot(dx, dy) > 8) start.mode = Math.abs(dx) > Math.abs(dy) ? 'pan' : 'scroll';
+    if (start.mode !== 'pan') return;
+    e.preventDefault();
+    const shift = (-dx * (start.max - start.min)) / width;
+    setX(...clampView(start.min + shift, start.max + shift, span()));
+  };
+  const onEnd = (e: TouchEvent) => {
+    // Lifting one finger of a pinch continues as a pan from where the view is now.
+    if (e.touches.length === 1 && start?.mode === 'pinch') {
+      begin(e);
+      if (start) start.mode = 'pan';
+    } else if (!e.touches.length) start = null;
+  };
+  el.addEventListener('touchstart', onStart, { passive: true });
+  el.addEventListener('touchmove', onMove, { passive: false });
+  el.addEventListener('touchend', onEnd);
+  el.addEventListener('touchcancel', onEnd);
+  return () => {
+    el.removeEventListener('touchstart', onStart);
+    el.removeEventListener('touchmove', onMove);
+    el.removeEventListener('touchend', onEnd);
+    el.removeEventListener('touchcancel', onEnd);
+  };
 }
 
 /** Index of the bucket time in a sorted list equal to t (within a millisecond), or -1. */
