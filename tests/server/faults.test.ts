@@ -141,7 +141,7 @@ describe('PostgreSQL restarts in the middle of load', () => {
     // No connection is reset, not even at the instant PostgreSQL goes away. (One or two used to be: a session
     // save failing after the answer went to Express's final handler, which destroyed the kept-alive socket.)
     if (socketErrors.length) console.log(`faults: ${socketErrors.length} socket errors: ${socketErrors.map((e) => e.message).join('; ')}`);
-    expect(app.child.exitCode).toBeNull();
+    expect(app.child.exitCode, `the app exited; its last words:\n${app.output().split('\n').slice(-40).join('\n')}`).toBeNull();
     expect(socketErrors.map((e) => e.message)).toEqual([]);
     expect(slowest).toBeLessThan(5000);
     const fivehundreds = seen.filter((s) => s.status >= 500 && s.status !== 503);
