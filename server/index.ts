@@ -12,6 +12,7 @@ import type { AppContext } from './context';
 import { warmBodyDiffWorker } from './modules/revisions/body-diff-pool';
 import { IMAGE_KEYS_SQL, IMAGE_SWEEP_GRACE_MS, sweepImages } from './modules/images/sweep';
 import { startDigests } from './modules/watches/service';
+import { isConnectionLoss } from './lib/connection-loss';
 
 // Every key a row still points at: uploaded setups, run logs' raw files and columns, and each stored width of an image.
 const REFERENCED_KEYS_SQL = `SELECT storage_key FROM setups WHERE storage_key = ANY($1) UNION SELECT raw_key FROM runs WHERE raw_key = ANY($1) UNION SELECT data_key FROM runs WHERE data_key = ANY($1) UNION ${IMAGE_KEYS_SQL}`;
@@ -19,6 +20,21 @@ const REFERENCED_KEYS_SQL = `SELECT storage_key FROM setups WHERE storage_key = 
 async function main() {
   const config = loadConfig();
   const logger = createLogger(config.logLevel);
+  process.on('unhandledRejection', (reason) => {
+    // A promise nobody awaited: the request it belonged to has already been answered or timed out.
+    logger.error({ err: reason instanceof Error ? { message: reason.message, stack: reason.stack } : String(reason) }, 'unhandled promise rejection');
+  });
+  process.on('uncaughtException', (err, origin) => {
+    if (isConnectionLoss(err)) {
+      logger.error(
+        { err: { message: err.message, code: (err as { code?: string }).code, stack: err.stack }, origin },
+        'a database connection was lost; carrying on',
+      );
+      return;
+    }
+    logger.fatal({ err: { message: err.message, stack: err.stack }, origin }, 'uncaught exception; stopping');
+    process.exit(1);
+  });
   const dataSource = createDataSource(config.databaseUrl);
   await dataSource.initialize();
   const storage = createStorage(config.storage);

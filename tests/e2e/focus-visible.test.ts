@@ -12,6 +12,10 @@ async function tabThrough(path: string, width: number, stops = 30): Promise<Stop
   const page = await context.newPage();
   await page.goto(`${suite.server.baseUrl}${path}`);
   await waitForApp(page);
+  // Tab only once the page's own content is there: under load a lazily loaded page can still be on its way when the
+  // app has started, and Tab would then walk the header alone.
+  await page.locator('main h1').first().waitFor({ timeout: 30_000 });
+  if (path.startsWith('/calculators/')) await page.locator('main input').first().waitFor({ timeout: 30_000 });
   const seen: Stop[] = [];
   for (let i = 0; i < stops; i++) {
     await page.keyboard.press('Tab');

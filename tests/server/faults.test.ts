@@ -44,15 +44,18 @@ describe('PostgreSQL restarts in the middle of load', () => {
     ds = createDataSource(cluster.urlFor('faults'), { poolMax: 2 });
     await ds.initialize();
     await ds.runMigrations();
-    app = await startAppProcess({
-      NODE_ENV: 'test',
-      LOG_LEVEL: 'error',
-      DATABASE_URL: cluster.urlFor('faults'),
-      SMTP_URL: 'smtp://127.0.0.1:1',
-      OUTBOX_INTERVAL_MS: '60000',
-      RATE_LIMIT_AUTH_PER_15MIN: '100000',
-    });
-  }, 60_000);
+    app = await startAppProcess(
+      {
+        NODE_ENV: 'test',
+        LOG_LEVEL: 'error',
+        DATABASE_URL: cluster.urlFor('faults'),
+        SMTP_URL: 'smtp://127.0.0.1:1',
+        OUTBOX_INTERVAL_MS: '60000',
+        RATE_LIMIT_AUTH_PER_15MIN: '100000',
+      },
+      { readyTimeoutMs: 90_000 },
+    );
+  }, 120_000);
 
   afterAll(async () => {
     await app?.stop();
@@ -143,7 +146,10 @@ describe('PostgreSQL restarts in the middle of load', () => {
     if (socketErrors.length) console.log(`faults: ${socketErrors.length} socket errors: ${socketErrors.map((e) => e.message).join('; ')}`);
     expect(app.child.exitCode, `the app exited; its last words:\n${app.output().split('\n').slice(-40).join('\n')}`).toBeNull();
     expect(socketErrors.map((e) => e.message)).toEqual([]);
-    expect(slowest).toBeLessThan(5000);
+    // Fast while it is down (a refused connection, not a hang). Outside the outage a sign-up's password hash on a
+    // machine busy with the rest of the suite can take seconds; the 10 s client timeout above bounds those.
+    const slowestDuring = during.reduce<Seen | null>((a, s) => (a && a.ms >= s.ms ? a : s), null);
+    expect(slowestDuring?.ms ?? 0, JSON.stringify(slowestDuring)).toBeLessThan(5000);
     const fivehundreds = seen.filter((s) => s.status >= 500 && s.status !== 503);
     if (fivehundreds.length)
       console.log(
