@@ -7,9 +7,9 @@ export const ROLE_LABELS: Record<Role, string> = { member: 'Member', moderator: 
 
 /** What each role may do, one line each (shown where an administrator changes a role). */
 export const ROLE_DESCRIPTIONS: Record<Role, string> = {
-  member: 'writes guides and proposes edits; keeps a private notebook',
-  moderator: 'also reviews, publishes, restores and hides content; reads the audit log',
-  admin: 'also changes roles and disables accounts',
+  member: 'can write guides, propose edits and keep a private notebook',
+  moderator: 'can also review, publish, restore and hide content, and read the audit log',
+  admin: 'can also change roles and disable accounts',
 };
 
 /** Rank of each role, so policies can ask "at least moderator". */
