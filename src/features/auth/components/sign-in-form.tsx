@@ -19,21 +19,17 @@ export function SignInForm() {
   const resend = useResendVerification();
   const [formError, setFormError] = useState<string | null>(null);
   const [unverified, setUnverified] = useState(false);
-  const [disabled, setDisabled] = useState(false);
   const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
 
   const handleSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     setUnverified(false);
-    setDisabled(false);
     try {
       const user = await signIn.mutateAsync(values);
       toast.success(`Signed in as ${user.displayName}`);
       navigate(safeNext(params.get('next')), { replace: true });
     } catch (err) {
       if (err instanceof ApiError && err.code === 'email_unverified') setUnverified(true);
-      // Only ever answered after the right password, so it tells the account holder and nobody else.
-      if (err instanceof ApiError && err.code === 'account_disabled') setDisabled(true);
       setFormError(applyServerErrors(err, form.setError, ['email', 'password']));
     }
   });
@@ -47,7 +43,7 @@ export function SignInForm() {
   return (
     <form onSubmit={handleSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       {formError && (
-        <Notice tone="danger" title={disabled ? 'This account is disabled' : 'Could not sign in'}>
+        <Notice tone="danger" title="Could not sign in">
           {formError}
           {unverified && (
             <div className="mt-2">
