@@ -82,7 +82,7 @@ describe('administration and the audit log in Chromium', () => {
     expect(await notice.textContent()).not.toMatch(/disabled/i);
     await phone.getByLabel('Password').fill(account('mira').password);
     await phone.getByRole('button', { name: 'Sign in' }).click();
-    await notice.getByText(/^This account is disabled, so it cannot sign in\./).waitFor();
+    await notice.getByText(/This account is disabled, so it cannot sign in\./).waitFor();
     await screenshot(phone, 'sign-in-disabled-390');
     expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
     expect(errors.flat()).toEqual([]);

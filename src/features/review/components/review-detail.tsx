@@ -109,8 +109,12 @@ function GoesLive({ detail, firstApproval }: { detail: Detail; firstApproval: bo
         )}
       </p>
       <ul className="list-disc pl-5 text-ink-soft">
-        <li>{fields.length === 0 ? 'No details change besides the text.' : `Changed details: ${fields.join(', ')}.`}</li>
-        <li>{textChanges === 0 ? 'The text is unchanged.' : `The text changes in ${textChanges} ${textChanges === 1 ? 'place' : 'places'}.`}</li>
+        {live && (
+          <>
+            <li>{fields.length === 0 ? 'No details change besides the text.' : `Changed details: ${fields.join(', ')}.`}</li>
+            <li>{textChanges === 0 ? 'The text is unchanged.' : `The text changes in ${textChanges} ${textChanges === 1 ? 'place' : 'places'}.`}</li>
+          </>
+        )}
         {detail.setupChanges && (
           <li>
             {setupChanges === 0 ? 'The setup record is unchanged.' : `${setupChanges} setup-record ${setupChanges === 1 ? 'field changes' : 'fields change'}.`}
