@@ -2,6 +2,16 @@
 export const ROLES = ['member', 'moderator', 'admin'] as const;
 export type Role = (typeof ROLES)[number];
 
+/** Roles in our words, for every screen and mail that names one (the stored values stay as they are). */
+export const ROLE_LABELS: Record<Role, string> = { member: 'Member', moderator: 'Moderator', admin: 'Administrator' };
+
+/** What each role may do, one line each (shown where an administrator changes a role). */
+export const ROLE_DESCRIPTIONS: Record<Role, string> = {
+  member: 'can write guides, propose edits and keep a private notebook',
+  moderator: 'can also review, publish, restore and hide content, and read the audit log',
+  admin: 'can also change roles and disable accounts',
+};
+
 /** Rank of each role, so policies can ask "at least moderator". */
 export const ROLE_RANK: Record<Role, number> = { member: 1, moderator: 2, admin: 3 };
 

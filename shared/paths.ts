@@ -14,6 +14,7 @@ export const PAGE_PATTERNS = {
   resetPassword: '/reset-password',
   account: '/account',
   adminUsers: '/admin/users',
+  audit: '/audit',
   parameters: '/parameters',
   parameter: '/parameters/:slug',
   parameterEdit: '/parameters/:slug/edit',

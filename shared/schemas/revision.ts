@@ -63,6 +63,8 @@ export const revisionHistoryItemSchema = z.object({
   note: z.string(),
   baseNumber: z.number().int().nullable(),
   restoredFromNumber: z.number().int().nullable(),
+  /** The moderator who brought an older version back (the author stays the one who wrote it). */
+  restoredBy: personSchema.nullable(),
   createdAt: z.string(),
   submittedAt: z.string().nullable(),
   publishedAt: z.string().nullable(),
@@ -242,6 +244,12 @@ export const unhideDocumentSchema = z.strictObject({ reason: z.string().trim().m
 /** POST …/restore */
 export const restoreRevisionSchema = z.strictObject({
   number: z.number({ message: 'Give the version number to restore' }).int().positive(),
+  /** Why: kept in the audit log and sent to the author of the restored version. */
+  reason: z
+    .string({ message: 'Say why this version is restored' })
+    .trim()
+    .min(10, 'Say why this version is restored (at least 10 characters): the author is told')
+    .max(1000, 'Use at most 1,000 characters'),
   note: noteSchema.optional(),
 });
 

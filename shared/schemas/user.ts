@@ -67,6 +67,18 @@ export const adminUserQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(10_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 });
+/** Why an administrator changes a role or disables an account: kept in the audit log. */
+export const adminReasonSchema = z
+  .string({ message: 'Give a reason' })
+  .trim()
+  .min(5, 'Give a reason (at least 5 characters): it is kept in the audit log')
+  .max(500, 'Use at most 500 characters');
+
 export const adminUserPatchSchema = z
-  .object({ role: roleSchema.optional(), disabled: z.boolean().optional() })
-  .refine((v) => v.role !== undefined || v.disabled !== undefined, { message: 'Send a role or disabled' });
+  .object({ role: roleSchema.optional(), disabled: z.boolean().optional(), reason: adminReasonSchema.optional() })
+  .refine((v) => v.role !== undefined || v.disabled !== undefined, { message: 'Send a role or disabled' })
+  // Enabling an account again needs no reason; every other change does.
+  .refine((v) => v.reason !== undefined || (v.role === undefined && v.disabled !== true), {
+    message: 'Give a reason for a role change or for disabling an account: it is kept in the audit log',
+    path: ['reason'],
+  });

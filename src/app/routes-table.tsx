@@ -62,6 +62,7 @@ export const routes: RouteObject[] = [
           { path: routePath('resetPassword'), lazy: () => import('./routes/auth-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
           { path: routePath('account'), lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountPage })) },
           { path: routePath('adminUsers'), lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
+          { path: routePath('audit'), lazy: () => import('./routes/audit').then((m) => ({ Component: m.AuditPage })) },
           { path: routePath('parameters'), lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParametersPage })) },
           { path: routePath('parameter'), loader: parameterLoader, lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParameterPage })) },
           { path: routePath('calculators'), lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorsPage })) },

@@ -93,12 +93,24 @@ export async function submitWithNote(page: Page, note: string) {
   await dialog.getByRole('button', { name: 'Submit' }).click();
 }
 
+/**
+ * On the review screen: presses the publish (or approve) button, then confirms in the dialog that says
+ * what will go live, and waits for the dialog to close. `button` is the decision button's exact name.
+ */
+export async function confirmPublish(page: Page, button = 'Publish') {
+  await page.getByRole('button', { name: button, exact: true }).click();
+  const dialog = page.getByRole('dialog', { name: /^(Publish this version|Approve and publish|Record your approval)\?$/ });
+  await dialog.getByTestId('goes-live').waitFor({ timeout: 20_000 });
+  await dialog.getByRole('button', { name: /^(Publish now|Approve and publish now|Record my approval)$/ }).click();
+  await dialog.waitFor({ state: 'hidden', timeout: 20_000 });
+}
+
 /** The moderator publishes the proposal titled `title` from the review queue. */
 export async function publishFromQueue(page: Page, baseUrl: string, title: string) {
   await page.goto(`${baseUrl}/review`);
   await page.getByRole('link', { name: title }).click();
   await page.getByRole('heading', { name: title, level: 1 }).waitFor();
-  await page.getByRole('button', { name: 'Publish' }).click();
+  await confirmPublish(page);
   await page.waitForURL(`${baseUrl}/review`);
 }
 

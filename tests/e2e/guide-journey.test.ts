@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { revealWorkedExamples, screenshot, waitForApp, watchPageErrors } from '../setup/browser';
-import { signedInPage, waitSaved } from './guide-helpers';
+import { confirmPublish, signedInPage, waitSaved } from './guide-helpers';
 import { browserSuite } from '../setup/browser-suite';
 
 const suite = browserSuite();
@@ -66,7 +66,15 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await owen.getByRole('heading', { name: 'Changed text' }).waitFor();
     expect(await owen.locator('ins').count()).toBeGreaterThan(0); // a new guide: all of it is added
     await screenshot(owen, 'guides-review-new');
-    await owen.getByRole('button', { name: 'Publish' }).click();
+    // Publishing asks first, saying what goes live; Escape goes back without publishing.
+    await owen.getByRole('button', { name: 'Publish', exact: true }).click();
+    const confirm = owen.getByRole('dialog', { name: 'Publish this version?' });
+    await confirm.getByText(/goes live as a new guide/).waitFor();
+    await screenshot(owen, 'guides-review-confirm-publish');
+    await owen.keyboard.press('Escape');
+    await confirm.waitFor({ state: 'hidden' });
+    expect(owen.url()).toContain('/review/');
+    await confirmPublish(owen);
     await owen.waitForURL(`${suite.server.baseUrl}/review`);
 
     // A visitor finds and reads it.
@@ -108,7 +116,7 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await expect.poll(() => owen.locator('del').allTextContents()).toEqual(expect.arrayContaining([expect.stringContaining('light')]));
     await owen.getByRole('button', { name: 'Side by side' }).click();
     await screenshot(owen, 'guides-review-edit');
-    await owen.getByRole('button', { name: 'Publish' }).click();
+    await confirmPublish(owen);
     await owen.waitForURL(`${suite.server.baseUrl}/review`);
 
     // The visitor reads version 2 and compares it with version 1.

@@ -85,12 +85,16 @@ describe('withdraw, restore and hide in Chromium', () => {
     await history.getByRole('button', { name: 'Restore version 1' }).click();
     const dialog = owen.getByRole('dialog', { name: 'Restore version 1?' });
     await dialog.getByText(/current live version 4 becomes superseded/).waitFor();
+    // A restore needs a reason: without one it says so and restores nothing.
+    await dialog.getByRole('button', { name: 'Publish a copy of version 1' }).click();
+    await dialog.getByText(/Say why this version is restored/).waitFor();
+    await dialog.getByLabel('Reason').fill('Version 4 lost the warm-up caution');
     await owen.screenshot({ path: screenshotPath('guides-restore-dialog') }); // the viewport: the dialog sits where the history is
     await dialog.getByRole('button', { name: 'Publish a copy of version 1' }).click();
     await owen.getByText('Version 1 restored as version 5').waitFor();
     await expect
       .poll(() => owen.getByTestId('version-line').textContent())
-      .toMatch(/^Version 5, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
+      .toMatch(/^Version 5, published on .+ by Mira Quillon · restores version 1, brought back by Owen Saltmarsh$/);
 
     const after = await revisionsOf(db(), slug);
     expect(after.map((r) => [r.number, r.state, r.restoredFromNumber])).toEqual([
@@ -101,7 +105,20 @@ describe('withdraw, restore and hide in Chromium', () => {
       [5, 'published', 1],
     ]);
     expect(after[4].content).toEqual(before[0].content);
-    expect(after[4]).toMatchObject({ authorEmail: 'owen@tidewater.test', note: 'Restored version 1', baseNumber: 4 });
+    // Still credited to Mira, who wrote version 1; Owen is named as the one who brought it back.
+    expect(before[0].authorEmail).toBe('mira@tidewater.test');
+    expect(after[4]).toMatchObject({ authorEmail: 'mira@tidewater.test', note: 'Restored version 1', baseNumber: 4 });
+    // Mira is told, with Owen's reason.
+    await expect
+      .poll(
+        async () => {
+          const res = await owen.request.get(`${suite.server.baseUrl}/api/dev/mail?to=mira@tidewater.test`);
+          const mails = (await res.json()).data as Array<{ subject: string; text: string }>;
+          return mails.find((m) => m.subject.startsWith('Your version is live again'))?.text ?? '';
+        },
+        { timeout: 30_000 },
+      )
+      .toMatch(/Owen Saltmarsh restored your version 1[\s\S]*Version 4 lost the warm-up caution/);
     expect((await documentOf(db(), slug)).publishedRevisionId).toBe(after[4].id);
 
     // A visitor reads version 5 with version 1's text, and sees in the line and the history what it is.
@@ -110,7 +127,7 @@ describe('withdraw, restore and hide in Chromium', () => {
     await visitor.goto(`${suite.server.baseUrl}/guides/${slug}`);
     await expect
       .poll(() => visitor.getByTestId('version-line').textContent())
-      .toMatch(/^Version 5, published on .+ · restores version 1, brought back by Owen Saltmarsh$/);
+      .toMatch(/^Version 5, published on .+ by Mira Quillon · restores version 1, brought back by Owen Saltmarsh$/);
     await visitor.getByText(v1Line).first().waitFor();
     const row5 = visitor
       .getByRole('region', { name: 'History' })

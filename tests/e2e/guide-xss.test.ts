@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core';
 import { createClient } from '../setup/test-app';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
 import { screenshot, waitForApp } from '../setup/browser';
-import { signedInPage } from './guide-helpers';
+import { confirmPublish, signedInPage } from './guide-helpers';
 import { XSS_CORPUS, collectDialogs, readXssFlag, strictDomScan } from '../setup/xss';
 import { browserSuite } from '../setup/browser-suite';
 
@@ -99,7 +99,7 @@ describe('XSS corpus through guide bodies, rendered in Chromium', () => {
     expect(result).toEqual({ flag: null, dialogs: [], dom: [], url: `${suite.server.baseUrl}/review/${revisionId}` });
     // Publish it so readers can reach it.
     await owen.goto(`${suite.server.baseUrl}/review/${revisionId}`);
-    await owen.getByRole('button', { name: 'Publish' }).click();
+    await confirmPublish(owen);
     await owen.waitForURL(`${suite.server.baseUrl}/review`);
   }, 90_000);
 

@@ -3,7 +3,7 @@ import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
 import { screenshot, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 import { createClient } from '../setup/test-app';
-import { revisionsOf, signedInPage } from './guide-helpers';
+import { confirmPublish, revisionsOf, signedInPage } from './guide-helpers';
 
 const suite = browserSuite();
 
@@ -34,7 +34,7 @@ describe('two moderators in Chromium', () => {
     const why = owen.getByRole('note').filter({ hasText: 'Needs two moderators' });
     await why.getByText(/Makes the gearing 8\.3\d* % taller/).waitFor();
     await why.getByText('No approvals yet.').waitFor();
-    await owen.getByRole('button', { name: 'Approve (1 of 2)' }).click();
+    await confirmPublish(owen, 'Approve (1 of 2)');
     await why.getByText(/^Approved by Owen Saltmarsh/).waitFor();
     expect(await owen.getByRole('button', { name: /Approve/ }).isDisabled()).toBe(true); // the same moderator twice is not two
     await screenshot(owen, 'review-two-moderators-first-1366');
@@ -44,7 +44,7 @@ describe('two moderators in Chromium', () => {
     await priya.getByRole('heading', { name: title, level: 1 }).waitFor();
     await priya.getByText(/^Approved by Owen Saltmarsh/).waitFor();
     await screenshot(priya, 'review-two-moderators-second-390');
-    await priya.getByRole('button', { name: 'Approve and publish (2 of 2)' }).click();
+    await confirmPublish(priya, 'Approve and publish (2 of 2)');
     await priya.waitForURL(`${suite.server.baseUrl}/review`);
     const after = (await revisionsOf(suite.server.t.db.dataSource, slug)).find((r) => r.id === id)!;
     expect(after.state).toBe('published');

@@ -759,7 +759,12 @@ const scenarios: Record<string, Scenario[]> = {
     {
       label: 'an administrator changing their own role',
       ownerRole: 'admin',
-      arrange: async (w) => ({ method: 'patch', url: `/api/admin/users/${w.owner.user.id}`, body: { role: 'moderator' }, snapshot: userRow(w.owner.user.id) }),
+      arrange: async (w) => ({
+        method: 'patch',
+        url: `/api/admin/users/${w.owner.user.id}`,
+        body: { role: 'moderator', reason: 'Covers the spring series reviews' },
+        snapshot: userRow(w.owner.user.id),
+      }),
       // Another administrator may; the account holder may not (an admin can never lock the last admin out).
       expect: { admin: ok((res, _a, w) => expect(res.body.data.user).toMatchObject({ id: w.owner.user.id, role: 'moderator' })) },
     },

@@ -35,7 +35,9 @@ describe('GET /api/changes and GET /changes.atom', () => {
     const edit = await proposeEdit(author, slugA, { summary: 'Softer punch for the second heat, with a little more drag brake.' });
     expect((await author.post(`/api/revisions/${edit.id}/submit`, { note: 'Punch down a step for heat two' })).status).toBe(200);
     expect((await mod.post(`/api/reviews/${edit.id}/publish`)).status).toBe(200);
-    expect((await mod.post(`/api/guides/${slugA}/restore`, { number: 1, note: 'Back to the first text' })).status).toBe(201);
+    expect((await mod.post(`/api/guides/${slugA}/restore`, { number: 1, reason: 'The edit lost the clay notes', note: 'Back to the first text' })).status).toBe(
+      201,
+    );
     ({ slug: hiddenSlug } = await createPublishedGuide(other, mod, { title: 'Guide with copied text' }));
     expect((await mod.post(`/api/guides/${hiddenSlug}/hide`, { reason: 'Copied from a printed manual' })).status).toBe(200);
   });

@@ -26,7 +26,7 @@ export function adminService(ctx: AppContext) {
     },
 
     /** Changes role and/or disabled state in one transaction, with an audit row for each change. */
-    async updateUser(actorId: string, id: string, patch: { role?: Role; disabled?: boolean }) {
+    async updateUser(actorId: string, id: string, patch: { role?: Role; disabled?: boolean; reason?: string }) {
       if (id === actorId)
         throw new AppError(409, 'cannot_change_self', 'You cannot change your own role or disable your own account. Ask another administrator.');
       return ctx.dataSource.transaction(async (m) => {
@@ -35,7 +35,16 @@ export function adminService(ctx: AppContext) {
         if (!user) throw notFound('That account');
         const audit = m.getRepository(AuditLogEntity);
         if (patch.role && patch.role !== user.role) {
-          await audit.insert({ actorId, action: 'user.role', subjectKind: 'user', subjectId: id, from: user.role, to: patch.role, reason: null, meta: {} });
+          await audit.insert({
+            actorId,
+            action: 'user.role',
+            subjectKind: 'user',
+            subjectId: id,
+            from: user.role,
+            to: patch.role,
+            reason: patch.reason ?? null,
+            meta: {},
+          });
           user.role = patch.role;
         }
         if (patch.disabled !== undefined && patch.disabled !== (user.disabledAt !== null)) {
@@ -46,7 +55,7 @@ export function adminService(ctx: AppContext) {
             subjectId: id,
             from: user.disabledAt ? 'disabled' : 'active',
             to: patch.disabled ? 'disabled' : 'active',
-            reason: null,
+            reason: patch.reason ?? null,
             meta: {},
           });
           user.disabledAt = patch.disabled ? new Date() : null;

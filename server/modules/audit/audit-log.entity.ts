@@ -31,6 +31,10 @@ export class AuditLogEntity {
   @Column({ type: 'jsonb', default: {} })
   meta: Record<string, unknown>;
 
+  /** Running number: orders rows written in one transaction (they share created_at). Set by the database. */
+  @Column({ type: 'bigint', insert: false, update: false, select: false })
+  seq: string;
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt: Date;
 }

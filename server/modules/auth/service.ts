@@ -84,14 +84,24 @@ export function authService(ctx: AppContext) {
       });
     },
 
-    /** Checks credentials; the same answer for an unknown e-mail and a wrong password. */
+    /**
+     * Checks credentials; the same answer for an unknown e-mail and a wrong password. A disabled account
+     * is told so (403 account_disabled) only after the right password: to anyone else it answers like
+     * any wrong password, so the state of an account is not disclosed.
+     */
     async authenticate(email: string, password: string) {
       // Counted before the password is checked, for every address alike (see sign-in-throttle.ts).
       await throttle().reserve(email);
       const user = await users().findOne({ where: { email } });
       const ok = await verifyPassword(password, user?.passwordHash ?? (await dummyHash(ctx.config.bcryptCost)));
-      if (!user || !ok || user.disabledAt) throw new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an account.');
+      if (!user || !ok) throw new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an account.');
       await throttle().clear(email);
+      if (user.disabledAt)
+        throw new AppError(
+          403,
+          'account_disabled',
+          'This account is disabled, so it cannot sign in. If you think this is a mistake, write to the site administrators.',
+        );
       if (!user.emailVerifiedAt)
         throw new AppError(403, 'email_unverified', 'Confirm your e-mail address first: open the link we sent you, or ask for a new one.');
       return user;

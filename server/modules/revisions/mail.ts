@@ -52,3 +52,21 @@ export function returnedMail(to: { email: string; displayName: string }, a: Abou
     { label: 'Open your revision', url: `${a.appUrl}${paths.editor(a.kind, a.slug, a.revisionId, a.isNew)}` },
   );
 }
+
+/** To the author of an older version when a moderator restores it: it is live again, still credited to them. */
+export function restoredMail(
+  to: { email: string; displayName: string },
+  a: About & { restoredFromNumber: number; restorerName: string; reason: string },
+): MailMessage {
+  return compose(
+    to.email,
+    `Your version is live again: ${a.title}`,
+    'Your earlier version was restored',
+    [
+      `Hello ${to.displayName},`,
+      `${a.restorerName} restored your version ${a.restoredFromNumber} of "${a.title}". It is live again as version ${a.number}, credited to you.`,
+      `Their reason: ${a.reason}`,
+    ],
+    { label: 'Read it', url: `${a.appUrl}${paths.documentVersion(a.kind, a.slug, a.number)}` },
+  );
+}

@@ -47,6 +47,7 @@ export function presentHistoryItem(v: RevisionView): RevisionHistoryItem {
     note: v.rev.note,
     baseNumber: v.baseNumber,
     restoredFromNumber: v.rev.restoredFromNumber,
+    restoredBy: v.rev.restoredFromNumber != null ? v.reviewer : null,
     createdAt: v.rev.createdAt.toISOString(),
     submittedAt: iso(v.rev.submittedAt),
     publishedAt: iso(v.rev.publishedAt),

@@ -27,6 +27,8 @@ import { presentDocumentStatus, presentHistoryItem, presentMyRevision, presentRe
 import { revisionService } from './service';
 import { checkRevisionContent } from './checks';
 import { contentCheckSchema, reviewApprovalSchema } from '../../../shared/schemas/content-check';
+import { hiddenDocumentSchema } from '../../../shared/schemas/audit';
+import { hiddenDocuments } from './hidden';
 
 const revisionIdParam = z.object({ id: z.uuid({ message: 'Must be a revision id' }) });
 const reviewIdParam = z.object({ revisionId: z.uuid({ message: 'Must be a revision id' }) });
@@ -108,7 +110,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
     defineRoute({
       method: 'post',
       path: `${base}/restore`,
-      summary: `Restore an older version of a ${noun} as a new live revision (moderator)`,
+      summary: `Restore an older version of a ${noun} as a new live revision, with a reason (moderator); it stays credited to that version's author, who is told`,
       tags: [tag, 'revisions', 'reviews'],
       access: 'moderator',
       params: slugOnly,
@@ -116,7 +118,7 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
       status: 201,
       response: revisionEnvelope,
       handler: async ({ params, body, user, ctx }) => ({
-        data: { revision: presentRevision(await revisionService(ctx).restore(user, kind, params.slug, body.number, body.note)) },
+        data: { revision: presentRevision(await revisionService(ctx).restore(user, kind, params.slug, body.number, body.reason, body.note)) },
       }),
     }),
     ...([true, false] as const).map((hide) =>
@@ -140,6 +142,18 @@ function documentRevisionRoutes(kind: DocumentKind): RouteDef[] {
 
 export const revisionRoutes: RouteDef[] = [
   ...DOCUMENT_KINDS.flatMap(documentRevisionRoutes),
+  defineRoute({
+    method: 'get',
+    path: '/api/hidden',
+    summary: 'Guides and parameter entries hidden from readers, most recently hidden first, with who hid them and why (moderators)',
+    tags: ['reviews'],
+    access: 'moderator',
+    response: z.array(hiddenDocumentSchema),
+    handler: async ({ ctx }) => {
+      const rows = await hiddenDocuments(ctx);
+      return { data: rows, meta: { total: rows.length } };
+    },
+  }),
   defineRoute({
     method: 'get',
     path: '/api/revisions/:id',

@@ -30,7 +30,8 @@ export function revisionService(ctx: AppContext) {
     withdraw: (actor: Member, id: string) => withdraw(ctx, actor, id),
     publish: (actor: Member, id: string) => publish(ctx, actor, id),
     returnRevision: (actor: Member, id: string, reason: string) => returnRevision(ctx, actor, id, reason),
-    restore: (actor: Member, kind: DocumentKind, slug: string, number: number, note?: string) => restore(ctx, actor, kind, slug, number, note),
+    restore: (actor: Member, kind: DocumentKind, slug: string, number: number, reason: string, note?: string) =>
+      restore(ctx, actor, kind, slug, number, reason, note),
     setHidden: (actor: Member, kind: DocumentKind, slug: string, hide: boolean, reason: string | null) => setHidden(ctx, actor, kind, slug, hide, reason),
     ...revisionQueries(ctx),
   };

@@ -30,7 +30,7 @@ export type LiveChange = {
 /**
  * Tells the watchers of a document that it changed, inside the transaction of the change: a mail each
  * for those who want them at once, a digest row for the daily ones. The person who made the change,
- * and the author of a newly published version (who has their own "now live" mail), are not told. A
+ * and the author of a newly published or restored version (who has their own mail), are not told. A
  * hide also sends the document's author a notice with the reason, watching or not.
  */
 export async function notifyWatchers(ctx: AppContext, m: EntityManager, e: LiveChange) {
@@ -54,7 +54,11 @@ export async function notifyWatchers(ctx: AppContext, m: EntityManager, e: LiveC
     pageUrl: e.action === 'hidden' ? page : `${page}${doc.kind === 'guide' ? `/v/${rev.number}` : ''}`,
     at: new Date().toISOString(),
   };
-  const skip = new Set([e.actorId, ...(e.action === 'published' ? [rev.authorId] : []), ...(e.action === 'hidden' && doc.createdBy ? [doc.createdBy] : [])]);
+  const skip = new Set([
+    e.actorId,
+    ...(e.action === 'published' || e.action === 'restored' ? [rev.authorId] : []),
+    ...(e.action === 'hidden' && doc.createdBy ? [doc.createdBy] : []),
+  ]);
   const rows: Array<{ id: string; email: string; display_name: string; delivery: string | null }> = await m.query(
     `SELECT u.id, u.email, u.display_name, p.delivery
        FROM watches w

@@ -80,7 +80,11 @@ describe('POST /api/parameters/:slug/restore, /hide and /unhide', () => {
     const draft = await proposeEdit(member, 'soft-start', { summary: 'A changed summary that the moderator will later roll back again.' }, 'parameters');
     await member.post(`/api/revisions/${draft.id}/submit`, { note: 'Summary change' });
     await mod.post(`/api/reviews/${draft.id}/publish`);
-    const restored = await mod.post('/api/parameters/soft-start/restore', { number: 1, note: 'The earlier summary was clearer' });
+    const restored = await mod.post('/api/parameters/soft-start/restore', {
+      number: 1,
+      reason: 'The newer summary dropped the caution',
+      note: 'The earlier summary was clearer',
+    });
     expect(restored.status).toBe(201);
     expect(restored.body.data.revision).toMatchObject({ number: 3, restoredFromNumber: 1, note: 'The earlier summary was clearer', state: 'published' });
 

@@ -272,27 +272,57 @@ describe('POST /api/reviews/:revisionId/return', () => {
 });
 
 describe('POST /api/guides/:slug/restore', () => {
+  const why = 'The new layout dropped the clay notes';
   it('creates a new live revision copying an older one, noting which, and archives the current', async () => {
     const { slug, revisionId: v1 } = await createPublishedGuide(author, mod, { body: 'Original body from the first layout.' });
-    const edit = await proposeEdit(author, slug, { body: 'Body for the new layout.' });
-    await author.post(`/api/revisions/${edit.id}/submit`, { note: 'New layout' });
+    // The version that gets superseded is someone else's, so the credit is seen to follow the restored text.
+    const edit = await proposeEdit(other, slug, { body: 'Body for the new layout.' });
+    await other.post(`/api/revisions/${edit.id}/submit`, { note: 'New layout' });
     await mod.post(`/api/reviews/${edit.id}/publish`);
 
-    expect((await author.post(`/api/guides/${slug}/restore`, { number: 1 })).status).toBe(403);
-    expect((await mod.post(`/api/guides/${slug}/restore`, { number: 2 })).body.error.code).toBe('already_live');
-    expect((await mod.post(`/api/guides/${slug}/restore`, { number: 99 })).status).toBe(404);
+    expect((await author.post(`/api/guides/${slug}/restore`, { number: 1, reason: why })).status).toBe(403);
+    expect((await mod.post(`/api/guides/${slug}/restore`, { number: 2, reason: why })).body.error.code).toBe('already_live');
+    expect((await mod.post(`/api/guides/${slug}/restore`, { number: 99, reason: why })).status).toBe(404);
+    // A restore needs a reason: none, or one too short to say anything, is refused and changes nothing.
+    for (const body of [{ number: 1 }, { number: 1, reason: '   short ' }]) {
+      const refused = await mod.post(`/api/guides/${slug}/restore`, body);
+      expect(refused.status).toBe(400);
+      expect(refused.body.error.details.map((d: { path: string }) => d.path)).toEqual(['body.reason']);
+    }
+    expect(await stateOf(edit.id)).toBe('published');
 
-    const res = await mod.post(`/api/guides/${slug}/restore`, { number: 1 });
+    const res = await mod.post(`/api/guides/${slug}/restore`, { number: 1, reason: why });
     expect(res.status).toBe(201);
     expect(res.body.data.revision).toMatchObject({ number: 3, state: 'published', restoredFromNumber: 1, note: 'Restored version 1', baseNumber: 2 });
     expect(res.body.data.revision.content.body).toBe('Original body from the first layout.');
+    // Credited to whoever wrote version 1; the moderator who brought it back is its reviewer.
+    expect(res.body.data.revision.author).toEqual({ id: authorUser.id, displayName: authorUser.displayName });
+    expect(res.body.data.revision.reviewedBy).toEqual({ id: modUser.id, displayName: modUser.displayName });
     expect(await stateOf(edit.id)).toBe('archived');
     expect(await stateOf(v1)).toBe('archived');
     const live = await visitor.get(`/api/guides/${slug}`);
     expect(live.body.data.guide.version).toBe(3);
     expect(live.body.data.revision.content.body).toBe('Original body from the first layout.');
+    const history = (await visitor.get(`/api/guides/${slug}/revisions`)).body.data as Array<{ number: number; author: { id: string }; restoredBy: unknown }>;
+    expect(history.find((h) => h.number === 3)).toMatchObject({
+      author: { id: authorUser.id },
+      restoredBy: { id: modUser.id, displayName: modUser.displayName },
+    });
+    expect(history.find((h) => h.number === 2)?.restoredBy).toBeNull();
     const row = (await auditFor(res.body.data.revision.id))[0];
-    expect([row.action, row.to_value, row.actor_id, row.meta.restoredFromNumber]).toEqual(['revision.restore', 'published', modUser.id, 1]);
+    expect([row.action, row.to_value, row.actor_id, row.reason, row.meta.restoredFromNumber, row.meta.authorId]).toEqual([
+      'revision.restore',
+      'published',
+      modUser.id,
+      why,
+      1,
+      authorUser.id,
+    ]);
+    // The author of version 1 is told, with the reason and who restored it.
+    const mail = await t.waitForMail(authorUser.email, /live again/);
+    expect(mail.text).toContain(`${modUser.displayName} restored your version 1`);
+    expect(mail.text).toContain(why);
+    expect(mail.text).toContain(`/guides/${slug}/v/3`);
   });
 });
 

@@ -5,12 +5,19 @@ import { notFound } from '../../../lib/errors';
 import { DocumentEntity } from '../document.entity';
 import { mayRestore } from '../policy';
 import { RevisionEntity } from '../revision.entity';
-import { afterCommit, audit, check, inDocumentTx, nextNumber, revMeta, type Member } from '../transition';
+import { activeUser, afterCommit, audit, check, inDocumentTx, nextNumber, revMeta, type Member } from '../transition';
+import { titleOf } from '../content';
+import { restoredMail } from '../mail';
+import { UserEntity } from '../../auth/user.entity';
 import { view } from '../views';
 import { notifyWatchers } from '../../watches/notify';
 
-/** A new live revision copying an older one's content (restored_from_number says which); the current one is archived. */
-export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, number: number, note?: string) {
+/**
+ * A new live revision copying an older one's content (restored_from_number says which); the current one
+ * is archived. The copy stays credited to the older version's author (the words are theirs) and names
+ * the moderator who brought it back as its reviewer; the reason goes to the audit log and to that author.
+ */
+export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind, slug: string, number: number, reason: string, note?: string) {
   const v = await inDocumentTx(ctx, kind, slug, async (m, doc) => {
     const target = await m.getRepository(RevisionEntity).findOneBy({ documentId: doc.id, number });
     if (!target) throw notFound(`Version ${number}`);
@@ -34,7 +41,7 @@ export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind
         documentId: doc.id,
         number: await nextNumber(m, doc.id),
         baseRevisionId: current?.id ?? null,
-        authorId: actor.id,
+        authorId: target.authorId,
         state: 'published',
         note: note?.trim() || `Restored version ${target.number}`,
         content: target.content,
@@ -54,10 +61,30 @@ export async function restore(ctx: AppContext, actor: Member, kind: DocumentKind
       subjectId: rev.id,
       from: null,
       to: 'published',
-      meta: revMeta(doc, rev, { restoredFromNumber: target.number }),
+      reason,
+      meta: revMeta(doc, rev, { restoredFromNumber: target.number, authorId: target.authorId }),
     });
     await notifyDocumentChanged(m, { kind, documentId: doc.id, slug, action: 'restored' });
     await notifyWatchers(ctx, m, { doc, revision: rev, action: 'restored', actorId: actor.id });
+    // The author of the restored words hears it from us directly, watching or not (the watch mail skips them).
+    const author = target.authorId !== actor.id ? await activeUser(m, target.authorId) : null;
+    if (author) {
+      const restorer = await m.getRepository(UserEntity).findOneBy({ id: actor.id });
+      await ctx.mailer.send(
+        restoredMail(author, {
+          appUrl: ctx.config.appUrl,
+          kind,
+          slug,
+          title: titleOf(rev),
+          number: rev.number,
+          revisionId: rev.id,
+          restoredFromNumber: target.number,
+          restorerName: restorer?.displayName ?? 'A moderator',
+          reason,
+        }),
+        m,
+      );
+    }
     return view(m, rev, { ...doc, publishedRevisionId: rev.id });
   });
   afterCommit(ctx, { kind, slug });

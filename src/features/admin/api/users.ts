@@ -18,7 +18,7 @@ export const adminUserQueries = {
 export function useUpdateUser() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async ({ id, ...patch }: { id: string; role?: Role; disabled?: boolean }) =>
+    mutationFn: async ({ id, ...patch }: { id: string; role?: Role; disabled?: boolean; reason?: string }) =>
       (await api.patch<Envelope<{ user: AdminUser }>>(`/api/admin/users/${id}`, patch)).data.user,
     onSuccess: () => qc.invalidateQueries({ queryKey: adminUserQueries.all() }),
   });

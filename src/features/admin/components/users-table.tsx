@@ -2,11 +2,14 @@ import { useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { toast } from 'sonner';
-import { ROLES, type Role } from '@shared/constants';
+import { ROLE_DESCRIPTIONS, ROLE_LABELS, ROLES, type Role } from '@shared/constants';
 import type { AdminUser, User } from '@shared/schemas/user';
 import { Button } from '@/components/ui/button';
 import { Chip, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { Dialog } from '@/components/ui/dialog';
+import { TextAreaField } from '@/components/ui/field';
+import { ApiError } from '@/lib/api-client';
 import { useDebouncedValue } from '@/lib/use-debounced-value';
 import { adminUserQueries, useUpdateUser } from '../api/users';
 
@@ -20,21 +23,43 @@ export function UsersTable({ me }: { me: User }) {
   const list = useQuery(adminUserQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
   const update = useUpdateUser();
 
-  const handleChange = async (user: AdminUser, patch: { role?: Role; disabled?: boolean }) => {
-    if (patch.disabled && !window.confirm(`Disable ${user.displayName}? They are signed out everywhere at once and cannot sign in until enabled again.`))
-      return;
+  // A role change or a disabling waits here for its reason; enabling again happens at once.
+  const [pending, setPending] = useState<{ user: AdminUser; role?: Role; disabled?: boolean } | null>(null);
+  const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState<string>();
+
+  const ask = (user: AdminUser, patch: { role?: Role; disabled?: boolean }) => {
+    setReason('');
+    setReasonError(undefined);
+    setPending({ user, ...patch });
+  };
+
+  const apply = async (user: AdminUser, patch: { role?: Role; disabled?: boolean; reason?: string }) => {
     try {
       await update.mutateAsync({ id: user.id, ...patch });
       toast.success(
         patch.role
-          ? `${user.displayName} is now ${patch.role}`
+          ? `${user.displayName} is now ${ROLE_LABELS[patch.role].toLowerCase()}`
           : patch.disabled
             ? `${user.displayName} is disabled and signed out`
             : `${user.displayName} is enabled`,
       );
+      return true;
     } catch (err) {
-      toast.error((err as Error).message);
+      if (err instanceof ApiError && err.fieldErrors.reason) setReasonError(err.fieldErrors.reason);
+      else toast.error((err as Error).message);
+      return false;
     }
+  };
+
+  const handleConfirm = async () => {
+    if (!pending) return;
+    if (reason.trim().length < 5) {
+      setReasonError('Give a reason (at least 5 characters): it is kept in the audit log.');
+      return;
+    }
+    const { user, ...patch } = pending;
+    if (await apply(user, { ...patch, reason: reason.trim() })) setPending(null);
   };
 
   const columns = useMemo(
@@ -51,11 +76,11 @@ export function UsersTable({ me }: { me: User }) {
               className="rounded border border-ink/25 bg-white/80 px-2 py-1 text-sm"
               value={u.role}
               disabled={u.id === me.id || update.isPending}
-              onChange={(e) => handleChange(u, { role: e.target.value as Role })}
+              onChange={(e) => ask(u, { role: e.target.value as Role })}
             >
               {ROLES.map((r) => (
                 <option key={r} value={r}>
-                  {r}
+                  {ROLE_LABELS[r]}
                 </option>
               ))}
             </select>
@@ -75,7 +100,7 @@ export function UsersTable({ me }: { me: User }) {
                   size="sm"
                   variant="secondary"
                   className={u.disabled ? '' : 'text-danger!'}
-                  onClick={() => handleChange(u, { disabled: !u.disabled })}
+                  onClick={() => (u.disabled ? apply(u, { disabled: false }) : ask(u, { disabled: true }))}
                   disabled={update.isPending}
                 >
                   {u.disabled ? 'Enable' : 'Disable'}
@@ -152,6 +177,49 @@ export function UsersTable({ me }: { me: User }) {
           </table>
         </div>
       )}
+      <Dialog
+        open={!!pending}
+        onClose={() => setPending(null)}
+        title={pending?.role ? `Change the role of ${pending.user.displayName}?` : `Disable ${pending?.user.displayName ?? ''}?`}
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setPending(null)}>
+              Cancel
+            </Button>
+            <Button variant={pending?.role ? 'primary' : 'danger'} onClick={handleConfirm} pending={update.isPending}>
+              {pending?.role ? `Make ${ROLE_LABELS[pending.role].toLowerCase()}` : 'Disable account'}
+            </Button>
+          </>
+        }
+      >
+        {pending && (
+          <div className="flex flex-col gap-3 text-sm">
+            {pending.role ? (
+              <p className="text-ink-soft">
+                From <strong>{ROLE_LABELS[pending.user.role]}</strong> to <strong>{ROLE_LABELS[pending.role]}</strong>:{' '}
+                {ROLE_LABELS[pending.role].toLowerCase()}s {ROLE_DESCRIPTIONS[pending.role]}.
+              </p>
+            ) : (
+              <p className="text-ink-soft">
+                They are signed out everywhere at once and cannot sign in until an administrator enables the account again. Their published work stays.
+              </p>
+            )}
+            <TextAreaField
+              label="Reason"
+              hint="Kept in the audit log, where moderators and administrators read it."
+              rows={3}
+              maxLength={500}
+              value={reason}
+              onChange={(e) => {
+                setReason(e.target.value);
+                setReasonError(undefined);
+              }}
+              error={reasonError}
+              required
+            />
+          </div>
+        )}
+      </Dialog>
       {pages > 1 && (
         <div className="flex items-center gap-3 text-sm">
           <Button size="sm" variant="secondary" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>

@@ -84,12 +84,12 @@ export function taxonomyName(list: TaxonomyEntry[] | undefined, slug: string) {
   return list?.find((e) => e.slug === slug)?.name ?? slug;
 }
 
-/** Moderator: publish a copy of an older revision as the new live one. */
+/** Moderator: publish a copy of an older revision as the new live one, with a reason its author is sent. */
 export function useRestoreRevision(slug: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (number: number) =>
-      (await api.post<Envelope<{ revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/restore`, { number })).data,
+    mutationFn: async ({ number, reason }: { number: number; reason: string }) =>
+      (await api.post<Envelope<{ revision: GuideRevision }>>(`/api/guides/${encodeURIComponent(slug)}/restore`, { number, reason })).data,
     onSuccess: () => qc.invalidateQueries({ queryKey: guideQueries.all() }),
   });
 }

@@ -65,10 +65,11 @@ export function GuideArticle({ revision, liveNumber, renderWorkedExample, parame
         <div className="flex flex-wrap items-center justify-between gap-3">
           <p className="text-sm text-ink-soft" data-testid="version-line">
             {isLive && revision.restoredFromNumber != null ? (
-              // A restore is a moderator's copy of older text: naming them as its author (and reviewer) would misattribute it.
+              // A restore copies older text: it stays credited to whoever wrote it, and says which moderator brought it back.
               <>
-                Version {revision.number}, published on {date} · restores version {revision.restoredFromNumber}, brought back by{' '}
-                <span className="font-medium text-ink">{revision.author.displayName}</span>
+                Version {revision.number}, published on {date} by <span className="font-medium text-ink">{revision.author.displayName}</span> · restores version{' '}
+                {revision.restoredFromNumber}
+                {revision.reviewedBy && <>, brought back by {revision.reviewedBy.displayName}</>}
               </>
             ) : isLive ? (
               <>

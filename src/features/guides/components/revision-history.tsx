@@ -6,7 +6,9 @@ import { REVISION_STATE_LABELS } from '@shared/constants';
 import { Button } from '@/components/ui/button';
 import { Spinner } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
+import { TextAreaField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { ApiError } from '@/lib/api-client';
 import { guideQueries, useRestoreRevision, type HistoryItem } from '../api/guides';
 import { formatDate } from '../lib/format';
 
@@ -87,7 +89,12 @@ function RowNote({ row }: { row: HistoryItem }) {
   return (
     <>
       {row.note || '—'}
-      {row.restoredFromNumber != null && <span className="block text-xs text-ink-muted">Restores version {row.restoredFromNumber}</span>}
+      {row.restoredFromNumber != null && (
+        <span className="block text-xs text-ink-muted">
+          Restores version {row.restoredFromNumber}
+          {row.restoredBy && <>, brought back by {row.restoredBy.displayName}</>}
+        </span>
+      )}
     </>
   );
 }
@@ -98,7 +105,14 @@ const rowDate = (r: HistoryItem) => formatDate(r.publishedAt ?? r.submittedAt ??
 export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: string; canModerate: boolean; currentNumber?: number }) {
   const revisions = useQuery(guideQueries.revisions(slug));
   const restore = useRestoreRevision(slug);
-  const [restoring, setRestoring] = useState<HistoryItem | null>(null);
+  const [restoring, setRestoringRow] = useState<HistoryItem | null>(null);
+  const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState<string>();
+  const setRestoring = (row: HistoryItem | null) => {
+    setRestoringRow(row);
+    setReason('');
+    setReasonError(undefined);
+  };
   if (revisions.isPending) return <Spinner label="Loading history…" />;
   if (revisions.isError)
     return (
@@ -111,12 +125,17 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
   const numbers = rows.map((r) => r.number).sort((a, b) => a - b);
   const handleRestore = async () => {
     if (!restoring) return;
+    if (reason.trim().length < 10) {
+      setReasonError('Say why this version is restored (at least 10 characters): its author is sent the reason.');
+      return;
+    }
     try {
-      const res = await restore.mutateAsync(restoring.number);
+      const res = await restore.mutateAsync({ number: restoring.number, reason: reason.trim() });
       toast.success(`Version ${restoring.number} restored as version ${res.revision.number}`);
       setRestoring(null);
     } catch (err) {
-      toast.error((err as Error).message);
+      if (err instanceof ApiError && err.fieldErrors.reason) setReasonError(err.fieldErrors.reason);
+      else toast.error((err as Error).message);
     }
   };
   return (
@@ -198,10 +217,30 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
           </>
         }
       >
-        <p className="text-sm text-ink-soft">
-          This publishes a new version with the text and details of version {restoring?.number}. The current live version {live?.number} becomes superseded;
-          nothing is deleted, and the history notes which version was restored.
-        </p>
+        <div className="flex flex-col gap-3">
+          <p className="text-sm text-ink-soft">
+            This publishes a new version with the text and details of version {restoring?.number}. The current live version {live?.number} becomes superseded;
+            nothing is deleted, and the history notes which version was restored.
+          </p>
+          {restoring && (
+            <p className="text-sm text-ink-soft">
+              It stays credited to {restoring.author.displayName}, who wrote version {restoring.number}; you are named as the moderator who brought it back.
+            </p>
+          )}
+          <TextAreaField
+            label="Reason"
+            hint={`Kept in the audit log and sent to ${restoring?.author.displayName ?? 'the author'}.`}
+            rows={3}
+            value={reason}
+            onChange={(e) => {
+              setReason(e.target.value);
+              setReasonError(undefined);
+            }}
+            error={reasonError}
+            maxLength={1000}
+            required
+          />
+        </div>
       </Dialog>
     </div>
   );

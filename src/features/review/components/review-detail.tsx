@@ -15,6 +15,7 @@ import { Markdown } from '@/lib/markdown';
 import { reviewQueries, usePublishRevision, useReturnRevision, type ReviewDetail as Detail, type SetupChange } from '../api/reviews';
 import { ContentChecks } from '@/components/ui/content-checks';
 import { ImageChanges } from './image-changes';
+import { FIELD_LABELS } from '@/components/diff/word-diff-view';
 
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
@@ -78,12 +79,65 @@ function Section({ id, title, children }: { id: string; title: string; children:
   );
 }
 
+/** What a publish puts in front of readers, said before the moderator confirms it. */
+function GoesLive({ detail, firstApproval }: { detail: Detail; firstApproval: boolean }) {
+  const { revision, live } = detail;
+  const title = String(revision.content.title ?? revision.content.name ?? 'Untitled');
+  const fields = (detail.changedFields ?? []).map((c) => (c as { label?: string }).label ?? FIELD_LABELS[c.field] ?? c.field);
+  const textChanges = (detail.bodyDiff ?? []).filter((p) => p.added || p.removed).length;
+  const setupChanges = detail.setupChanges?.length ?? 0;
+  const findings = detail.checks ?? [];
+  const errors = findings.filter((c) => c.severity === 'error').length;
+  return (
+    <div className="flex flex-col gap-3 text-sm" data-testid="goes-live">
+      <p>
+        {firstApproval ? (
+          <>
+            Your approval of version {revision.number} of <strong>{title}</strong> by {revision.author.displayName} is recorded. Nothing goes live yet: a second
+            moderator has to approve it too.
+          </>
+        ) : live ? (
+          <>
+            Readers will see version {revision.number} of <strong>{title}</strong> by {revision.author.displayName} in place of live version {live.number},
+            which becomes superseded. The author is told by e-mail.
+          </>
+        ) : (
+          <>
+            <strong>{title}</strong> by {revision.author.displayName} goes live as a new {revision.kind === 'guide' ? 'guide' : 'entry'}: readers can find it
+            and read it at once. The author is told by e-mail.
+          </>
+        )}
+      </p>
+      <ul className="list-disc pl-5 text-ink-soft">
+        {live && (
+          <>
+            <li>{fields.length === 0 ? 'No details change besides the text.' : `Changed details: ${fields.join(', ')}.`}</li>
+            <li>{textChanges === 0 ? 'The text is unchanged.' : `The text changes in ${textChanges} ${textChanges === 1 ? 'place' : 'places'}.`}</li>
+          </>
+        )}
+        {detail.setupChanges && (
+          <li>
+            {setupChanges === 0 ? 'The setup record is unchanged.' : `${setupChanges} setup-record ${setupChanges === 1 ? 'field changes' : 'fields change'}.`}
+          </li>
+        )}
+        <li>
+          {findings.length === 0
+            ? 'The automatic checks found nothing.'
+            : `The automatic checks found ${findings.length} ${findings.length === 1 ? 'thing' : 'things'}${errors ? `, ${errors} of them ${errors === 1 ? 'an error' : 'errors'}` : ''}: see “Automatic checks”.`}
+        </li>
+      </ul>
+      <p className="text-xs text-ink-muted">Press Escape or Cancel to go back without changing anything.</p>
+    </div>
+  );
+}
+
 function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: string }) {
   const navigate = useNavigate();
   const { revision } = detail;
   const publish = usePublishRevision(revision.id);
   const ret = useReturnRevision(revision.id);
   const [returning, setReturning] = useState(false);
+  const [confirming, setConfirming] = useState(false);
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string>();
   const [conflict, setConflict] = useState<string | null>(null);
@@ -91,7 +145,10 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   const waiting = revision.state === 'in_review';
   const approvedByMe = !!detail.approval?.approvals.some((a) => a.moderator.id === currentUserId) && waiting;
 
+  const twoStep = detail.approval?.needed === 2;
+  const firstApproval = twoStep && (detail.approval?.approvals.length ?? 0) === 0;
   const handlePublish = async () => {
+    setConfirming(false);
     try {
       const res = await publish.mutateAsync();
       if (res.approval) {
@@ -142,7 +199,7 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
       <SecondApproval approval={detail.approval} />
       <div className="flex flex-wrap gap-2">
         <Button
-          onClick={handlePublish}
+          onClick={() => setConfirming(true)}
           pending={publish.isPending}
           disabled={own || !waiting || detail.stale || approvedByMe}
           aria-describedby={own ? 'own-revision-why' : undefined}
@@ -164,6 +221,23 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
           Disabled because you are the author.
         </p>
       )}
+      <Dialog
+        open={confirming}
+        onClose={() => setConfirming(false)}
+        title={firstApproval ? 'Record your approval?' : twoStep ? 'Approve and publish?' : 'Publish this version?'}
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setConfirming(false)}>
+              Cancel
+            </Button>
+            <Button onClick={handlePublish} pending={publish.isPending}>
+              {firstApproval ? 'Record my approval' : twoStep ? 'Approve and publish now' : 'Publish now'}
+            </Button>
+          </>
+        }
+      >
+        <GoesLive detail={detail} firstApproval={firstApproval} />
+      </Dialog>
       <Dialog
         open={returning}
         onClose={() => setReturning(false)}
