@@ -105,6 +105,25 @@ describe('administration and the audit log in Chromium', () => {
     await item.getByText(/hidden .* by Priya Lockhart/).waitFor();
     const title = (await item.getByRole('link').textContent())!;
 
+    // Publishing asks first, saying what goes live; focus starts on Cancel, and Escape backs out.
+    const proposal = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
+    await owen.getByRole('link', { name: proposal }).click();
+    await owen.getByRole('heading', { name: proposal, level: 1 }).waitFor();
+    await owen.getByRole('button', { name: 'Publish', exact: true }).click();
+    const confirm = owen.getByRole('dialog', { name: 'Publish this version?' });
+    await confirm.getByText(/Readers will see version 4 of .+ by Rosa Kittering in place of live version 3/).waitFor();
+    await confirm.getByText(/The text changes in \d+ place/).waitFor();
+    await expect.poll(() => owen.evaluate(() => document.activeElement?.textContent)).toBe('Cancel');
+    await screenshot(owen, 'review-confirm-publish-1366');
+    await owen.keyboard.press('Escape');
+    await confirm.waitFor({ state: 'hidden' });
+    const [waiting] = await db().query(
+      `SELECT r.state FROM revisions r JOIN documents d ON d.id = r.document_id WHERE d.slug = 'stock-2wd-buggy-harbour-flats-clay' AND r.number = 4`,
+    );
+    expect(waiting).toEqual({ state: 'in_review' });
+    await owen.goto(`${suite.server.baseUrl}/review`);
+    await hidden.getByRole('listitem').filter({ hasText: reason }).waitFor();
+
     await owen.getByRole('link', { name: 'Audit log' }).click();
     await owen.waitForURL(`${suite.server.baseUrl}/audit`);
     await owen.getByRole('heading', { name: 'Audit log', level: 1 }).waitFor();
