@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
-import { screenshot, waitForApp, watchPageErrors } from '../setup/browser';
+import { screenshot, screenshotPath, waitForApp, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 import { createClient } from '../setup/test-app';
 import { documentOf, signedInPage } from './guide-helpers';
@@ -67,6 +67,16 @@ describe('administration and the audit log in Chromium', () => {
     const mira = await userState('mira@tidewater.test');
     expect(mira.disabledAt).not.toBeNull();
     expect(mira.audit).toEqual([{ action: 'user.disable', from: 'active', to: 'disabled', reason: 'Copied a printed manual into three guides' }]);
+
+    // The same dialog on a phone fits the width.
+    await nell.setViewportSize({ width: 390, height: 844 });
+    await nell.getByRole('row').filter({ hasText: 'rosa@tidewater.test' }).getByRole('button', { name: 'Disable' }).click();
+    const phoneDialog = nell.getByRole('dialog', { name: 'Disable Rosa Kittering?' });
+    await phoneDialog.getByLabel('Reason').waitFor();
+    expect(await phoneDialog.evaluate((el) => el.getBoundingClientRect().width)).toBeLessThanOrEqual(390);
+    await nell.screenshot({ path: screenshotPath('admin-disable-dialog-390') });
+    await nell.keyboard.press('Escape');
+    await phoneDialog.waitFor({ state: 'hidden' });
 
     // Mira, on her phone: a wrong password gets the usual answer; the right one says the account is disabled.
     const context = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
@@ -163,6 +173,10 @@ describe('administration and the audit log in Chromium', () => {
 
     // Back on the queue, "Show again" brings the guide back to readers.
     await owen.goto(`${suite.server.baseUrl}/review`);
+    await owen.setViewportSize({ width: 390, height: 844 });
+    await hidden.getByRole('button', { name: `Show “${title}” again` }).waitFor();
+    await hidden.screenshot({ path: screenshotPath('review-queue-hidden-390') });
+    await owen.setViewportSize({ width: 1366, height: 900 });
     await hidden.getByRole('button', { name: `Show “${title}” again` }).click();
     await owen.getByText(`“${title}” is visible to readers again`).waitFor();
     await expect.poll(() => hidden.getByRole('listitem').filter({ hasText: reason }).count()).toBe(0);
