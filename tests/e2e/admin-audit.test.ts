@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { DEMO_ACCOUNTS } from '../../server/db/demo-accounts';
-import { screenshot, waitForApp, watchPageErrors } from '../setup/browser';
+import { screenshot, screenshotPath, waitForApp, watchPageErrors } from '../setup/browser';
 import { browserSuite } from '../setup/browser-suite';
 import { createClient } from '../setup/test-app';
 import { documentOf, signedInPage } from './guide-helpers';
@@ -68,6 +68,16 @@ describe('administration and the audit log in Chromium', () => {
     expect(mira.disabledAt).not.toBeNull();
     expect(mira.audit).toEqual([{ action: 'user.disable', from: 'active', to: 'disabled', reason: 'Copied a printed manual into three guides' }]);
 
+    // The same dialog on a phone fits the width.
+    await nell.setViewportSize({ width: 390, height: 844 });
+    await nell.getByRole('row').filter({ hasText: 'rosa@tidewater.test' }).getByRole('button', { name: 'Disable' }).click();
+    const phoneDialog = nell.getByRole('dialog', { name: 'Disable Rosa Kittering?' });
+    await phoneDialog.getByLabel('Reason').waitFor();
+    expect(await phoneDialog.evaluate((el) => el.getBoundingClientRect().width)).toBeLessThanOrEqual(390);
+    await nell.screenshot({ path: screenshotPath('admin-disable-dialog-390') });
+    await nell.keyboard.press('Escape');
+    await phoneDialog.waitFor({ state: 'hidden' });
+
     // Mira, on her phone: a wrong password gets the usual answer; the right one says the account is disabled.
     const context = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
     const phone = await context.newPage();
@@ -104,6 +114,25 @@ describe('administration and the audit log in Chromium', () => {
     const item = hidden.getByRole('listitem').filter({ hasText: reason });
     await item.getByText(/hidden .* by Priya Lockhart/).waitFor();
     const title = (await item.getByRole('link').textContent())!;
+
+    // Publishing asks first, saying what goes live; focus starts on Cancel, and Escape backs out.
+    const proposal = 'Stock 2WD buggy on Harbour Flats clay, tight layout';
+    await owen.getByRole('link', { name: proposal }).click();
+    await owen.getByRole('heading', { name: proposal, level: 1 }).waitFor();
+    await owen.getByRole('button', { name: 'Publish', exact: true }).click();
+    const confirm = owen.getByRole('dialog', { name: 'Publish this version?' });
+    await confirm.getByText(/Readers will see version 4 of .+ by Rosa Kittering in place of live version 3/).waitFor();
+    await confirm.getByText(/The text changes in \d+ place/).waitFor();
+    await expect.poll(() => owen.evaluate(() => document.activeElement?.textContent)).toBe('Cancel');
+    await screenshot(owen, 'review-confirm-publish-1366');
+    await owen.keyboard.press('Escape');
+    await confirm.waitFor({ state: 'hidden' });
+    const [waiting] = await db().query(
+      `SELECT r.state FROM revisions r JOIN documents d ON d.id = r.document_id WHERE d.slug = 'stock-2wd-buggy-harbour-flats-clay' AND r.number = 4`,
+    );
+    expect(waiting).toEqual({ state: 'in_review' });
+    await owen.goto(`${suite.server.baseUrl}/review`);
+    await hidden.getByRole('listitem').filter({ hasText: reason }).waitFor();
 
     await owen.getByRole('link', { name: 'Audit log' }).click();
     await owen.waitForURL(`${suite.server.baseUrl}/audit`);
@@ -144,6 +173,10 @@ describe('administration and the audit log in Chromium', () => {
 
     // Back on the queue, "Show again" brings the guide back to readers.
     await owen.goto(`${suite.server.baseUrl}/review`);
+    await owen.setViewportSize({ width: 390, height: 844 });
+    await hidden.getByRole('button', { name: `Show “${title}” again` }).waitFor();
+    await hidden.screenshot({ path: screenshotPath('review-queue-hidden-390') });
+    await owen.setViewportSize({ width: 1366, height: 900 });
     await hidden.getByRole('button', { name: `Show “${title}” again` }).click();
     await owen.getByText(`“${title}” is visible to readers again`).waitFor();
     await expect.poll(() => hidden.getByRole('listitem').filter({ hasText: reason }).count()).toBe(0);
