@@ -139,5 +139,5 @@ describe('guide journey in Chromium: write, review, publish, read, edit, compare
     await screenshot(visitor, 'guides-compare-phone');
 
     expect([...rosaErrors, ...owenErrors, ...visitorErrors]).toEqual([]);
-  }, 120_000);
+  }, 180_000); // the whole author-to-reader journey, with two publish confirmations; like guide-merge and guide-returned
 });
