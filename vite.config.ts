@@ -180,8 +180,15 @@ export default defineConfig({
             // bookkeeping, constants). Small files on their own cost a request each.
             {
               name: 'core',
-              test: /[\\/]node_modules[\\/]@tanstack[\\/](query-core|react-query)[\\/]|[\\/]src[\\/]lib[\\/](api-client|query-client|offline[\\/](worker|saved-copy|update))\.|[\\/]shared[\\/](constants|offline|paths)\.ts$|[\\/]src[\\/]components[\\/]ui[\\/](card|button|notice)\.tsx$/,
+              test: /[\\/]node_modules[\\/]@tanstack[\\/](query-core|react-query)[\\/]|[\\/]src[\\/]lib[\\/](api-client|query-client|offline[\\/](worker|saved-copy|update))\.|[\\/]shared[\\/](constants|offline|paths)\.ts$|[\\/]src[\\/]components[\\/]ui[\\/](card|button|notice|dialog|field|when-near)\.tsx$|[\\/]src[\\/]lib[\\/]rendered-html\.tsx$/,
               priority: 20,
+            },
+            // A guide's baseline setup card and what it shows (labels, values, cautions): one chunk, loaded after the
+            // guide has painted (src/app/routes/guide.tsx), and by the setup pages.
+            {
+              name: 'baseline',
+              test: /[\\/]src[\\/]features[\\/]setups[\\/](components[\\/](setup-sheet|computed-values|caution-list|record-table)|labels|api[\\/]setups)\.tsx?$|[\\/]shared[\\/]setup[\\/](fields|show-value|choices)\.ts$|[\\/]shared[\\/]calc[\\/]chemistry\.ts$/,
+              priority: 15,
             },
             // Markdown to React (the editor's preview, the review screen): never on a reading page, which gets
             // the server's HTML.
