@@ -47,7 +47,10 @@ const boundaries = [
   },
   {
     files: ['shared/**/*.ts'],
-    rules: restrict([{ regex: '^(@/|(\\.\\./)+(src|server)/)', message: 'shared/ is imported by both sides: it imports neither the client nor the server.' }], []),
+    rules: restrict(
+      [{ regex: '^(@/|(\\.\\./)+(src|server)/)', message: 'shared/ is imported by both sides: it imports neither the client nor the server.' }],
+      [],
+    ),
   },
 ];
 

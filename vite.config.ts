@@ -175,7 +175,11 @@ export default defineConfig({
         codeSplitting: {
           groups: [
             // Every page: React, React DOM and the router.
-            { name: 'framework', test: /[\\/]node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|cookie|set-cookie-parser)[\\/]/, priority: 30 },
+            {
+              name: 'framework',
+              test: /[\\/]node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|cookie|set-cookie-parser)[\\/]/,
+              priority: 30,
+            },
             // Every page too: data fetching and the client's small shared library (API client, offline
             // bookkeeping, constants). Small files on their own cost a request each.
             {
