@@ -76,8 +76,22 @@ describe('a new deployment reaches an open page, in Chromium', () => {
     await screenshot(page, 'update-ready');
 
     // The next navigation switches: a whole-page reload, after which every script comes from the new build.
+    const log: string[] = [];
+    page.on('console', (m) => log.push(`${m.type()}: ${m.text()}`));
+    page.on('framenavigated', (f) => f === page.mainFrame() && log.push(`navigated: ${f.url()}`));
     await nav.getByRole('link', { name: 'Calculators' }).click();
-    await page.waitForFunction((id) => document.documentElement.dataset.build === id, SECOND_BUILD, { timeout: 60_000 });
+    await page
+      .waitForFunction((id) => document.documentElement.dataset.build === id, SECOND_BUILD, { timeout: 60_000 })
+      .catch(async (err) => {
+        const state = await page.evaluate(async () => ({
+          url: location.href,
+          build: document.documentElement.dataset.build,
+          controller: navigator.serviceWorker.controller?.scriptURL ?? null,
+          waiting: !!(await navigator.serviceWorker.getRegistration())?.waiting,
+          active: (await navigator.serviceWorker.getRegistration())?.active?.state ?? null,
+        }));
+        throw new Error(`${(err as Error).message}\n${JSON.stringify(state)}\n${log.join('\n')}`);
+      });
     await waitForApp(page);
     await page.getByRole('heading', { level: 1 }).first().waitFor();
     expect(new URL(page.url()).pathname).toBe('/calculators');
