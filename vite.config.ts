@@ -48,6 +48,62 @@ function compressTree(outDir: string) {
 }
 
 /**
+ * The @fontsource faces say `font-display: swap`; the build makes them `optional`. A face that has not
+ * arrived within the browser's short block period (about 100 ms) is not used on that page at all: text
+ * paints at once in the fallback and never reflows, and the Largest Contentful Paint never waits for a
+ * font. The next page (font cached) uses it. The server preloads the one face most of the first screen
+ * uses (server/lib/html-shell.ts), so on a fair connection even the first page gets it.
+ * Tailwind inlines the @imports itself, so the rewrite is on the emitted stylesheet, not the package files.
+ */
+function optionalFonts(): Plugin {
+  return {
+    name: 'tunewright-optional-fonts',
+    apply: 'build',
+    generateBundle(_options, bundle) {
+      for (const out of Object.values(bundle)) {
+        if (out.type !== 'asset' || !out.fileName.endsWith('.css')) continue;
+        const css = typeof out.source === 'string' ? out.source : Buffer.from(out.source).toString('utf8');
+        out.source = css.replace(/(@font-face\s*\{[^}]*?font-display:\s*)swap/g, '$1optional');
+      }
+    },
+  };
+}
+
+/**
+ * With TW_CHUNK_REPORT=1 (`npm run bench:web -- --why`), writes dist/.vite/chunk-modules.json: for every
+ * chunk file, the packages (or our own folders) inside it and how many bytes of code each adds, so the
+ * bench can say what weighs on a page. Off in normal builds; dot-folders are never served.
+ */
+function chunkReport(): Plugin {
+  return {
+    name: 'tunewright-chunk-report',
+    apply: () => process.env.TW_CHUNK_REPORT === '1',
+    generateBundle(_options, bundle) {
+      const report: Record<string, Record<string, number>> = {};
+      for (const out of Object.values(bundle)) {
+        if (out.type !== 'chunk') continue;
+        const parts: Record<string, number> = {};
+        for (const [id, mod] of Object.entries(out.modules)) {
+          const key = moduleGroup(id);
+          parts[key] = (parts[key] ?? 0) + mod.renderedLength;
+        }
+        report[out.fileName] = parts;
+      }
+      this.emitFile({ type: 'asset', fileName: '.vite/chunk-modules.json', source: JSON.stringify(report, null, 1) });
+    },
+  };
+}
+
+/** A package name for a module in node_modules, else its folder under src/ or shared/. */
+function moduleGroup(id: string): string {
+  const clean = id.replace(/\\/g, '/').replace(/\?.*$/, '');
+  const at = clean.lastIndexOf('/node_modules/');
+  if (at >= 0) return /^((?:@[^/]+\/)?[^/]+)/.exec(clean.slice(at + '/node_modules/'.length))![1];
+  const own = /\/((?:src|shared)\/(?:[^/]+\/)?[^/]+)/.exec(clean);
+  return own ? own[1] : clean.slice(-40);
+}
+
+/**
  * The installable app and its service worker (src/sw.ts, see DEVELOPERS.md "Offline"). The worker is our own
  * file with Workbox's precaching and routing; the plugin only builds it and injects the precache manifest:
  * every script, stylesheet and the shell of this build, plus the Latin faces of the two fonts (other
@@ -92,7 +148,7 @@ const pwa = VitePWA({
 const apiTarget = `http://127.0.0.1:${process.env.API_PORT ?? 3001}`;
 
 export default defineConfig({
-  plugins: [react(), tailwindcss(), pwa, precompress()],
+  plugins: [react(), tailwindcss(), optionalFonts(), pwa, precompress(), chunkReport()],
   define: {
     // Which build a page runs (shown nowhere; the update test reads it from <html data-build>).
     __TW_BUILD__: JSON.stringify(process.env.TW_BUILD_ID ?? new Date().toISOString()),
@@ -111,6 +167,42 @@ export default defineConfig({
     // The server reads it to preload a pre-rendered page's route chunks (server/lib/html-shell.ts).
     manifest: true,
     chunkSizeWarningLimit: 1800,
+    rolldownOptions: {
+      output: {
+        // Vendor chunks by what pages share (DEVELOPERS.md "Chunks"): each page transfers the framework and
+        // core once (they change rarely, so they stay cached across deployments), then only its own code.
+        // Everything not named here is split by the bundler per page as before (our features, charts, editor).
+        codeSplitting: {
+          groups: [
+            // Every page: React, React DOM and the router.
+            {
+              name: 'framework',
+              test: /[\\/]node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|cookie|set-cookie-parser)[\\/]/,
+              priority: 30,
+            },
+            // Every page too: data fetching and the client's small shared library (API client, offline
+            // bookkeeping, constants). Small files on their own cost a request each.
+            {
+              name: 'core',
+              test: /[\\/]node_modules[\\/]@tanstack[\\/](query-core|react-query)[\\/]|[\\/]src[\\/]lib[\\/](api-client|query-client|offline[\\/](worker|saved-copy|update))\.|[\\/]shared[\\/](constants|offline|paths)\.ts$|[\\/]src[\\/]components[\\/]ui[\\/](card|button|notice|dialog|field|when-near)\.tsx$|[\\/]src[\\/]lib[\\/]rendered-html\.tsx$/,
+              priority: 20,
+            },
+            // A guide's baseline setup card and what it shows (labels, values, cautions): one chunk, loaded after the
+            // guide has painted (src/app/routes/guide.tsx), and by the setup pages.
+            {
+              name: 'baseline',
+              test: /[\\/]src[\\/]features[\\/]setups[\\/](components[\\/](setup-sheet|computed-values|caution-list|record-table)|labels|api[\\/]setups)\.tsx?$|[\\/]shared[\\/]setup[\\/](fields|show-value|choices)\.ts$|[\\/]shared[\\/]calc[\\/]chemistry\.ts$/,
+              priority: 15,
+            },
+            // Markdown to React (the editor's preview, the review screen): never on a reading page, which gets
+            // the server's HTML.
+            // (The group takes the three packages and, by default, what they import; the editor's own extras such as
+            // its raw-HTML and highlighting plugins stay in the editor's chunk.)
+            { name: 'reading', test: /[\\/]node_modules[\\/](react-markdown|remark-gfm|rehype-sanitize)[\\/]/, priority: 10 },
+          ],
+        },
+      },
+    },
   },
   server: {
     host: '127.0.0.1',

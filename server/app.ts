@@ -7,7 +7,7 @@ import type { AppContext } from './context';
 import { mountRoutes, type RouteDef } from './lib/route';
 import { installAuth } from './middleware/auth';
 import { csrf } from './middleware/csrf';
-import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { apiNotFound, buildFileNotFound, errorHandler } from './middleware/error-handler';
 import { createLimiters } from './middleware/rate-limit';
 import { routeTable } from './routes';
 import { buildOpenApi } from './lib/openapi';
@@ -154,6 +154,8 @@ export function createApp(ctx: AppContext, opts: { routes?: RouteDef[]; serveCli
       app.get([PAGE_PATTERNS.guide, PAGE_PATTERNS.guideVersion], guidePageHandler(ctx, shell));
       app.get(PAGE_PATTERNS.parameter, parameterPageHandler(ctx, shell));
       for (const [route, handler] of Object.entries(listPageHandlers(ctx, shell))) app.get(route, handler);
+      // Every route and file is above: what looks like a file here is one this build does not have.
+      app.use(buildFileNotFound);
       app.get('/{*splat}', (_req, res) => {
         res.setHeader('Cache-Control', 'no-cache');
         res.type('html').send(shell.plain);

@@ -21,7 +21,9 @@ export type ShellParts = {
 
 // The faces the first screen of most pages draws with. Fetched with the stylesheet instead of after
 // layout, so text is first painted in its own font and does not grow (or re-flow) when it arrives.
-const FIRST_SCREEN_FONTS = [/merriweather-latin-(400|700)-normal\.woff2$/, /inter-latin-(400|500|600)-normal\.woff2$/];
+// One face, the body text's: the faces are `font-display: optional` (vite.config.ts), so a face only shows on a
+// first visit if it arrives at once; more preloads would compete with the stylesheet and the page for the line.
+const FIRST_SCREEN_FONTS = [/inter-latin-400-normal\.woff2$/];
 
 /**
  * Puts `value` in place of the first match of `pattern`, literally. `String.prototype.replace` with a

@@ -50,3 +50,16 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
 export const apiNotFound: RequestHandler = (req, res) => {
   res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.path}` } });
 };
+
+/**
+ * A file of the build (or of the public folder) that is not there: most often a chunk of an older build that a
+ * page opened before a deployment asks for. It gets a 404 in the error shape, never the app's HTML page: a
+ * browser must not run HTML as a script or stylesheet, and the page's import fails cleanly (the app then
+ * reloads into the new build). Not stored by caches either: the file may appear with the next deployment.
+ */
+export const BUILD_FILE = /^\/assets\/|\.(?:js|mjs|css|map|woff2?|json|webmanifest|png|svg|ico|webp|jpe?g|txt)$/i;
+export const buildFileNotFound: RequestHandler = (req, res, next) => {
+  if ((req.method !== 'GET' && req.method !== 'HEAD') || !BUILD_FILE.test(req.path)) return next();
+  res.setHeader('Cache-Control', 'no-store');
+  res.status(404).json({ error: { code: 'not_found', message: `No file ${req.path} in this version of Tunewright` } });
+};

@@ -34,6 +34,8 @@ export const revisionSchema = z.object({
   publishedAt: z.string().nullable(),
   reviewedAt: z.string().nullable(),
   reviewedBy: personSchema.nullable(),
+  /** Ids of images the revision uses that a moderator has hidden; its drawn body shows a notice in their place. */
+  hiddenImages: z.array(z.uuid()),
 });
 export type Revision = z.infer<typeof revisionSchema>;
 

@@ -1,13 +1,13 @@
 import type { ReactNode } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { Toaster } from 'sonner';
 import { queryClient } from '@/lib/query-client';
+import { Toasts } from '@/lib/toast';
 
 export function AppProvider({ children }: { children: ReactNode }) {
   return (
     <QueryClientProvider client={queryClient}>
       {children}
-      <Toaster position="bottom-right" toastOptions={{ className: 'font-sans' }} />
+      <Toasts />
     </QueryClientProvider>
   );
 }

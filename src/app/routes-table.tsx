@@ -64,7 +64,7 @@ export const routes: RouteObject[] = [
           { path: routePath('adminUsers'), lazy: () => import('./routes/admin-users').then((m) => ({ Component: m.AdminUsersPage })) },
           { path: routePath('audit'), lazy: () => import('./routes/audit').then((m) => ({ Component: m.AuditPage })) },
           { path: routePath('parameters'), lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParametersPage })) },
-          { path: routePath('parameter'), loader: parameterLoader, lazy: () => import('./routes/parameters').then((m) => ({ Component: m.ParameterPage })) },
+          { path: routePath('parameter'), loader: parameterLoader, lazy: () => import('./routes/parameter').then((m) => ({ Component: m.ParameterPage })) },
           { path: routePath('calculators'), lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorsPage })) },
           { path: routePath('calculator'), lazy: () => import('./routes/calculators').then((m) => ({ Component: m.CalculatorPage })) },
           { path: routePath('setups'), lazy: () => import('./routes/setups').then((m) => ({ Component: m.SetupsPage })) },

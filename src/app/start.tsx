@@ -7,7 +7,7 @@ import { AppRouter, router } from './router';
 import './nav-extras-setup';
 import { keepHeaderSearch } from './carry-over';
 import { noteSavedPage } from '@/lib/offline/saved-copy';
-import { applyWaitingUpdate } from '@/lib/offline/update';
+import { applyWaitingUpdate, checkForUpdateSoon } from '@/lib/offline/update';
 
 /** Marks the document once the app has drawn itself (a server-drawn page has been replaced by then). */
 function Started({ onStarted }: { onStarted: () => void }) {
@@ -43,13 +43,13 @@ function registerWorkerWhenIdle() {
   else window.addEventListener('load', go, { once: true });
 }
 
-/** A new build waiting to take over does so at the next navigation: a whole-page reload, never a mix. */
+/** A new build waiting to take over does so at the next navigation: a whole-page reload, never a mix. Otherwise the navigation may look for one. */
 function updateAtNextNavigation() {
   let shown = router.state.location;
   router.subscribe((state) => {
     if (state.navigation.state !== 'idle' || state.location === shown) return;
     shown = state.location;
-    applyWaitingUpdate();
+    if (!applyWaitingUpdate()) checkForUpdateSoon();
   });
 }
 

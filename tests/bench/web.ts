@@ -3,12 +3,15 @@
 // profile (4× CPU slowdown, 1.6 Mbit/s down, 0.75 Mbit/s up, 150 ms round trip, as in Lighthouse's
 // mobile preset). It prints the bytes as transferred (what the browser received over the wire, compressed
 // as the server sent it, read from Chromium's own accounting) and the Largest Contentful Paint.
+// `npm run bench:web -- --why` also lists, per page, every script it transferred, largest first, with the
+// packages (or our own folders) that weigh most inside each (from the build's chunk report, see vite.config.ts).
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ensurePostgresInstalled, freePort, startCluster } from '../../server/bin/postgres.mjs';
 
+const WHY = process.argv.includes('--why');
 const TARGET_JS_KB = 150;
 const TARGET_LCP_S = 2.5; // Core Web Vitals "good" (web.dev)
 const GUIDE_SLUG = process.env.BENCH_GUIDE ?? 'stock-2wd-buggy-harbour-flats-clay';
@@ -25,8 +28,27 @@ function buildClient() {
   const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], {
     cwd: root,
     stdio: 'inherit',
+    env: WHY ? { ...process.env, TW_CHUNK_REPORT: '1' } : process.env,
   });
   if (r.status !== 0) throw new Error('vite build failed');
+}
+
+/** Chunk file (assets/x.js) → bytes of code (before minifying) each package or folder adds to it. */
+function chunkReport(): Record<string, Record<string, number>> {
+  const file = path.join(root, 'dist', '.vite', 'chunk-modules.json');
+  return fs.existsSync(file) ? (JSON.parse(fs.readFileSync(file, 'utf8')) as Record<string, Record<string, number>>) : {};
+}
+
+/** "react-dom 62 %, react-router 25 %, …": what makes up one chunk, largest first. */
+function whatsInside(report: Record<string, Record<string, number>>, url: string): string {
+  const parts = report[url.replace(/^\//, '')];
+  if (!parts) return '';
+  const total = Object.values(parts).reduce((n, b) => n + b, 0) || 1;
+  const top = Object.entries(parts)
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 4)
+    .map(([name, b]) => `${name} ${Math.round((100 * b) / total)} %`);
+  return top.join(', ') + (Object.keys(parts).length > 4 ? `, +${Object.keys(parts).length - 4} more` : '');
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -35,6 +57,7 @@ type Transfer = { url: string; type: string; kb: number; rawKb: number };
 async function main() {
   console.log('[bench:web] building the client…');
   buildClient();
+  const report = WHY ? chunkReport() : {};
 
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tw-bench-web-'));
   const cluster = startCluster({ bin: ensurePostgresInstalled(() => {}), dir, port: await freePort(), log: () => {} });
@@ -111,8 +134,10 @@ async function main() {
       const bad = jsKb > TARGET_JS_KB || lcpS > TARGET_LCP_S;
       over ||= bad;
       console.log(`\n[bench:web] ${target.name} page ${target.path}`);
-      for (const s of [...scripts].sort((a, b) => b.kb - a.kb).slice(0, 6))
+      for (const s of [...scripts].sort((a, b) => b.kb - a.kb).slice(0, WHY ? scripts.length : 6)) {
         console.log(`  ${s.kb.toFixed(1).padStart(7)} KB sent (${s.rawKb.toFixed(1)} KB unpacked)  ${s.url}`);
+        if (WHY) console.log(`            ${whatsInside(report, s.url) || '(not in the chunk report)'}`);
+      }
       console.log(
         `  JavaScript as transferred: ${jsKb.toFixed(1)} KB in ${scripts.length} files (${jsRawKb.toFixed(1)} KB unpacked)   target ≤ ${TARGET_JS_KB} KB`,
       );

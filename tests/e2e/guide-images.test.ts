@@ -119,4 +119,49 @@ describe('images in a guide, in Chromium: paste, alt text, review, live page', (
     expect(rosaErrors).toEqual([]);
     expect(owenErrors).toEqual([]);
   }, 240_000);
+
+  it('an author drops an image file onto the editor: it uploads, goes into the body as Markdown, shows in the preview and asks for alt text', async () => {
+    const rosa = await signedInPage(suite.browser, suite.server.baseUrl, 'rosa');
+    const errors = watchPageErrors(rosa);
+    await rosa.goto(`${suite.server.baseUrl}/guides/new`);
+    await rosa.getByLabel('Title', { exact: true }).fill('Gear mesh checked with a strip of paper');
+    await rosa.getByLabel('Summary').fill('How much play the spur and pinion need, shown on a drawing of the two gears.');
+    await rosa.getByLabel('Class').selectOption('buggy-2wd-stock');
+    await rosa.getByLabel('Surface').selectOption('clay');
+    await rosa.getByLabel('Body').fill('## The mesh\n\nRoll a strip of paper through the gears, then take it out.');
+    await waitSaved(rosa);
+
+    // A drop carrying a file, as the browser fires it when a file is dragged from the desktop onto the text.
+    const png = (await endbellPng()).toString('base64');
+    const body = rosa.getByLabel('Body');
+    const box = (await body.boundingBox())!;
+    await body.evaluate(
+      (el, { b64, x, y }) => {
+        const bytes = Uint8Array.from(atob(b64), (c) => c.charCodeAt(0));
+        const data = new DataTransfer();
+        data.items.add(new File([bytes], 'gear-mesh.png', { type: 'image/png' }));
+        for (const type of ['dragenter', 'dragover', 'drop'])
+          el.dispatchEvent(new DragEvent(type, { dataTransfer: data, bubbles: true, cancelable: true, clientX: x, clientY: y }));
+      },
+      { b64: png, x: box.x + 20, y: box.y + 20 },
+    );
+
+    await rosa.getByLabel('Alt text needed: what does this image show?').waitFor({ timeout: 30_000 });
+    await expect.poll(() => body.inputValue(), { timeout: 30_000 }).toMatch(/!\[\]\(\/api\/images\/[0-9a-f-]{36}\/960#1400x1000\)/);
+    // The text written before is still there, and the image is one of ours, served to its author.
+    expect(await body.inputValue()).toContain('Roll a strip of paper through the gears');
+    const preview = rosa.locator('.w-md-editor-preview img[srcset]').first();
+    await preview.waitFor({ timeout: 30_000 });
+    await expect
+      .poll(() => preview.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth > 0), { timeout: 20_000 })
+      .toBe(true);
+    // Stored once, on the draft that uploaded it.
+    const [{ n }] = await suite.server.t.db.dataSource.query(
+      `SELECT count(*)::int AS n FROM images i JOIN revisions r ON r.id = i.revision_id WHERE r.content->>'title' = $1 AND r.state = 'draft'`,
+      ['Gear mesh checked with a strip of paper'],
+    );
+    expect(n).toBe(1);
+    await screenshot(rosa, 'images-editor-dropped');
+    expect(errors).toEqual([]);
+  }, 180_000);
 });

@@ -27,6 +27,10 @@ describe('the built client', () => {
       .join('');
     expect(css).toMatch(/font-family:\s*["']?Inter/);
     expect(css).toMatch(/font-family:\s*["']?Merriweather/);
+    // Web fonts never hold up the first paint: every face is optional (vite.config.ts, optionalFonts).
+    expect(css).toMatch(/@font-face/);
+    expect(css).not.toMatch(/font-display:\s*(swap|block|auto|fallback)/);
+    expect(css.match(/@font-face/g)!.length).toBe(css.match(/font-display:\s*optional/g)!.length);
     expect(fs.readdirSync(path.join(dist, 'assets')).some((f) => /inter.*\.woff2$/i.test(f))).toBe(true);
   });
 });

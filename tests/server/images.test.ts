@@ -217,9 +217,25 @@ describe('GET /api/images/:id/:width', () => {
     expect(hidden.body.data).toMatchObject({ id: img.id, hiddenReason: 'Shows a person' });
     expect((await createClient(t.app).get(url)).status).toBe(404);
     expect((await mod.agent.get(url)).status).toBe(200);
-    expect((await createClient(t.app).get(`/api/guides/${slug}`)).status).toBe(200);
+    const reader = createClient(t.app);
+    const hiddenGuide = await reader.get(`/api/guides/${slug}`);
+    expect(hiddenGuide.status).toBe(200);
+    // The drawn body shows the notice where the image was, and the revision lists the image as hidden.
+    const notice = 'A moderator has hidden this image.'; // HIDDEN_IMAGE_NOTICE, written out: the test reads what readers see
+    expect(hiddenGuide.body.data.revision.hiddenImages).toEqual([img.id]);
+    expect(hiddenGuide.body.data.revision.bodyHtml).toContain(`<span class="image-hidden">${notice}</span>`);
+    expect(hiddenGuide.body.data.revision.bodyHtml).not.toContain(`/api/images/${img.id}/`);
+    expect(hiddenGuide.body.data.revision.bodyHtml).toContain('One mark above the middle.');
+    const version = await reader.get(`/api/guides/${slug}/revisions/1`);
+    expect(version.status).toBe(200);
+    expect(version.body.data.revision.hiddenImages).toEqual([img.id]);
+    expect(version.body.data.revision.bodyHtml).toContain(notice);
     expect((await mod.post(`/api/images/${img.id}/unhide`, {})).status).toBe(200);
     expect((await createClient(t.app).get(url)).status).toBe(200);
+    const shownAgain = (await createClient(t.app).get(`/api/guides/${slug}`)).body.data.revision;
+    expect(shownAgain.hiddenImages).toEqual([]);
+    expect(shownAgain.bodyHtml).not.toContain(notice);
+    expect(shownAgain.bodyHtml).toContain(`src="/api/images/${img.id}/960"`);
   });
 
   it('refuses an image of another page, or one not uploaded here, at submit', async () => {

@@ -33,7 +33,7 @@ export async function parameterPageHtml(ctx: AppContext, shell: Shell, user: Use
     dataId: INITIAL_DATA_ID,
     title: detail.parameter.name,
     description: detail.parameter.summary,
-    preload: ['src/app/routes/parameters.tsx'],
+    preload: ['src/app/routes/parameter.tsx'],
   });
   return cacheable ? anonymous.set(url, [detail], html) : { html };
 }

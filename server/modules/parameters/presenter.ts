@@ -23,11 +23,12 @@ export function presentParameterDetail(
   guides: ParameterGuideRef[],
 ): ParameterDetail {
   const { main, cautions } = splitCautions(p.content.body);
+  const opts = { resolveHref: resolveParameterHref, hiddenImages: new Set(p.revision.hiddenImages) };
   return {
     ...presentParameterSummary(p),
     body: p.content.body,
-    bodyHtml: renderMarkdownHtml(main, { resolveHref: resolveParameterHref }),
-    cautionsHtml: cautions === null ? null : renderMarkdownHtml(cautions, { resolveHref: resolveParameterHref }),
+    bodyHtml: renderMarkdownHtml(main, opts),
+    cautionsHtml: cautions === null ? null : renderMarkdownHtml(cautions, opts),
     related: p.content.related,
     relatedParameters,
     calculator: p.content.calculator,

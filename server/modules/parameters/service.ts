@@ -7,7 +7,7 @@ import type { AppContext } from '../../context';
 export type LiveParameter = {
   slug: string;
   content: ParameterContent;
-  revision: { id: string; number: number; publishedAt: Date | null; authorId: string; authorName: string };
+  revision: { id: string; number: number; publishedAt: Date | null; authorId: string; authorName: string; hiddenImages: string[] };
 };
 
 type LiveRow = {
@@ -18,10 +18,13 @@ type LiveRow = {
   published_at: Date | null;
   author_id: string;
   author_name: string;
+  hidden_images: string[];
 };
 
 const LIVE_SQL = `
-  SELECT d.slug, r.content, r.id AS revision_id, r.number, r.published_at, u.id AS author_id, u.display_name AS author_name
+  SELECT d.slug, r.content, r.id AS revision_id, r.number, r.published_at, u.id AS author_id, u.display_name AS author_name,
+         ARRAY(SELECT ri.image_id::text FROM revision_images ri JOIN images i ON i.id = ri.image_id
+                WHERE ri.revision_id = r.id AND i.hidden_at IS NOT NULL ORDER BY ri.image_id) AS hidden_images
     FROM documents d
     JOIN revisions r ON r.id = d.published_revision_id
     JOIN users u ON u.id = r.author_id
@@ -38,6 +41,7 @@ function toLive(row: LiveRow): LiveParameter {
       publishedAt: row.published_at,
       authorId: row.author_id,
       authorName: row.author_name,
+      hiddenImages: row.hidden_images ?? [],
     },
   };
 }

@@ -35,6 +35,7 @@ export function presentRevision(v: RevisionView): Revision {
     publishedAt: iso(rev.publishedAt),
     reviewedAt: iso(rev.reviewedAt),
     reviewedBy: v.reviewer,
+    hiddenImages: v.hiddenImages,
   };
 }
 
@@ -130,17 +131,19 @@ export function presentGuideRecord(v: RevisionView, opts: { withHiddenReason?: b
 }
 
 const RENDERED_MAX = 2000;
-// Rendered bodies by revision id and last change: published and superseded revisions never change,
-// so each is rendered once per process; a draft re-renders only after it was edited.
+// Rendered bodies by revision id, last change and hidden images: published and superseded revisions never
+// change, so each is rendered once per process (again when a moderator hides or shows one of its images);
+// a draft re-renders only after it was edited.
 const rendered = new LRUCache<string, string>({ max: RENDERED_MAX });
 
 /** The revision's body as the sanitized HTML reading pages show (cached per revision version). */
 export function renderedBody(v: RevisionView): string {
-  const key = `${v.rev.id}:${v.rev.updatedAt.getTime()}`;
+  const key = `${v.rev.id}:${v.rev.updatedAt.getTime()}:${v.hiddenImages.join(',')}`;
   let html = rendered.get(key);
   if (html === undefined) {
     const body = String((v.rev.content as { body?: unknown }).body ?? '');
-    html = renderMarkdownHtml(body, v.doc.kind === 'parameter' ? { resolveHref: resolveParameterHref } : {});
+    const hiddenImages = new Set(v.hiddenImages);
+    html = renderMarkdownHtml(body, v.doc.kind === 'parameter' ? { resolveHref: resolveParameterHref, hiddenImages } : { hiddenImages });
     rendered.set(key, html);
   }
   return html;

@@ -11,6 +11,8 @@ export type RevisionView = {
   author: Person;
   reviewer: Person | null;
   baseNumber: number | null;
+  /** Images this revision uses that a moderator has hidden (its pages show a notice in their place). */
+  hiddenImages: string[];
 };
 
 async function people(m: EntityManager, ids: Array<string | null>): Promise<Map<string, Person>> {
@@ -19,7 +21,7 @@ async function people(m: EntityManager, ids: Array<string | null>): Promise<Map<
   return new Map(rows.map((u) => [u.id, { id: u.id, displayName: u.displayName }]));
 }
 
-/** Builds presentable views of revisions (documents, authors, reviewers, base numbers) in three queries. */
+/** Builds presentable views of revisions (documents, authors, reviewers, base numbers, hidden images) in three or four queries. */
 export async function views(m: EntityManager, revs: RevisionEntity[], knownDocs: DocumentEntity[] = []): Promise<RevisionView[]> {
   if (!revs.length) return [];
   const docs = new Map(knownDocs.map((d) => [d.id, d]));
@@ -32,6 +34,17 @@ export async function views(m: EntityManager, revs: RevisionEntity[], knownDocs:
   const baseIds = [...new Set(revs.map((r) => r.baseRevisionId).filter((x): x is string => !!x))];
   const baseRows = baseIds.length ? await m.getRepository(RevisionEntity).find({ where: { id: In(baseIds) }, select: { id: true, number: true } }) : [];
   const baseNumbers = new Map(baseRows.map((r) => [r.id, r.number]));
+  // Only revisions whose text refers to one of our images can have hidden ones (most have none: no query).
+  const withImages = revs.filter((r) => JSON.stringify(r.content ?? {}).includes('/api/images/')).map((r) => r.id);
+  const hiddenRows: Array<{ revision_id: string; image_id: string }> = withImages.length
+    ? await m.query(
+        `SELECT ri.revision_id, ri.image_id FROM revision_images ri JOIN images i ON i.id = ri.image_id
+          WHERE ri.revision_id = ANY($1::uuid[]) AND i.hidden_at IS NOT NULL ORDER BY ri.image_id`,
+        [withImages],
+      )
+    : [];
+  const hidden = new Map<string, string[]>();
+  for (const row of hiddenRows) hidden.set(row.revision_id, [...(hidden.get(row.revision_id) ?? []), row.image_id]);
   const unknown = (id: string): Person => ({ id, displayName: 'Former member' });
   return revs.map((rev) => ({
     rev,
@@ -39,6 +52,7 @@ export async function views(m: EntityManager, revs: RevisionEntity[], knownDocs:
     author: who.get(rev.authorId) ?? unknown(rev.authorId),
     reviewer: rev.reviewedBy ? (who.get(rev.reviewedBy) ?? unknown(rev.reviewedBy)) : null,
     baseNumber: rev.baseRevisionId ? (baseNumbers.get(rev.baseRevisionId) ?? null) : null,
+    hiddenImages: hidden.get(rev.id) ?? [],
   }));
 }
 

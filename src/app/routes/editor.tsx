@@ -9,7 +9,7 @@ import { guideQueries } from '@/features/guides/api/guides';
 import { revisionQueries } from '@/features/editor/api/revisions';
 import { DocumentEditor } from '@/features/editor/components/document-editor';
 import { renderWorkedExample } from '../worked-example';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import type { SetupRecord } from '@shared/schemas/setup-record';
 import { Button } from '@/components/ui/button';
 import { SetupRecordForm, type SetupStart } from '@/features/setups/components/setup-record-form';

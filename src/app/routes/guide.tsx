@@ -11,7 +11,6 @@ import { guideQueries } from '@/features/guides/api/guides';
 import { GuideArticle } from '@/features/guides/components/guide-article';
 import { HideGuideButton, UnhideGuideButton } from '@/features/guides/components/hide-guide-button';
 import { RevisionHistory } from '@/features/guides/components/revision-history';
-import { SetupSheet } from '@/features/setups/components/setup-sheet';
 import { WatchButton } from '@/features/watches/components/watch-button';
 import { KeepForTrackButton } from '@/features/offline/components/keep-for-track';
 import { renderWorkedExample } from '../worked-example';
@@ -85,7 +84,7 @@ export function GuidePage() {
         />
         {revision.number === liveNumber ? (
           <section id="setup" className="mt-10 scroll-mt-4" aria-label="Baseline setup">
-            <SetupSheet slug={slug} names={parameterNames} />
+            <LazySetupSheet slug={slug} names={parameterNames} />
           </section>
         ) : (
           revision.setup && (
@@ -114,6 +113,21 @@ export function GuidePage() {
         </Card>
       </aside>
     </div>
+  );
+}
+
+// The baseline setup sits below the guide's body: its code (the record table, computed values, cautions) is
+// its own chunk, fetched once the page is up, so the guide paints without it. It loads at once, not when
+// scrolled near: a guide opened once must have its baseline stored for reading offline.
+const SetupSheet = lazy(() => import('@/features/setups/components/setup-sheet').then((m) => ({ default: m.SetupSheet })));
+function LazySetupSheet(props: { slug: string; names: Record<string, string> }) {
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
+  if (!mounted) return <Spinner label="Loading the baseline setup…" />;
+  return (
+    <Suspense fallback={<Spinner label="Loading the baseline setup…" />}>
+      <SetupSheet {...props} />
+    </Suspense>
   );
 }
 

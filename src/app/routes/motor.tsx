@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { lazy, Suspense, useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { COMPARED_QUANTITIES, QUANTITY_INFO, type ComparedQuantity } from '@shared/motors/quantities';
 import { Button } from '@/components/ui/button';
 import { Card, PageHeader, Spinner } from '@/components/ui/card';

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { SavedCopyNotice, UpdateNotice } from './offline-notices';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { hasRole, type Role } from '@shared/constants';
 import type { User } from '@shared/schemas/user';
 import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';

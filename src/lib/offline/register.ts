@@ -1,5 +1,5 @@
 import { Workbox } from 'workbox-window';
-import { setUpdateWaiting } from './update';
+import { checkForUpdateSoon, setUpdateCheck, setUpdateWaiting } from './update';
 import { keepOffline } from './worker';
 
 /**
@@ -26,5 +26,12 @@ export function registerServiceWorker() {
   wb.addEventListener('controlling', (event) => {
     if (!event.isUpdate) void keepOffline([window.location.pathname + window.location.search], []).catch(() => undefined);
   });
-  void wb.register().catch(() => undefined); // no worker: the app still works, just not offline
+  void wb
+    .register()
+    .then((registration) => {
+      if (!registration) return;
+      setUpdateCheck(() => void registration.update().catch(() => undefined));
+      document.addEventListener('visibilitychange', () => document.visibilityState === 'visible' && checkForUpdateSoon());
+    })
+    .catch(() => undefined); // no worker: the app still works, just not offline
 }

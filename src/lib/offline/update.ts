@@ -33,3 +33,21 @@ export function useUpdateWaiting(): boolean {
     () => false,
   );
 }
+
+/**
+ * Asks the browser to look for a new build (a changed /sw.js). Browsers look on their own only when a page
+ * is loaded in full, which an app that navigates in place rarely does; register.ts sets the check and the
+ * router asks at in-app navigations and when the tab comes back, at most once every 30 s.
+ */
+const CHECK_EVERY_MS = 30_000;
+let check: (() => void) | null = null;
+let lastCheck = 0;
+export function setUpdateCheck(fn: () => void) {
+  check = fn;
+  lastCheck = Date.now();
+}
+export function checkForUpdateSoon() {
+  if (!check || takeOver || Date.now() - lastCheck < CHECK_EVERY_MS) return;
+  lastCheck = Date.now();
+  check();
+}

@@ -40,7 +40,9 @@ describe('GET /parameters/:slug (the page, drawn on the server)', () => {
     expect(data.me).toBeNull();
     expect(data.guide).toBeUndefined();
     const preloads = [...res.text.matchAll(/<link rel="modulepreload" crossorigin href="\/([^"]+)">/g)].map((m) => m[1]);
-    expect(preloads.some((f) => /^assets\/parameters-[\w-]+\.js$/.test(f))).toBe(true);
+    // The entry page's own chunk (src/app/routes/parameter.tsx), not the library list's with its table code.
+    expect(preloads.some((f) => /^assets\/parameter-[\w-]+\.js$/.test(f))).toBe(true);
+    expect(preloads.some((f) => /^assets\/parameters-[\w-]+\.js$/.test(f))).toBe(false);
     for (const f of preloads) expect(fs.existsSync(path.resolve('dist', f)), f).toBe(true);
   });
 

@@ -1,7 +1,7 @@
 import { useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { ROLE_DESCRIPTIONS, ROLE_LABELS, ROLES, type Role } from '@shared/constants';
 import type { AdminUser, User } from '@shared/schemas/user';
 import { Button } from '@/components/ui/button';

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { documentPath } from '@shared/paths';
 import type { HiddenDocument } from '@shared/schemas/audit';
 import { Button } from '@/components/ui/button';

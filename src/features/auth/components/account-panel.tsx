@@ -1,7 +1,7 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { z } from 'zod';
 import type { User } from '@shared/schemas/user';
 import { changePasswordSchema, updateProfileSchema } from '@shared/schemas/user';

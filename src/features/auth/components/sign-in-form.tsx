@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { signInSchema, type SignInInput } from '@shared/schemas/user';
 import { safeNext } from '@shared/safe-next';
 import { Button } from '@/components/ui/button';

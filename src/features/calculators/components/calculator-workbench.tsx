@@ -1,6 +1,6 @@
 import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { getCalculator } from '@shared/calc/registry';
 import { formatWorkedExample } from '@shared/calc/worked-example';
 import { Button } from '@/components/ui/button';

@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import type { DocumentKind } from '@shared/constants';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import { guideContentSchema } from '@shared/schemas/guide';

@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { IMAGE_LIMITS, imageMarkdown, imageUrl, markdownImages } from '@shared/markdown/images';
 import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';

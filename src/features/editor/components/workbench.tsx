@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import { Button } from '@/components/ui/button';
 import { Card, Spinner } from '@/components/ui/card';

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import { Button } from '@/components/ui/button';
 import { Spinner } from '@/components/ui/card';

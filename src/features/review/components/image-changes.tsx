@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { imageUrl, markdownImages } from '@shared/markdown/images';
 import { Button } from '@/components/ui/button';
 import { useSetImageHidden } from '../api/reviews';

@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { REVISION_STATE_LABELS } from '@shared/constants';
 import type { CalcWarning } from '@shared/calc/types';
 import { BodyDiff, MetadataChanges, setupValueText } from './review-diffs';

@@ -1,6 +1,6 @@
 import { useId, useRef, useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { RUNLOG_LIMITS } from '@shared/runlog/vocabulary';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';

@@ -1,6 +1,6 @@
 import { useId, useRef, useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import type { FieldIssue } from '@shared/schemas/common';
 import type { SetupUpload } from '@shared/schemas/setup';
 import { LIMITS } from '@shared/constants';

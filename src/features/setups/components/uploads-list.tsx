@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import type { SetupUpload } from '@shared/schemas/setup';
 import { Button } from '@/components/ui/button';
 import { useDeleteUpload } from '../api/setups';

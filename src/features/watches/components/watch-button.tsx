@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import type { DocumentKind } from '@shared/constants';
 import { Button } from '@/components/ui/button';
 import { useSetWatching, watchQueries } from '../api/watches';

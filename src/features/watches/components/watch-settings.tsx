@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@/lib/toast';
 import { WATCH_DELIVERIES, WATCH_DELIVERY_LABELS, type WatchDelivery } from '@shared/schemas/watch';
 import { Card, Spinner } from '@/components/ui/card';
 import { useSetDelivery, useSetWatching, watchQueries } from '../api/watches';
