@@ -14,6 +14,7 @@ import { runRoutes } from './modules/runs/routes';
 import { imageRoutes } from './modules/images/routes';
 import { watchRoutes } from './modules/watches/routes';
 import { changeRoutes } from './modules/changes/routes';
+import { accountRoutes } from './modules/account/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
 export const routeTable: RouteDef[] = [
@@ -32,4 +33,5 @@ export const routeTable: RouteDef[] = [
   ...imageRoutes,
   ...watchRoutes,
   ...changeRoutes,
+  ...accountRoutes,
 ];
