@@ -95,3 +95,12 @@ export function useChangePassword() {
     onSuccess: (user) => changed(user),
   });
 }
+
+/** Deletes the signed-in account (its password confirms it); the session is gone afterwards, so forget it here too. */
+export function useDeleteAccount() {
+  const changed = useSessionChanged();
+  return useMutation({
+    mutationFn: (input: { currentPassword: string }) => api.delete<void>('/api/account', { body: input }),
+    onSuccess: () => changed(null),
+  });
+}
