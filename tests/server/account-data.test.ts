@@ -26,7 +26,10 @@ afterAll(async () => {
 /** A multipart setup upload on the client's session (the client helper only sends JSON). */
 async function uploadSetup(client: TestClient, name: string, body: string) {
   const token = (await client.agent.get('/api/csrf')).body.data.token as string;
-  const res = await client.agent.post('/api/setups').set('x-csrf-token', token).attach('file', Buffer.from(body), { filename: name, contentType: 'application/json' });
+  const res = await client.agent
+    .post('/api/setups')
+    .set('x-csrf-token', token)
+    .attach('file', Buffer.from(body), { filename: name, contentType: 'application/json' });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body.data.id as string;
 }
@@ -82,7 +85,12 @@ describe('GET /api/account/export', () => {
     expect(res.headers['cache-control']).toBe('private, no-store');
 
     expect(text(files, 'README.md')).toMatch(/^# Your Tunewright data/);
-    expect(JSON.parse(text(files, 'profile.json'))).toMatchObject({ id: m.user.id, email: m.user.email, displayName: m.user.displayName, watchMail: 'immediate' });
+    expect(JSON.parse(text(files, 'profile.json'))).toMatchObject({
+      id: m.user.id,
+      email: m.user.email,
+      displayName: m.user.displayName,
+      watchMail: 'immediate',
+    });
 
     const revisions = JSON.parse(text(files, 'revisions/revisions.json')) as Array<{ id: string; state: string; slug: string }>;
     expect(revisions.map((r) => r.id).sort()).toEqual([m.published.revisionId, m.edit.id, m.draft.revision.id].sort());
@@ -110,7 +118,9 @@ describe('GET /api/account/export', () => {
 
     // Authors watch what they write.
     expect((JSON.parse(text(files, 'watches.json')) as Array<{ slug: string }>).map((w) => w.slug).sort()).toEqual([m.published.slug, m.draft.slug].sort());
-    const everything = Object.values(files).map((f) => strFromU8(f)).join('\n');
+    const everything = Object.values(files)
+      .map((f) => strFromU8(f))
+      .join('\n');
     expect(everything).not.toContain(other.user.email);
     expect(everything).not.toContain('Someone else entirely');
   });
@@ -127,7 +137,10 @@ describe('DELETE /api/account', () => {
     const m = await busyMember();
     const res = await m.client.delete('/api/account', { currentPassword: 'not-my-password-at-all' });
     expect(res.status).toBe(400);
-    expect(res.body.error).toMatchObject({ code: 'validation_failed', details: [{ path: 'body.currentPassword', message: 'That is not your current password' }] });
+    expect(res.body.error).toMatchObject({
+      code: 'validation_failed',
+      details: [{ path: 'body.currentPassword', message: 'That is not your current password' }],
+    });
     expect((await m.client.get('/api/auth/me')).body.data.user.id).toBe(m.user.id);
     expect((await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ id: m.user.id })).deletedAt).toBeNull();
     const missing = await m.client.delete('/api/account', {});
@@ -184,11 +197,14 @@ describe('DELETE /api/account', () => {
     expect(await count(`SELECT count(*) AS n FROM documents WHERE created_by = $1 AND published_revision_id IS NULL`)).toBe(0);
     expect((await moderator.get(`/api/guides/${m.draft.slug}/revisions`)).status).toBe(404);
     for (const table of ['setups', 'runs', 'motors']) expect(await count(`SELECT count(*) AS n FROM ${table} WHERE owner_id = $1`), table).toBe(0);
-    for (const table of ['watches', 'watch_preferences', 'user_tokens']) expect(await count(`SELECT count(*) AS n FROM ${table} WHERE user_id = $1`), table).toBe(0);
+    for (const table of ['watches', 'watch_preferences', 'user_tokens'])
+      expect(await count(`SELECT count(*) AS n FROM ${table} WHERE user_id = $1`), table).toBe(0);
     for (const { key } of storedKeys) expect(await t.ctx.storage.get(key), key).toBeNull();
 
     // Audited, and the old address is told.
-    const [audit] = await t.db.dataSource.query(`SELECT actor_id, from_value, to_value FROM audit_log WHERE action = 'user.delete' AND subject_id = $1`, [m.user.id]);
+    const [audit] = await t.db.dataSource.query(`SELECT actor_id, from_value, to_value FROM audit_log WHERE action = 'user.delete' AND subject_id = $1`, [
+      m.user.id,
+    ]);
     expect(audit).toEqual({ actor_id: m.user.id, from_value: 'active', to_value: 'deleted' });
     const mail = await t.waitForMail(oldEmail, /^Your Tunewright account was deleted$/);
     expect(mail.text).toContain('credited to "Former member"');

@@ -747,7 +747,9 @@ const scenarios: Record<string, Scenario[]> = {
               const files = await exportedFiles(clientOf(w, who));
               const profile = JSON.parse(strFromU8(files['tunewright-data/profile.json'])) as { id: string };
               expect(profile.id, who).toBe(who === 'owner' || who === 'stranger' ? w[who].user.id : accounts[who].id);
-              const all = Object.values(files).map((f) => strFromU8(f)).join('\n');
+              const all = Object.values(files)
+                .map((f) => strFromU8(f))
+                .join('\n');
               expect(all.includes((a as Arranged & { title: string }).title), who).toBe(who === 'owner');
             },
           },

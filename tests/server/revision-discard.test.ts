@@ -35,7 +35,9 @@ describe('DELETE /api/revisions/:id (discard a draft)', () => {
     expect((await author.get(`/api/revisions/${revision.id}`)).status).toBe(404);
     expect((await author.get(`/api/guides/${slug}/revisions`)).status).toBe(404);
     expect((await author.get('/api/me/revisions')).body.data.some((r: { id: string }) => r.id === revision.id)).toBe(false);
-    expect(await auditOf(revision.id)).toEqual([expect.objectContaining({ from_value: 'draft', meta: expect.objectContaining({ documentRemoved: true, slug }) })]);
+    expect(await auditOf(revision.id)).toEqual([
+      expect.objectContaining({ from_value: 'draft', meta: expect.objectContaining({ documentRemoved: true, slug }) }),
+    ]);
     // Its address is free again.
     expect((await createDraftGuide(author, { title })).slug).toBe(slug);
   });

@@ -38,7 +38,10 @@ describe('a proposal sent back and submitted again: the review shows what change
     const again = (await moderator.get(`/api/reviews/${id}`)).body.data;
     expect(again.sinceReturn).toMatchObject({ reason, changed: true, setupChanged: false });
     expect(again.sinceReturn.changedFields.map((f: { field: string }) => f.field)).toEqual(['summary']);
-    const added = again.sinceReturn.bodyDiff.filter((p: { added?: boolean }) => p.added).map((p: { value: string }) => p.value).join('');
+    const added = again.sinceReturn.bodyDiff
+      .filter((p: { added?: boolean }) => p.added)
+      .map((p: { value: string }) => p.value)
+      .join('');
     expect(added).toContain('worn pin tyres');
     expect(new Date(again.sinceReturn.returnedAt).getTime()).toBeLessThanOrEqual(Date.now());
   });
