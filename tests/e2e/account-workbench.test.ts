@@ -82,8 +82,17 @@ describe('the workbench and Your data in Chromium', () => {
 
     // Discard the draft, after confirming.
     const drafts = page.getByRole('region', { name: /^Drafts/ });
-    await drafts.getByRole('button', { name: 'Discard: Half-finished notes on the oval' }).click();
+    // By keyboard: Enter opens the confirmation with the focus inside it, Escape closes it and keeps the draft.
+    const discardButton = drafts.getByRole('button', { name: 'Discard: Half-finished notes on the oval' });
+    await discardButton.focus();
+    await page.keyboard.press('Enter');
     const confirm = page.getByRole('dialog', { name: 'Discard this draft?' });
+    await confirm.waitFor();
+    await expect.poll(() => page.evaluate(() => !!document.activeElement?.closest('dialog'))).toBe(true);
+    await page.keyboard.press('Escape');
+    await confirm.waitFor({ state: 'hidden' });
+    await drafts.getByText('Half-finished notes on the oval').waitFor();
+    await discardButton.click();
     await confirm.getByText(/never live, so the guide goes with it/).waitFor();
     await screenshot(page, 'account-workbench-discard-dialog');
     await confirm.getByRole('button', { name: 'Discard' }).click();
