@@ -15,6 +15,7 @@ import { imageRoutes } from './modules/images/routes';
 import { watchRoutes } from './modules/watches/routes';
 import { changeRoutes } from './modules/changes/routes';
 import { auditRoutes } from './modules/audit/routes';
+import { accountRoutes } from './modules/account/routes';
 
 /** The route table: every API route, declared once. Validation, OpenAPI and the generated tests read it. */
 export const routeTable: RouteDef[] = [
@@ -34,4 +35,5 @@ export const routeTable: RouteDef[] = [
   ...watchRoutes,
   ...changeRoutes,
   ...auditRoutes,
+  ...accountRoutes,
 ];

@@ -1,5 +1,22 @@
+import { PAGE_PATTERNS } from './paths';
+
 /** Where sign-in goes when there is no usable `next`. */
 export const DEFAULT_AFTER_SIGN_IN = '/account';
+
+/** Pages about signing in itself: going back to one after signing in (a spent confirmation or reset link, the sign-in form) makes no sense. */
+const AUTH_PAGES: readonly string[] = [
+  PAGE_PATTERNS.signIn,
+  PAGE_PATTERNS.signUp,
+  PAGE_PATTERNS.verify,
+  PAGE_PATTERNS.forgotPassword,
+  PAGE_PATTERNS.resetPassword,
+];
+
+/** True for the sign-in, sign-up, confirmation and password-reset pages (with or without a trailing slash). */
+export function isAuthPath(pathname: string): boolean {
+  const p = pathname.length > 1 ? pathname.replace(/\/+$/, '') : pathname;
+  return AUTH_PAGES.includes(p.toLowerCase());
+}
 
 // Anything a browser could read as another host: `//host`, `/\host` (backslashes are slashes to a URL
 // parser), and control characters, which the URL parser strips (so `/\t/host` would become `//host`).
@@ -7,7 +24,8 @@ export const DEFAULT_AFTER_SIGN_IN = '/account';
 const UNSAFE = /[\\\u0000-\u001f\u007f]/;
 
 /**
- * The path sign-in returns to, if `next` is a path on this site; the account page otherwise. Judged here,
+ * The path sign-in returns to, if `next` is a path on this site and not one of the sign-in pages; the
+ * account page otherwise. Judged here,
  * not left to the router, so every place that follows `next` follows only our own pages.
  */
 export function safeNext(next: string | null | undefined): string {
@@ -20,5 +38,6 @@ export function safeNext(next: string | null | undefined): string {
     return DEFAULT_AFTER_SIGN_IN;
   }
   if (url.origin !== origin) return DEFAULT_AFTER_SIGN_IN;
+  if (isAuthPath(url.pathname)) return DEFAULT_AFTER_SIGN_IN;
   return `${url.pathname}${url.search}${url.hash}`;
 }

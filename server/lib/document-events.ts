@@ -3,7 +3,13 @@ import type { DocumentKind } from '../../shared/constants';
 
 export const DOCUMENT_CHANNEL = 'tw_document_changed';
 
-export type DocumentChange = { kind: DocumentKind; documentId: string; slug: string; action: 'published' | 'restored' | 'hidden' | 'unhidden' };
+/** `author-left`: someone credited on the live or an older version deleted their account, so cached pages must drop their name. */
+export type DocumentChange = {
+  kind: DocumentKind;
+  documentId: string;
+  slug: string;
+  action: 'published' | 'restored' | 'hidden' | 'unhidden' | 'author-left';
+};
 
 /**
  * Announces that a document's live content changed. Sent with pg_notify inside the caller's

@@ -24,7 +24,7 @@ export type DocumentListener = {
   ping(timeoutMs: number): Promise<boolean>;
 };
 
-const ACTIONS = new Set(['published', 'restored', 'hidden', 'unhidden']);
+const ACTIONS = new Set(['published', 'restored', 'hidden', 'unhidden', 'author-left']);
 
 function parseChange(payload: string | undefined): DocumentChange | null {
   if (!payload) return null;

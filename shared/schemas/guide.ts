@@ -4,8 +4,8 @@ import { slugSchema } from './common';
 
 /** What a guide revision holds (the fields an author can change). */
 export const guideContentSchema = z.object({
-  title: z.string().trim().min(5, 'Give the guide a title of at least 5 characters').max(140),
-  summary: z.string().trim().min(10, 'Write a summary of at least 10 characters').max(500),
+  title: z.string().trim().min(5, 'Give the guide a title of at least 5 characters').max(140, 'Keep the title to 140 characters'),
+  summary: z.string().trim().min(10, 'Write a summary of at least 10 characters').max(500, 'Keep the summary to 500 characters'),
   class: z.enum(CLASS_SLUGS, { message: 'Choose a class' }),
   surface: z.enum(SURFACE_SLUGS, { message: 'Choose a surface' }),
   conditions: z.string().trim().max(300).default(''),
@@ -15,9 +15,21 @@ export const guideContentSchema = z.object({
 });
 export type GuideContent = z.infer<typeof guideContentSchema>;
 
-/** POST /api/guides: a new guide starts as the author's draft (revision 1). */
-export const createGuideSchema = z.strictObject({
+/**
+ * What a guide draft may hold while it is being written (autosave): a title, and the rest whenever the
+ * author gets to it; the same length limits. Submitting checks the full guideContentSchema.
+ */
+export const guideDraftContentSchema = z.object({
   ...guideContentSchema.shape,
+  title: z.string().trim().min(1, 'Give the guide a title').max(140, 'Keep the title to 140 characters'),
+  summary: z.string().trim().max(500, 'Keep the summary to 500 characters').default(''),
+  class: z.union([z.enum(CLASS_SLUGS, { message: 'Choose a class' }), z.literal('')]).default(''),
+  surface: z.union([z.enum(SURFACE_SLUGS, { message: 'Choose a surface' }), z.literal('')]).default(''),
+});
+
+/** POST /api/guides: a new guide starts as the author's draft (revision 1); a title is enough to start. */
+export const createGuideSchema = z.strictObject({
+  ...guideDraftContentSchema.shape,
   body: guideContentSchema.shape.body.default(''),
   note: z.string().trim().max(1000).optional(),
 });

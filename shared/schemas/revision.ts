@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { CLASS_SLUGS, DOCUMENT_KINDS, REVISION_STATES, type DocumentKind } from '../constants';
 import { contentCheckSchema, reviewApprovalSchema } from './content-check';
-import { guideContentSchema } from './guide';
+import { guideContentSchema, guideDraftContentSchema } from './guide';
 import { parameterContentSchema } from './parameter';
 
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -151,6 +151,18 @@ export const reviewDetailSchema = z.object({
     .nullable(),
   own: z.boolean(),
   stale: z.boolean(),
+  /** Sent back before and submitted again: the moderator's reason and what the author changed since. */
+  sinceReturn: z
+    .object({
+      reason: z.string(),
+      returnedAt: z.string(),
+      changed: z.boolean(),
+      changedFields: z.array(changedFieldSchema),
+      bodyDiff: z.array(diffPartSchema),
+      setupChanged: z.boolean(),
+    })
+    .nullable()
+    .optional(),
 });
 export type ReviewDetail = z.infer<typeof reviewDetailSchema>;
 
@@ -261,11 +273,20 @@ export function contentSchemaFor(kind: DocumentKind) {
 }
 
 /**
- * The kind's content fields, each optional and without defaults (so a partial update never
+ * What a draft of the kind may hold while it is written (autosave, a new guide): a guide needs only its
+ * title; submitting checks `contentSchemaFor`. Parameter edits start from a whole live entry, so their
+ * drafts keep the full rules.
+ */
+export function draftContentSchemaFor(kind: DocumentKind) {
+  return kind === 'guide' ? guideDraftContentSchema : parameterContentSchema;
+}
+
+/**
+ * The kind's draft content fields, each optional and without defaults (so a partial update never
  * resets a field the caller did not send).
  */
 export function contentPatchShape(kind: DocumentKind) {
-  const shape = contentSchemaFor(kind).shape as Record<string, z.ZodType>;
+  const shape = draftContentSchemaFor(kind).shape as Record<string, z.ZodType>;
   return Object.fromEntries(
     Object.entries(shape).map(([key, field]) => {
       const bare = field instanceof z.ZodDefault ? (field.removeDefault() as z.ZodType) : field;

@@ -96,6 +96,15 @@ describe('save status', () => {
       kind: 'local',
       message: 'Kept in this browser: Title too short',
     });
+    // The field's own reason wins over the summary line.
+    expect(
+      statusForError({
+        status: 400,
+        code: 'validation_failed',
+        message: 'Some fields need attention',
+        fieldErrors: { title: 'Keep the title to 140 characters' },
+      }),
+    ).toEqual({ kind: 'local', message: 'Kept in this browser: Keep the title to 140 characters' });
     expect(statusForError({ status: 409, code: 'immutable_revision', message: 'A published revision never changes' })).toEqual({
       kind: 'error',
       message: 'A published revision never changes',

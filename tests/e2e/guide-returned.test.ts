@@ -114,6 +114,10 @@ describe('returned revision in Chromium: send back with a reason, edit, resubmit
     await owen.goto(`${suite.server.baseUrl}${reviewLink}`);
     await owen.getByRole('heading', { name: title, level: 1 }).waitFor();
     await owen.getByText(/Checklist now matches the brake-curve example/).waitFor();
+    // The reason it went back and what she changed since, in one place at the top.
+    const since = owen.getByRole('region', { name: 'Changed since it was sent back' });
+    await since.getByText(reason).waitFor();
+    await expect.poll(async () => (await since.locator('ins').allTextContents()).join(' ')).toMatch(/worn pin tyres/);
     await expect
       .poll(async () => (await owen.getByTestId('rendered-body-diff').locator('[data-diff="added"]').allInnerTexts()).join(' '))
       .toMatch(/worn pin tyres/);

@@ -35,10 +35,18 @@ describe('sign-up journey in Chromium', () => {
     await page.getByText('Confirm your e-mail for Tunewright').first().waitFor();
     await screenshot(page, 'skeleton-dev-mail');
     const link = page.locator('a[href*="/verify?token="]').first();
+    const spent = await link.getAttribute('href');
     await link.click();
-    await page.getByText('E-mail confirmed').waitFor();
+    // Confirming signs the person in and opens their workbench; the spent link is not kept as a place to return to.
+    await page.waitForURL('**/me/revisions');
+    await page.getByRole('heading', { name: 'My workbench' }).waitFor();
+    await page.getByRole('banner').getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
+    await page.goto(new URL(spent!, suite.server.baseUrl).toString()); // the spent confirmation link again
+    await page.getByText('That link did not work').waitFor();
+    expect(await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).getAttribute('href')).toBe('/sign-in');
 
-    await page.getByRole('link', { name: 'sign in', exact: true }).click();
+    await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).click();
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill(password);
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -57,7 +65,7 @@ describe('sign-up journey in Chromium', () => {
     await page.goto(`${suite.server.baseUrl}/sign-in`);
     await screenshot(page, 'skeleton-sign-in-phone');
     await page.close();
-  }, 60_000);
+  }, 90_000);
 
   it('shows the guarded pages to the wrong people as "sign in" and "not allowed"', async () => {
     const page = await suite.browser.newPage();

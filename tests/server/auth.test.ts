@@ -98,6 +98,13 @@ describe('POST /api/auth/verify and sign-in', () => {
     const verified = await client.post('/api/auth/verify', { token });
     expect(verified.status).toBe(200);
     expect(verified.body.data.user.emailVerified).toBe(true);
+    // Confirming signs the person in, on a new session id.
+    expect(verified.body.data.signedIn).toBe(true);
+    expect(String(verified.headers['set-cookie'])).toMatch(/tw\.sid=/);
+    client.resetCsrf();
+    expect((await client.get('/api/auth/me')).body.data.user).toMatchObject({ email: 'journey@tidewater.test', emailVerified: true });
+    expect((await client.post('/api/auth/sign-out')).status).toBe(204);
+    client.resetCsrf();
     const reused = await client.post('/api/auth/verify', { token });
     expect(reused.status).toBe(400);
     expect(reused.body.error.code).toBe('token_invalid');

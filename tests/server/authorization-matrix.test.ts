@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import crypto from 'node:crypto';
+import { strFromU8, unzipSync } from 'fflate';
 import { ROLE_RANK, ROLES, type Role } from '../../shared/constants';
 import { routeTable } from '../../server/routes';
 import type { RouteDef } from '../../server/lib/route';
@@ -299,6 +300,25 @@ const scenarios: Record<string, Scenario[]> = {
       arrange: async (w) => {
         const { revisionId } = await createPublishedGuide(w.owner.client, w.moderator);
         return { method: 'patch', url: `/api/revisions/${revisionId}`, body: { summary: NEW_SUMMARY }, id: revisionId, snapshot: revisionOf(w, revisionId) };
+      },
+      expect: { stranger: err(403, 'not_own_revision'), owner: err(409, 'immutable_revision') },
+    },
+  ],
+  'DELETE /api/revisions/:id': [
+    {
+      label: "the owner's draft discarded",
+      arrange: async (w) => {
+        const { slug } = await createPublishedGuide(w.owner.client, w.moderator);
+        const revision = await proposeEdit(w.owner.client, slug, { summary: NEW_SUMMARY });
+        return { method: 'delete', url: `/api/revisions/${revision.id}`, id: revision.id, snapshot: revisionOf(w, revision.id) };
+      },
+      expect: { owner: { status: 204, check: async (_res, a, w) => expect((await w.owner.client.get(`/api/revisions/${a.id}`)).status).toBe(404) } },
+    },
+    {
+      label: 'a live revision (visible to all, discarded by none)',
+      arrange: async (w) => {
+        const { revisionId } = await createPublishedGuide(w.owner.client, w.moderator);
+        return { method: 'delete', url: `/api/revisions/${revisionId}`, id: revisionId, snapshot: revisionOf(w, revisionId) };
       },
       expect: { stranger: err(403, 'not_own_revision'), owner: err(409, 'immutable_revision') },
     },
@@ -708,6 +728,58 @@ const scenarios: Record<string, Scenario[]> = {
       },
     },
   ],
+  'GET /api/account/export': [
+    {
+      label: "each caller's archive holds only their own data",
+      arrange: async (w) => {
+        const title = `Owner's private draft ${crypto.randomBytes(3).toString('hex')}`;
+        await createDraftGuide(w.owner.client, { title });
+        return { method: 'get', url: '/api/account/export', title } as Arranged & { title: string };
+      },
+      expect: Object.fromEntries(
+        (['owner', 'stranger', 'moderator', 'admin'] as const).map((who) => [
+          who,
+          {
+            status: 200,
+            check: async (res: Response, a: Arranged, w: World) => {
+              expect(res.headers['content-type'], who).toBe('application/zip');
+              // Read the archive again as bytes and look inside: the caller's own profile, the owner's draft only for the owner.
+              const files = await exportedFiles(clientOf(w, who));
+              const profile = JSON.parse(strFromU8(files['tunewright-data/profile.json'])) as { id: string };
+              expect(profile.id, who).toBe(who === 'owner' || who === 'stranger' ? w[who].user.id : accounts[who].id);
+              const all = Object.values(files)
+                .map((f) => strFromU8(f))
+                .join('\n');
+              expect(all.includes((a as Arranged & { title: string }).title), who).toBe(who === 'owner');
+            },
+          },
+        ]),
+      ),
+    },
+  ],
+  'DELETE /api/account': [
+    {
+      label: "the owner's password is no key to anyone else's account",
+      arrange: async (w) => ({
+        method: 'delete',
+        url: '/api/account',
+        body: { currentPassword: w.owner.password },
+        snapshot: userRow(w.owner.user.id),
+      }),
+      expect: {
+        stranger: { status: 400, code: 'validation_failed' },
+        moderator: { status: 400, code: 'validation_failed' },
+        admin: { status: 400, code: 'validation_failed' },
+        owner: {
+          status: 204,
+          check: async (_res, _a, w) => {
+            const row = await t.db.dataSource.getRepository(UserEntity).findOneByOrFail({ id: w.owner.user.id });
+            expect(row.deletedAt).not.toBeNull();
+          },
+        },
+      },
+    },
+  ],
   'GET /api/watches': [
     {
       label: 'each person sees only their own watch list',
@@ -783,6 +855,20 @@ function expectError(res: Response, status: number, code: string, who: string) {
 }
 
 const clientOf = (w: World, who: Who): TestClient => (who === 'owner' || who === 'stranger' ? w[who].client : w[who]);
+
+/** GET /api/account/export as bytes, unzipped. */
+async function exportedFiles(client: TestClient) {
+  const res = await client.agent
+    .get('/api/account/export')
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+  expect(res.status).toBe(200);
+  return unzipSync(new Uint8Array(res.body as Buffer));
+}
 
 async function send(client: TestClient, a: Arranged, url = a.url) {
   if (a.upload) {

@@ -28,6 +28,23 @@ describe('safeNext (where sign-in returns to)', () => {
     for (const next of hostile) expect(safeNext(next), JSON.stringify(next)).toBe(DEFAULT_AFTER_SIGN_IN);
   });
 
+  it('never returns to a sign-in page: sign-in, sign-up, a spent confirmation or reset link, forgot-password', () => {
+    const auth = [
+      '/sign-in',
+      '/sign-in?next=/guides',
+      '/sign-up',
+      '/verify?token=spent-token-0123456789abcdef',
+      '/reset-password?token=spent-token-0123456789abcdef',
+      '/forgot-password',
+      '/Sign-In/',
+      '/a/../verify?token=x',
+    ];
+    for (const next of auth) expect(safeNext(next), next).toBe(DEFAULT_AFTER_SIGN_IN);
+    // Pages whose names merely start like one are fine.
+    expect(safeNext('/sign-ins-explained')).toBe('/sign-ins-explained');
+    expect(safeNext('/me/revisions')).toBe('/me/revisions');
+  });
+
   it('never returns something that resolves off the site, whatever the input (URL parser as the judge)', () => {
     const samples = ['/a/../../b', '/%2f%2fevil.example', '/./\u2028', '/a?next=//evil.example', '/%5cevil.example'];
     for (const next of samples) {

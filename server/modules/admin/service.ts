@@ -12,6 +12,8 @@ export function adminService(ctx: AppContext) {
     async listUsers(q: { q?: string; role?: Role; page: number; pageSize: number }) {
       // The seeded library's authoring account is not a person; it is not listed.
       const qb = ctx.dataSource.getRepository(UserEntity).createQueryBuilder('u').where('u.email <> :library', { library: LIBRARY_EMAIL });
+      // A deleted account is a name on old versions, not a person to manage (#16).
+      qb.andWhere('u.deletedAt IS NULL');
       if (q.q) {
         const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`).toLowerCase()}%`;
         qb.andWhere(new Brackets((w) => w.where('u.email LIKE :like', { like }).orWhere('lower(u.displayName) LIKE :like', { like })));
@@ -32,7 +34,7 @@ export function adminService(ctx: AppContext) {
       return ctx.dataSource.transaction(async (m) => {
         const repo = m.getRepository(UserEntity);
         const user = await repo.createQueryBuilder('u').where('u.id = :id', { id }).setLock('pessimistic_write').getOne();
-        if (!user) throw notFound('That account');
+        if (!user || user.deletedAt) throw notFound('That account');
         const audit = m.getRepository(AuditLogEntity);
         if (patch.role && patch.role !== user.role) {
           await audit.insert({

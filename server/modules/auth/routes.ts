@@ -76,13 +76,19 @@ export const authRoutes = [
   defineRoute({
     method: 'post',
     path: '/api/auth/verify',
-    summary: 'Confirm an e-mail address with the single-use token from the mail',
+    summary: 'Confirm an e-mail address with the single-use token from the mail; signs the account in (a new session)',
     tags: ['auth'],
     access: 'public',
     rateLimit: 'auth',
     body: verifyEmailSchema,
-    response: userData,
-    handler: async ({ body, ctx }) => ({ data: { user: presentUser(await authService(ctx).verifyEmail(body.token)) } }),
+    response: userData.extend({ signedIn: z.boolean() }),
+    // Opening the link proves the mailbox, as a reset link does: the person is signed in and goes on to their workbench.
+    handler: async ({ body, req, ctx }) => {
+      const verified = await authService(ctx).verifyEmail(body.token);
+      const user = presentUser(verified);
+      if (!verified.disabledAt) await logIn(req, user);
+      return { data: { user, signedIn: !verified.disabledAt } };
+    },
   }),
   mailByAddressRoute('/api/auth/resend-verification', 'Send a new verification mail (answers 202 whether or not the account exists)', (ctx, email) =>
     authService(ctx).resendVerification(email),

@@ -25,6 +25,10 @@ export class UserEntity {
   @Column({ type: 'timestamptz', name: 'disabled_at', nullable: true })
   disabledAt: Date | null;
 
+  /** The person deleted their account: credentials and private data are gone; the row stays as "Former member". */
+  @Column({ type: 'timestamptz', name: 'deleted_at', nullable: true })
+  deletedAt: Date | null;
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt: Date;
 

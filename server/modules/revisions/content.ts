@@ -1,6 +1,6 @@
 import type { z } from 'zod';
 import type { DocumentKind } from '../../../shared/constants';
-import { contentSchemaFor } from '../../../shared/schemas/revision';
+import { contentSchemaFor, draftContentSchemaFor } from '../../../shared/schemas/revision';
 import { validationFailed } from '../../lib/errors';
 import { toFieldIssues } from '../../lib/route';
 import type { RevisionEntity } from './revision.entity';
@@ -28,9 +28,12 @@ export function titleOf(rev: Pick<RevisionEntity, 'content'>): string {
   return String(c.title ?? c.name ?? '');
 }
 
-/** Validates content against the kind's schema; problems come back as 400 with paths under `where`. */
-export function parseContent(kind: DocumentKind, value: unknown, where: string): Content {
-  const result = contentSchemaFor(kind).safeParse(value);
+/**
+ * Validates content against the kind's schema (`submit`: everything a reviewer needs; `draft`: what a
+ * draft may hold while it is written); problems come back as 400 with paths under `where`.
+ */
+export function parseContent(kind: DocumentKind, value: unknown, where: string, rules: 'submit' | 'draft' = 'submit'): Content {
+  const result = (rules === 'draft' ? draftContentSchemaFor(kind) : contentSchemaFor(kind)).safeParse(value);
   if (!result.success) throw validationFailed(toFieldIssues(result.error, where));
   return result.data as Content;
 }

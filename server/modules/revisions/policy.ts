@@ -64,6 +64,18 @@ export function maySubmit(actor: Actor, rev: RevisionFacts): Decision {
   return ALLOW;
 }
 
+/**
+ * Discard: the author throws away their draft or a sent-back version. Anything submitted and waiting,
+ * live or superseded is part of the history and stays (withdraw a waiting one first).
+ */
+export function mayDiscard(actor: Actor, rev: RevisionFacts): Decision {
+  const who = authorOnly(actor, rev);
+  if (!who.ok) return who;
+  if (rev.state === 'in_review') return deny(409, 'revision_in_review', 'This revision is waiting for review; withdraw it first to discard it');
+  if (!EDITABLE_STATES.includes(rev.state)) return deny(409, 'immutable_revision', 'A published or superseded version stays in the history; it cannot be discarded');
+  return ALLOW;
+}
+
 /** Withdraw a proposal: the author, while it waits for review. */
 export function mayWithdraw(actor: Actor, rev: RevisionFacts): Decision {
   const who = authorOnly(actor, rev);

@@ -156,6 +156,7 @@ export function revisionQueries(ctx: AppContext) {
       const proposedSetup = (rev.setup ?? null) as SetupRecord | null;
       const diff = await bodyDiffOffThread(bodyOf(before), bodyOf(rev.content));
       return {
+        sinceReturn: await sinceReturn(rev),
         setupChanges:
           beforeSetup || proposedSetup
             ? diffSetupFields(beforeSetup, proposedSetup)
@@ -194,4 +195,25 @@ export function revisionQueries(ctx: AppContext) {
     },
   };
   return queries;
+}
+
+/**
+ * A proposal that was sent back and submitted again: the moderator's reason and what the author changed
+ * since (fields, body words, baseline), so the next review starts where the last one stopped.
+ */
+async function sinceReturn(rev: RevisionEntity) {
+  const snap = rev.returnedSnapshot;
+  if (!snap || rev.state !== 'in_review') return null;
+  const fields = changedFields(snap.content, rev.content);
+  const body = await bodyDiffOffThread(bodyOf(snap.content), bodyOf(rev.content));
+  const setupChanged = JSON.stringify(snap.setup ?? null) !== JSON.stringify(rev.setup ?? null);
+  const bodyChanged = body.parts.some((p) => p.added || p.removed);
+  return {
+    reason: snap.reason,
+    returnedAt: snap.returnedAt,
+    changed: fields.length > 0 || bodyChanged || setupChanged,
+    changedFields: fields,
+    bodyDiff: bodyChanged ? body.parts : [],
+    setupChanged,
+  };
 }

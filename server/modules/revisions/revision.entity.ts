@@ -1,6 +1,15 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
 import type { RevisionState } from '../../../shared/constants';
 
+/** A returned revision as the moderator saw it when sending it back. */
+export type ReturnedSnapshot = {
+  content: Record<string, unknown>;
+  setup: Record<string, unknown> | null;
+  reason: string;
+  returnedAt: string;
+  reviewerId: string;
+};
+
 /**
  * One numbered version of a document. Content is immutable once it leaves `draft`;
  * only state fields move, and every move writes an audit-log row.
@@ -40,6 +49,10 @@ export class RevisionEntity {
   /** The baseline setup record attached to this revision, if any. */
   @Column({ type: 'jsonb', nullable: true })
   setup: Record<string, unknown> | null;
+
+  /** What the moderator sent back (content, baseline, reason, when), kept so the review shows what changed since. */
+  @Column({ type: 'jsonb', name: 'returned_snapshot', nullable: true })
+  returnedSnapshot: ReturnedSnapshot | null;
 
   @Column({ type: 'integer', name: 'restored_from_number', nullable: true })
   restoredFromNumber: number | null;

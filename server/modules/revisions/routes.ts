@@ -187,6 +187,20 @@ export const revisionRoutes: RouteDef[] = [
     },
   }),
   defineRoute({
+    method: 'delete',
+    path: '/api/revisions/:id',
+    summary: 'Discard your own draft or sent-back revision (a new guide that was never live goes with its only draft); 409 once submitted, live or superseded',
+    tags: ['revisions'],
+    access: 'member',
+    owner: { resource: 'revision', rule: 'owner' },
+    params: revisionIdParam,
+    status: 204,
+    handler: async ({ params, user, ctx }) => {
+      await revisionService(ctx).discard(user, params.id);
+      return { status: 204 };
+    },
+  }),
+  defineRoute({
     method: 'post',
     path: '/api/revisions/:id/submit',
     summary: 'Send a draft for review with an edit note',
@@ -290,6 +304,7 @@ export const revisionRoutes: RouteDef[] = [
           setupWarnings: r.setupWarnings,
           own: r.own,
           stale: r.stale,
+          sinceReturn: r.sinceReturn,
         },
       };
     },

@@ -3,6 +3,7 @@ import type { AppContext } from '../../context';
 import { changeBaseline } from './commands/baseline';
 import { createDocument } from './commands/create';
 import { createDraft } from './commands/draft';
+import { discard } from './commands/discard';
 import { setHidden } from './commands/hide';
 import { publish } from './commands/publish';
 import { restore } from './commands/restore';
@@ -28,6 +29,7 @@ export function revisionService(ctx: AppContext) {
     changeBaseline: (actor: Member, id: string, prepare: Parameters<typeof changeBaseline>[3]) => changeBaseline(ctx, actor, id, prepare),
     submit: (actor: Member, id: string, note: string) => submit(ctx, actor, id, note),
     withdraw: (actor: Member, id: string) => withdraw(ctx, actor, id),
+    discard: (actor: Member, id: string) => discard(ctx, actor, id),
     publish: (actor: Member, id: string) => publish(ctx, actor, id),
     returnRevision: (actor: Member, id: string, reason: string) => returnRevision(ctx, actor, id, reason),
     restore: (actor: Member, kind: DocumentKind, slug: string, number: number, reason: string, note?: string) =>

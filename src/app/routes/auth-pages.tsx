@@ -1,5 +1,7 @@
 import { useEffect, useRef } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { toast } from '@/lib/toast';
+import { paths } from '@shared/paths';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
@@ -63,20 +65,36 @@ export function VerifyPage() {
   const [params] = useSearchParams();
   const token = params.get('token');
   const verify = useVerifyEmail();
+  const navigate = useNavigate();
   const sent = useRef(false);
   useEffect(() => {
     if (token && !sent.current) {
       sent.current = true;
-      verify.mutate(token);
+      verify.mutate(token, {
+        // Signed in by the confirmation: straight on to the workbench (replacing the spent link in the history).
+        onSuccess: (data) => {
+          if (!data.signedIn) return;
+          toast.success(`E-mail confirmed. Welcome, ${data.user.displayName}: you are signed in.`);
+          navigate(paths.workbench(), { replace: true });
+        },
+      });
     }
-  }, [token, verify]);
+  }, [token, verify, navigate]);
   return (
     <AuthFrame title="Confirm your e-mail" lead="One step between you and your workbench.">
       {!token && <Notice tone="danger">This link has no token. Open the link from the mail again.</Notice>}
       {token && verify.isPending && <Spinner label="Confirming…" />}
       {verify.isSuccess && (
         <Notice tone="ok" title="E-mail confirmed">
-          Thanks, {verify.data.displayName}. You can <Link to="/sign-in">sign in</Link> now.
+          {verify.data.signedIn ? (
+            <>
+              Thanks, {verify.data.user.displayName}. Opening <Link to={paths.workbench()}>your workbench</Link>…
+            </>
+          ) : (
+            <>
+              Thanks, {verify.data.user.displayName}. You can <Link to="/sign-in">sign in</Link> now.
+            </>
+          )}
         </Notice>
       )}
       {verify.isError && (

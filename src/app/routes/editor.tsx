@@ -50,7 +50,7 @@ function BaselineSection({
         review shows every changed field.
       </p>
       {!revisionId ? (
-        <Notice>Give the guide a title, summary, class and surface first; once the draft is saved you can attach its baseline.</Notice>
+        <Notice>Give the guide a title first; once the draft is saved to your workbench you can attach its baseline.</Notice>
       ) : (
         <fieldset disabled={!editable}>
           <SetupRecordForm

@@ -3,6 +3,7 @@ import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router-do
 import { SavedCopyNotice, UpdateNotice } from './offline-notices';
 import { toast } from '@/lib/toast';
 import { hasRole, type Role } from '@shared/constants';
+import { isAuthPath } from '@shared/safe-next';
 import type { User } from '@shared/schemas/user';
 import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';
 import { firstName } from '@/lib/names';
@@ -74,7 +75,8 @@ function AccountMenu({ user, shown }: { user: User | null | undefined; shown: bo
   const navigate = useNavigate();
   const location = useLocation();
   if (!user) {
-    const next = location.pathname.startsWith('/sign') ? '' : `?next=${encodeURIComponent(location.pathname + location.search)}`;
+    // Back to the page the person was on, unless it is itself a sign-in page (or a spent confirmation link).
+    const next = isAuthPath(location.pathname) ? '' : `?next=${encodeURIComponent(location.pathname + location.search + location.hash)}`;
     return (
       <div className={place}>
         <Link to={`/sign-in${next}`} className="rounded-md px-2 py-1 font-medium text-ink no-underline hover:bg-paper-deep">

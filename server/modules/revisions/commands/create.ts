@@ -12,7 +12,7 @@ const UNIQUE_VIOLATION = '23505';
 /** A new document with the author's draft as revision 1; for guides the slug comes from the title. */
 export async function createDocument(ctx: AppContext, actor: Member, kind: DocumentKind, input: Record<string, unknown>) {
   const { note, fields } = splitInput(input);
-  const content = parseContent(kind, fields, 'body');
+  const content = parseContent(kind, fields, 'body', 'draft');
   const wanted = slugify(String(content.title ?? content.name ?? '')) || kind;
   for (let attempt = 0; ; attempt++) {
     try {

@@ -20,7 +20,7 @@ export async function createDraft(ctx: AppContext, actor: Member, kind: Document
     check(mayProposeEdit(actor, doc));
     if (baseRevisionId !== doc.publishedRevisionId) throw await staleBase(m, doc);
     const base = await m.getRepository(RevisionEntity).findOneByOrFail({ id: doc.publishedRevisionId! });
-    const content = parseContent(kind, { ...base.content, ...fields }, 'body');
+    const content = parseContent(kind, { ...base.content, ...fields }, 'body', 'draft');
     const rev = await m.getRepository(RevisionEntity).save(
       m.getRepository(RevisionEntity).create({
         documentId: doc.id,

@@ -1,3 +1,4 @@
+import type { QueryDeepPartialEntity } from 'typeorm';
 import type { AppContext } from '../../../context';
 import { clearApprovals } from '../approvals';
 import { titleOf } from '../content';
@@ -12,7 +13,12 @@ export async function returnRevision(ctx: AppContext, actor: Member, id: string,
   return inRevisionTx(ctx, id, async (m, rev, doc) => {
     check(mayReview(actor, rev));
     await clearApprovals(m, id);
-    await m.getRepository(RevisionEntity).update({ id }, { state: 'returned', reason, reviewedBy: actor.id, reviewedAt: new Date() });
+    const at = new Date();
+    // What was sent back, so the next review can show what the author changed since.
+    const returnedSnapshot = { content: rev.content, setup: rev.setup, reason, returnedAt: at.toISOString(), reviewerId: actor.id };
+    await m
+      .getRepository(RevisionEntity)
+      .update({ id }, { state: 'returned', reason, reviewedBy: actor.id, reviewedAt: at, returnedSnapshot } as QueryDeepPartialEntity<RevisionEntity>);
     await audit(m, {
       actorId: actor.id,
       action: 'revision.return',

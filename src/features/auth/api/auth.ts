@@ -56,11 +56,14 @@ export function useSignUp() {
   });
 }
 
+/** Confirms the address; the server signs the person in with it (a new session), so the page carries on signed in. */
 export function useVerifyEmail() {
-  const qc = useQueryClient();
+  const changed = useSessionChanged();
   return useMutation({
-    mutationFn: async (token: string) => (await api.post<Envelope<{ user: User }>>('/api/auth/verify', { token })).data.user,
-    onSuccess: () => qc.invalidateQueries({ queryKey: authQueries.all() }),
+    mutationFn: async (token: string) => (await api.post<Envelope<{ user: User; signedIn: boolean }>>('/api/auth/verify', { token })).data,
+    onSuccess: async (data) => {
+      if (data.signedIn) await changed(data.user);
+    },
   });
 }
 
@@ -90,5 +93,14 @@ export function useChangePassword() {
     mutationFn: async (input: { currentPassword: string; newPassword: string }) =>
       (await api.post<Envelope<{ user: User }>>('/api/account/password', input)).data.user,
     onSuccess: (user) => changed(user),
+  });
+}
+
+/** Deletes the signed-in account (its password confirms it); the session is gone afterwards, so forget it here too. */
+export function useDeleteAccount() {
+  const changed = useSessionChanged();
+  return useMutation({
+    mutationFn: (input: { currentPassword: string }) => api.delete<void>('/api/account', { body: input }),
+    onSuccess: () => changed(null),
   });
 }

@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { DocumentKind } from '@shared/constants';
 import type { ContentCheckItem } from '@shared/schemas/content-check';
-import type { DocumentStatus, MyRevision, RebaseResult, Revision } from '@shared/schemas/revision';
+import type { CompareResult, DocumentStatus, MyRevision, RebaseResult, Revision } from '@shared/schemas/revision';
 import { api, ApiError, type Envelope, type ListEnvelope } from '@/lib/api-client';
 
 /** The fields an author edits, for either kind (validated by the kind's content schema on the server). */
@@ -24,6 +24,12 @@ export const revisionQueries = {
       queryKey: [...revisionQueries.all(), 'detail', id] as const,
       queryFn: async () =>
         (await api.get<Envelope<{ revision: Revision; document?: DocumentStatus; checks?: ContentCheckItem[] }>>(`/api/revisions/${id}`)).data,
+    }),
+  /** Two versions of a document compared (the author's own drafts included): the workbench shows a sent-back proposal's changes. */
+  compare: (kind: DocumentKind, slug: string, from: number, to: number) =>
+    queryOptions({
+      queryKey: [...revisionQueries.all(), 'compare', kind, slug, from, to] as const,
+      queryFn: async () => (await api.get<Envelope<CompareResult>>(`/api/${plural(kind)}/${encodeURIComponent(slug)}/compare`, { query: { from, to } })).data,
     }),
   /** The live revision a proposal starts from (read through the history, which both kinds share). */
   live: (kind: DocumentKind, slug: string) =>
@@ -89,5 +95,14 @@ export function useWithdrawRevision() {
 export function useRebaseRevision() {
   return useMutation({
     mutationFn: async (id: string) => (await api.post<Envelope<RebaseResult>>(`/api/revisions/${id}/rebase`)).data,
+  });
+}
+
+/** Throws away the author's own draft or sent-back revision (a never-live guide goes with its only draft). */
+export function useDiscardRevision() {
+  const invalidate = useInvalidateRevisions();
+  return useMutation({
+    mutationFn: (id: string) => api.delete<void>(`/api/revisions/${id}`),
+    onSuccess: invalidate,
   });
 }

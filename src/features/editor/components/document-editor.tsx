@@ -3,7 +3,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { toast } from '@/lib/toast';
 import type { DocumentKind } from '@shared/constants';
 import { REVISION_STATE_LABELS } from '@shared/constants';
-import { guideContentSchema } from '@shared/schemas/guide';
+import { guideContentSchema, guideDraftContentSchema } from '@shared/schemas/guide';
 import { parameterContentSchema, type ParameterSummary } from '@shared/schemas/parameter';
 import type { Revision } from '@shared/schemas/revision';
 import { Button } from '@/components/ui/button';
@@ -52,7 +52,8 @@ export type DocumentEditorProps = {
   renderBaseline?: (revisionId: string | null, editable: boolean, guide: { class: string; surface: string; body: string }) => ReactNode;
 };
 
-const minimalNewGuide = guideContentSchema.pick({ title: true, summary: true, class: true, surface: true });
+/** A new guide goes to the server (and the workbench) as soon as it has a title; the rest can follow. */
+const minimalNewGuide = guideDraftContentSchema.pick({ title: true });
 
 function issuesByField(error: { issues: Array<{ path: PropertyKey[]; message: string }> }) {
   const out: Record<string, string> = {};
@@ -113,11 +114,16 @@ export function DocumentEditor({
   const editable = state === 'draft' || state === 'returned';
   const canCreate = kind === 'guide' && !slugRef.current && !revisionId ? minimalNewGuide.safeParse(content).success : true;
 
+  // The id as soon as the create call answers: a save queued behind it must patch, not create a second guide
+  // (the state and the closures that read it catch up only at the next render).
+  const createdId = useRef<string | null>(draft?.id ?? null);
   const save = async (c: Content) => {
+    const currentId = createdId.current ?? revisionId;
     try {
-      if (!revisionId) {
+      if (!currentId) {
         if (kind === 'guide' && !slugRef.current) {
           const res = await createGuide(c as unknown as EditableContent);
+          createdId.current = res.revision.id;
           slugRef.current = res.guide.slug;
           setRevisionId(res.revision.id);
           setBaseRevisionId(res.revision.baseRevisionId);
@@ -125,12 +131,13 @@ export function DocumentEditor({
         } else {
           if (!baseRevisionId || !slugRef.current) throw new ApiError(409, 'no_base', 'There is no live version to base the edit on.');
           const rev = await createProposal(kind, slugRef.current, baseRevisionId, c as unknown as EditableContent);
+          createdId.current = rev.id;
           setRevisionId(rev.id);
           onCreated(rev, slugRef.current);
         }
       } else {
-        const { checks: found } = await patchRevisionWithChecks(revisionId, c as unknown as EditableContent);
-        qc.setQueryData(revisionQueries.detail(revisionId).queryKey, (old) => (old ? { ...old, checks: found } : old));
+        const { checks: found } = await patchRevisionWithChecks(currentId, c as unknown as EditableContent);
+        qc.setQueryData(revisionQueries.detail(currentId).queryKey, (old) => (old ? { ...old, checks: found } : old));
       }
       setErrors({});
     } catch (err) {
@@ -147,7 +154,7 @@ export function DocumentEditor({
     startingContent: serverContent,
     save,
     canSave: editable && canCreate,
-    cannotSaveReason: editable ? 'Kept in this browser — add a title, summary, class and surface to save it to your workbench' : 'Not editable in this state',
+    cannotSaveReason: editable ? 'Kept in this browser — give it a title to save it to your workbench' : 'Not editable in this state',
   });
 
   useEffect(() => {

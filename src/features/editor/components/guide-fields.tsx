@@ -45,8 +45,8 @@ export function GuideFields({ value, onChange, errors, parameterOptions }: Props
         value={value.title}
         onChange={(e) => onChange({ title: e.target.value })}
         error={errors.title}
-        hint="The class and the track or layout, e.g. “Stock 2WD buggy on Harbour Flats clay, tight layout”."
-        maxLength={140}
+        hint="The class and the track or layout, e.g. “Stock 2WD buggy on Harbour Flats clay, tight layout”. Your draft is saved to your workbench as soon as it has a title."
+        limit={140}
       />
       <TextAreaField
         label="Summary"
@@ -55,7 +55,7 @@ export function GuideFields({ value, onChange, errors, parameterOptions }: Props
         onChange={(e) => onChange({ summary: e.target.value })}
         error={errors.summary}
         hint="One or two sentences: who it is for and what it sets up."
-        maxLength={500}
+        limit={500}
       />
       <div className="grid gap-4 sm:grid-cols-2">
         <SelectField label="Class" value={value.class} onChange={(e) => onChange({ class: e.target.value })} error={errors.class}>
@@ -81,7 +81,7 @@ export function GuideFields({ value, onChange, errors, parameterOptions }: Props
         onChange={(e) => onChange({ conditions: e.target.value })}
         error={errors.conditions}
         hint="Indoor or outdoor, grip, layout, air temperature."
-        maxLength={300}
+        limit={300}
       />
       <CommaListField
         label="Tags"

@@ -63,7 +63,7 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
   const setRange = (patch: Partial<ParameterForm['range']>) => onChange({ range: { ...value.range, ...patch } });
   return (
     <div className="flex flex-col gap-4">
-      <TextField label="Name" value={value.name} onChange={(e) => onChange({ name: e.target.value })} error={errors.name} maxLength={80} />
+      <TextField label="Name" value={value.name} onChange={(e) => onChange({ name: e.target.value })} error={errors.name} limit={80} />
       <CommaListField
         label="Also called"
         value={value.aliases}
@@ -86,7 +86,7 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
           onChange={(e) => onChange({ unit: e.target.value })}
           error={errors.unit}
           hint="%, deg, rpm, V, kHz, A, °C, s — empty for a mode."
-          maxLength={12}
+          limit={12}
         />
       </div>
       <fieldset className="grid gap-4 sm:grid-cols-3">
@@ -102,7 +102,7 @@ export function ParameterFields({ slug, value, onChange, errors, parameterOption
         onChange={(e) => onChange({ summary: e.target.value })}
         error={errors.summary}
         hint="What it does and its main trade-off."
-        maxLength={400}
+        limit={400}
       />
       <SelectField
         label="Calculator that illustrates it"

@@ -6,7 +6,9 @@ import { REVISION_STATE_LABELS } from '@shared/constants';
 import { Button } from '@/components/ui/button';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
-import { revisionQueries, useWithdrawRevision, type MyRevision } from '../api/revisions';
+import { Dialog } from '@/components/ui/dialog';
+import { FieldChangesTable, FIELD_LABELS, WordDiffView } from '@/components/diff/word-diff-view';
+import { revisionQueries, useDiscardRevision, useWithdrawRevision, type MyRevision } from '../api/revisions';
 
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
@@ -30,8 +32,47 @@ const tone: Record<MyRevision['state'], string> = {
   archived: 'border-paper-line bg-paper-deep text-ink-soft',
 };
 
+/** A sent-back proposal's changes against the version it was based on, beside the moderator's reason. */
+function ProposedChanges({ r }: { r: MyRevision }) {
+  const [open, setOpen] = useState(false);
+  const compare = useQuery({ ...revisionQueries.compare(r.kind, r.slug, r.baseNumber ?? 0, r.number), enabled: open && r.baseNumber !== null });
+  if (r.baseNumber === null)
+    return <p className="mt-2 text-sm text-ink-soft">A new {r.kind === 'guide' ? 'guide' : 'entry'}: everything in it is what you proposed.</p>;
+  return (
+    <details className="mt-2" onToggle={(e) => setOpen((e.currentTarget as HTMLDetailsElement).open)}>
+      <summary className="cursor-pointer text-sm font-medium text-copper-dark">What you proposed (changes against version {r.baseNumber})</summary>
+      <div className="mt-2 flex flex-col gap-3">
+        {compare.isPending && <Spinner label="Comparing…" />}
+        {compare.isError && <Notice tone="danger">{compare.error.message}</Notice>}
+        {compare.data && (
+          <>
+            <FieldChangesTable
+              changes={compare.data.changedFields.map((f) => ({ ...f, label: FIELD_LABELS[f.field] ?? f.field }))}
+              fromLabel={`Version ${r.baseNumber}`}
+              toLabel="Your version"
+            />
+            <WordDiffView changes={compare.data.bodyDiff} fromLabel={`Version ${r.baseNumber}`} toLabel="Your version" detail={compare.data.bodyDiffDetail} />
+          </>
+        )}
+      </div>
+    </details>
+  );
+}
+
 function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean; onWithdrawn: (id: string) => void }) {
   const withdraw = useWithdrawRevision();
+  const discard = useDiscardRevision();
+  const [confirming, setConfirming] = useState(false);
+  const name = r.title || 'untitled draft';
+  const handleDiscard = async () => {
+    try {
+      await discard.mutateAsync(r.id);
+      setConfirming(false);
+      toast.success(`Discarded: ${name}`);
+    } catch (err) {
+      toast.error((err as Error).message);
+    }
+  };
   const editable = r.state === 'draft' || r.state === 'returned';
   const editRef = useRef<HTMLAnchorElement>(null);
   // A withdrawn proposal moves to "Drafts" and its Withdraw button is gone: keep the focus on it there.
@@ -69,6 +110,7 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
               {r.reason}
             </Notice>
           )}
+          {r.state === 'returned' && <ProposedChanges r={r} />}
           {r.stale && editable && <p className="mt-1 text-sm text-caution">The live version has changed since; you will be offered a merge.</p>}
         </div>
         <div className="flex shrink-0 flex-wrap gap-2">
@@ -83,8 +125,22 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
             </Link>
           )}
           {r.state === 'in_review' && (
-            <Button size="sm" variant="secondary" onClick={handleWithdraw} pending={withdraw.isPending} aria-label={`Withdraw: ${r.title || 'untitled draft'}`}>
-              Withdraw
+            <>
+              <Link
+                to={editHref(r)}
+                aria-label={`Open: ${name}`}
+                className="rounded-md border border-ink/25 px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-deep"
+              >
+                Open
+              </Link>
+              <Button size="sm" variant="secondary" onClick={handleWithdraw} pending={withdraw.isPending} aria-label={`Withdraw: ${name}`}>
+                Withdraw
+              </Button>
+            </>
+          )}
+          {editable && (
+            <Button size="sm" variant="secondary" onClick={() => setConfirming(true)} aria-label={`Discard: ${name}`}>
+              Discard
             </Button>
           )}
           {(r.state === 'published' || r.state === 'archived') && (
@@ -98,6 +154,27 @@ function Row({ r, focusEdit, onWithdrawn }: { r: MyRevision; focusEdit: boolean;
           )}
         </div>
       </Card>
+      <Dialog
+        open={confirming}
+        onClose={() => setConfirming(false)}
+        title="Discard this draft?"
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setConfirming(false)}>
+              Keep it
+            </Button>
+            <Button variant="danger" onClick={handleDiscard} pending={discard.isPending}>
+              Discard
+            </Button>
+          </>
+        }
+      >
+        <p>
+          “{name}”, version {r.number}, goes for good
+          {r.number === 1 && !r.baseRevisionId ? ': it was never live, so the guide goes with it' : '; the live version does not change'}. Runs you attached
+          stay in your run logs.
+        </p>
+      </Dialog>
     </li>
   );
 }

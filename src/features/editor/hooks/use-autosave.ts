@@ -43,9 +43,10 @@ export function useAutosave<C>({
   delayMs = 2500,
   retryMs = 10_000,
 }: Options<C>) {
-  // A draft the server holds is saved until it is changed: say so, rather than "no changes yet".
+  // A draft the server holds is saved (the effect below says "unsaved changes" as soon as the text differs):
+  // never "no changes yet" on a draft with content, even when the field's normalised form differs from the stored one.
   const [status, setStatus] = useState<SaveStatus>(() =>
-    savedContent !== null && sameContent(content, savedContent) ? { kind: 'saved', at: savedAt ? Date.parse(savedAt) : Date.now() } : { kind: 'idle' },
+    savedContent !== null ? { kind: 'saved', at: savedAt ? Date.parse(savedAt) : Date.now() } : { kind: 'idle' },
   );
   const latest = useRef(content);
   latest.current = content;

@@ -85,10 +85,14 @@ export type SaveStatus =
   | { kind: 'error'; message: string };
 
 /** How a failed save should be reported: unreachable server → offline (retry later); otherwise the server's reason. */
-export function statusForError(err: { status?: number; code?: string; message?: string } | null | undefined): SaveStatus {
+export function statusForError(err: { status?: number; code?: string; message?: string; fieldErrors?: Record<string, string> } | null | undefined): SaveStatus {
   if (!err) return { kind: 'error', message: 'Not saved.' };
   if (err.status === 0 || err.code === 'network_error' || (err.status !== undefined && err.status >= 502 && err.status <= 504)) return { kind: 'offline' };
-  if (err.code === 'validation_failed') return { kind: 'local', message: `Kept in this browser: ${err.message ?? 'some fields are not valid yet'}` };
+  if (err.code === 'validation_failed') {
+    // The field's own reason ("Keep the title to 140 characters") says more than the summary line.
+    const fields = Object.values(err.fieldErrors ?? {});
+    return { kind: 'local', message: `Kept in this browser: ${fields.length ? fields.join('; ') : (err.message ?? 'some fields are not valid yet')}` };
+  }
   return { kind: 'error', message: err.message ?? 'Not saved.' };
 }
 

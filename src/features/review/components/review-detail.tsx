@@ -15,7 +15,7 @@ import { Markdown } from '@/lib/markdown';
 import { reviewQueries, usePublishRevision, useReturnRevision, type ReviewDetail as Detail, type SetupChange } from '../api/reviews';
 import { ContentChecks } from '@/components/ui/content-checks';
 import { ImageChanges } from './image-changes';
-import { FIELD_LABELS } from '@/components/diff/word-diff-view';
+import { FIELD_LABELS, WordDiffView } from '@/components/diff/word-diff-view';
 
 const when = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
@@ -270,6 +270,28 @@ function Decision({ detail, currentUserId }: { detail: Detail; currentUserId: st
   );
 }
 
+/** A proposal sent back before and submitted again: the reason it went back and what the author changed since, in one place. */
+function SinceReturn({ since }: { since: NonNullable<Detail['sinceReturn']> }) {
+  return (
+    <section aria-labelledby="since-return" className="flex flex-col gap-3 rounded-lg border border-caution-line bg-caution-wash/50 p-4">
+      <h2 id="since-return" className="text-lg font-semibold">
+        {since.changed ? 'Changed since it was sent back' : 'Unchanged since it was sent back'}
+      </h2>
+      <p className="text-sm">
+        Sent back {when.format(new Date(since.returnedAt))} with this reason: <q className="italic">{since.reason}</q>
+      </p>
+      {!since.changed && (
+        <p className="text-sm text-ink-soft">
+          The author submitted it again without changing the text, the details or the baseline; the edit note may say why.
+        </p>
+      )}
+      {since.changedFields.length > 0 && <MetadataChanges changes={since.changedFields} />}
+      {since.bodyDiff.length > 0 && <WordDiffView changes={since.bodyDiff} fromLabel="As sent back" toLabel="Now" />}
+      {since.setupChanged && <p className="text-sm">The baseline setup record changed too; its fields are compared with the live version below.</p>}
+    </section>
+  );
+}
+
 /** Why a proposal needs two moderators and who has approved it (safety-relevant baseline changes). */
 function SecondApproval({ approval }: { approval?: Detail['approval'] }) {
   if (!approval || approval.needed !== 2) return null;
@@ -340,6 +362,7 @@ export function ReviewDetailView({
           </blockquote>
         )}
       </header>
+      {d.sinceReturn && <SinceReturn since={d.sinceReturn} />}
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-8">
           <Section id="review-details" title="Changed details">
