@@ -79,6 +79,25 @@ describe('account', () => {
     expect((await client.get('/api/auth/me')).body.data.user.displayName).toBe('Pit Lane Regular');
   });
 
+  it('PATCH /api/account keeps the display units (metric by default), alone or with the name', async () => {
+    const { client } = await signedInClient(t, 'member');
+    const before = (await client.get('/api/auth/me')).body.data.user;
+    expect(before.units).toBe('metric');
+    const res = await client.patch('/api/account', { units: 'imperial' });
+    expect(res.status).toBe(200);
+    expect(res.body.data.user).toMatchObject({ units: 'imperial', displayName: before.displayName });
+    expect((await client.get('/api/auth/me')).body.data.user.units).toBe('imperial');
+    await client.patch('/api/account', { displayName: 'Oval Night Regular', units: 'metric' });
+    expect((await client.get('/api/auth/me')).body.data.user).toMatchObject({ units: 'metric', displayName: 'Oval Night Regular' });
+    // Neither field, or a system we do not have: the one error shape, nothing changed.
+    for (const body of [{}, { units: 'furlongs' }, { units: 1 }]) {
+      const bad = await client.patch('/api/account', body);
+      expect(bad.status).toBe(400);
+      expect(bad.body.error.code).toBe('validation_failed');
+    }
+    expect((await client.get('/api/auth/me')).body.data.user.units).toBe('metric');
+  });
+
   it('POST /api/account/password rotates the session and ends the others', async () => {
     const { user, password } = await createUser(t);
     const a = createClient(t.app);

@@ -8,6 +8,7 @@ import { Runs1796500000000 } from './1796500000000-runs';
 import { Images1796600000000 } from './1796600000000-images';
 import { RunMotor1796600000014 } from './1796600000014-run-motor';
 import { Watches1796700000000 } from './1796700000000-watches';
+import { UserUnits1797300000001 } from './1797300000001-user-units';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
 export const migrations = [
@@ -20,4 +21,5 @@ export const migrations = [
   Images1796600000000,
   RunMotor1796600000014,
   Watches1796700000000,
+  UserUnits1797300000001,
 ];

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { SignUpAccepted, SignUpInput, User } from '@shared/schemas/user';
+import type { SignUpAccepted, SignUpInput, UpdateProfileInput, User } from '@shared/schemas/user';
 import { api, resetCsrf, type Envelope } from '@/lib/api-client';
 import { forgetPrivateData } from '@/lib/offline/worker';
 
@@ -79,7 +79,7 @@ export function useResetPassword() {
 export function useUpdateProfile() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (input: { displayName: string }) => (await api.patch<Envelope<{ user: User }>>('/api/account', input)).data.user,
+    mutationFn: async (input: UpdateProfileInput) => (await api.patch<Envelope<{ user: User }>>('/api/account', input)).data.user,
     onSuccess: (user) => qc.setQueryData(authQueries.me().queryKey, user),
   });
 }
