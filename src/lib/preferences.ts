@@ -1,4 +1,4 @@
-import { useCallback, useSyncExternalStore } from 'react';
+import { useCallback, useMemo, useSyncExternalStore } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import type { User } from '@shared/schemas/user';
 import { DEFAULT_UNITS, UNIT_SYSTEMS, type UnitSystem } from '@shared/units';
@@ -94,8 +94,44 @@ export function useSetUnits() {
 export function useTheme(): [ThemeChoice, (t: ThemeChoice) => void] {
   const theme = useSyncExternalStore(subscribe, storedTheme, () => 'system' as const);
   const set = useCallback((t: ThemeChoice) => {
+    applyTheme(t); // first, so what listeners read next is already the new palette
     write(KEYS.theme, t);
-    applyTheme(t);
   }, []);
   return [theme, set];
+}
+
+const DARK_QUERY = '(prefers-color-scheme: dark)';
+function resolvedTheme(): 'light' | 'dark' {
+  const t = document.documentElement.dataset.theme;
+  if (t === 'light' || t === 'dark') return t;
+  return window.matchMedia?.(DARK_QUERY).matches ? 'dark' : 'light';
+}
+function subscribeResolved(listener: () => void) {
+  const off = subscribe(listener);
+  const mq = window.matchMedia?.(DARK_QUERY);
+  mq?.addEventListener('change', listener);
+  return () => {
+    off();
+    mq?.removeEventListener('change', listener);
+  };
+}
+
+/** The palette in use now, light or dark (the choice, or the system's when the choice is "system"). */
+export function useResolvedTheme(): 'light' | 'dark' {
+  return useSyncExternalStore(subscribeResolved, resolvedTheme, () => 'light' as const);
+}
+
+/**
+ * Palette colours as literal values, for canvas (uPlot) and SVG (recharts) drawing, read from the CSS
+ * variables of src/styles/index.css and read again when the palette changes. `names` are variable names
+ * without the leading `--tw-` ("chart-1", "ink-soft").
+ */
+export function usePalette<K extends string>(names: readonly K[]): Record<K, string> {
+  const theme = useResolvedTheme();
+  const key = names.join(',');
+  return useMemo(() => {
+    const style = typeof document === 'undefined' ? null : getComputedStyle(document.documentElement);
+    return Object.fromEntries(names.map((n) => [n, style?.getPropertyValue(`--tw-${n}`).trim() || '#888888'])) as Record<K, string>;
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- `key` stands for `names`; `theme` is why it is read again
+  }, [key, theme]);
 }

@@ -9,6 +9,7 @@ import { firstName } from '@/lib/names';
 import { navExtras } from './nav-extras';
 import { NotebookMenu } from './notebook-menu';
 import { DisplayMenu } from './display-menu';
+import { PhoneToasts } from './phone-toasts';
 
 type NavItem = { to: string; label: string; min?: Role };
 /** `notebook` stands for the Notebook entry (setups, run logs, motors), drawn by {@link NotebookMenu}. */
@@ -174,6 +175,7 @@ export function AppLayout() {
         </div>
       </header>
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-8">
+        <PhoneToasts />
         <UpdateNotice />
         <SavedCopyNotice />
         <Outlet />

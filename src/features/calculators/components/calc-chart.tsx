@@ -1,21 +1,31 @@
 import { Bar, BarChart, CartesianGrid, Cell, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { CalculatorName } from '@shared/calc/registry';
+import { useMemo } from 'react';
 import { toDisplay, unitOf, type UnitSystem } from '@shared/units';
+import { usePalette } from '@/lib/preferences';
 
-// Colours from the notebook palette's variables (src/styles/index.css), so the charts follow dark mode.
-const COPPER = 'var(--tw-chart-1)';
-const INK = 'var(--tw-chart-2)';
-const INK_FAINT = 'var(--tw-ink-faint)';
-const GRID = 'var(--tw-paper-line)';
-const BAR = 'var(--tw-copper-light)';
-const AXIS = { fontSize: 12, fill: 'var(--tw-ink-soft)' };
-const TOOLTIP = {
-  contentStyle: { background: 'var(--tw-paper-card)', borderColor: 'var(--tw-paper-line)', color: 'var(--tw-ink)' },
-  labelStyle: { color: 'var(--tw-ink)' },
-  itemStyle: { color: 'var(--tw-ink)' },
-};
+// Colours from the notebook palette's variables (src/styles/index.css) as literal values, read again when
+// the palette changes (dark mode).
+const PALETTE = ['chart-1', 'chart-2', 'ink-faint', 'paper-line', 'copper-light', 'ink-soft', 'ink', 'paper-card'] as const;
+type Colours = ReturnType<typeof colours>;
+function colours(p: Record<(typeof PALETTE)[number], string>) {
+  return {
+    COPPER: p['chart-1'],
+    INK: p['chart-2'],
+    INK_FAINT: p['ink-faint'],
+    GRID: p['paper-line'],
+    BAR: p['copper-light'],
+    AXIS: { fontSize: 12, fill: p['ink-soft'] },
+    TOOLTIP: {
+      contentStyle: { background: p['paper-card'], borderColor: p['paper-line'], color: p.ink },
+      labelStyle: { color: p.ink },
+      itemStyle: { color: p.ink },
+    },
+  };
+}
 
 type Props = { name: CalculatorName; results: Record<string, unknown>; inputs: Record<string, string>; units?: UnitSystem };
+type ChartProps = Omit<Props, 'name'> & { c: Colours };
 
 /** An HTML legend: it wraps on a phone, where recharts' SVG legend would run into the plot. */
 function ChartKey({ items }: { items: { label: string; color: string; dashed?: boolean }[] }) {
@@ -45,7 +55,8 @@ function niceTicks(end: number): number[] {
 }
 const atNumber = (s: string | undefined) => (s !== undefined && s.trim() !== '' && Number.isFinite(Number(s)) ? Number(s) : undefined);
 
-function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
+function TimingChart({ results, inputs, c }: ChartProps) {
+  const { COPPER, INK, INK_FAINT, GRID, AXIS, TOOLTIP } = c;
   const points = results.points as { rpm: number; deg: number; fullThrottleDeg?: number }[];
   const hasStep = points.some((p) => p.fullThrottleDeg !== undefined);
   const at = atNumber(inputs.atRpm);
@@ -110,7 +121,8 @@ function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
   );
 }
 
-function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
+function ThrottleChart({ results, inputs, c }: ChartProps) {
+  const { COPPER, INK_FAINT, GRID, AXIS, TOOLTIP } = c;
   const points = (results.points as { inputPct: number; outputPct: number }[]).map((p) => ({ ...p, linear: p.inputPct }));
   const at = atNumber(inputs.inputPct);
   return (
@@ -151,7 +163,8 @@ function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
   );
 }
 
-function GearingChart({ results, inputs, units = 'metric' }: Omit<Props, 'name'>) {
+function GearingChart({ results, inputs, units = 'metric', c }: ChartProps) {
+  const { COPPER, GRID, BAR, AXIS, TOOLTIP } = c;
   const sweep = (results.pinionSweep as { pinion: number; finalDriveRatio: number; rolloutMm: number }[]).map((p) => ({
     ...p,
     rollout: toDisplay('rollout', p.rolloutMm, units),
@@ -190,14 +203,16 @@ const CAPTIONS: Partial<Record<CalculatorName, string>> = {
 
 /** The chart for a calculator's results; loaded on demand (recharts is large). */
 export default function CalcChart({ name, results, inputs, units }: Props) {
+  const palette = usePalette(PALETTE);
+  const c = useMemo(() => colours(palette), [palette]);
   const caption = CAPTIONS[name];
   if (!caption) return null;
   return (
     <figure className="m-0" data-chart={name}>
       <figcaption className="mb-1 font-sans text-xs font-semibold tracking-wider text-ink-muted uppercase">{caption}</figcaption>
-      {name === 'timing-curve' && <TimingChart results={results} inputs={inputs} />}
-      {name === 'throttle' && <ThrottleChart results={results} inputs={inputs} />}
-      {name === 'gearing' && <GearingChart results={results} inputs={inputs} units={units} />}
+      {name === 'timing-curve' && <TimingChart results={results} inputs={inputs} c={c} />}
+      {name === 'throttle' && <ThrottleChart results={results} inputs={inputs} c={c} />}
+      {name === 'gearing' && <GearingChart results={results} inputs={inputs} units={units} c={c} />}
     </figure>
   );
 }
