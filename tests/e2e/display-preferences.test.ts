@@ -162,6 +162,12 @@ describe('display preferences: units and theme', () => {
     }
     expect(await seriousViolations(page)).toBe('');
     await screenshot(page, 'dark-setups-compare-390');
+    await page.getByTestId('deltas-table').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: '.test-artifacts/screenshots/dark-setups-compare-390-deltas.png' });
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await display.click();
+    await page.getByRole('group', { name: 'Display' }).waitFor();
+    await page.screenshot({ path: '.test-artifacts/screenshots/dark-display-open-390.png' });
     await context.close();
   }, 90_000);
 });

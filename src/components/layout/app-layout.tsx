@@ -52,7 +52,7 @@ function HeaderSearch() {
     if (q.trim()) navigate(`/search?q=${encodeURIComponent(q.trim())}`);
   };
   return (
-    <form role="search" action="/search" method="get" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-52 xl:w-56">
+    <form role="search" action="/search" method="get" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-40 xl:w-48">
       <label className="sr-only" htmlFor="header-search">
         Search settings and guides
       </label>

@@ -58,19 +58,16 @@ export function DisplayMenu() {
         type="button"
         aria-expanded={open}
         aria-controls={panelId}
-        title="Display: units and theme"
+        title={`Display: ${units} units, ${theme === 'system' ? 'theme as the device' : `${theme} theme`}`}
         onClick={() => setOpen((o) => !o)}
-        className="flex items-center gap-1 rounded-md border border-ink/20 px-2 py-1.5 text-sm text-ink hover:bg-paper-deep"
+        className="flex items-center rounded-md border border-ink/20 p-1.5 text-sm text-ink hover:bg-paper-deep"
       >
         {/* A half-filled circle: light and dark. */}
-        <svg viewBox="0 0 16 16" className="h-4 w-4" aria-hidden>
+        <svg viewBox="0 0 16 16" className="h-5 w-5" aria-hidden>
           <circle cx="8" cy="8" r="6.25" fill="none" stroke="currentColor" strokeWidth="1.5" />
           <path d="M8 1.75 A6.25 6.25 0 0 1 8 14.25 Z" fill="currentColor" />
         </svg>
         <span className="sr-only">Display</span>
-        <span aria-hidden className="font-mono text-[0.7rem] leading-none" data-units-badge>
-          {units === 'imperial' ? 'in' : 'mm'}
-        </span>
       </button>
       {open && (
         <div
