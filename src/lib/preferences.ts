@@ -1,9 +1,9 @@
 import { useCallback, useMemo, useSyncExternalStore } from 'react';
-import { useQueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { User } from '@shared/schemas/user';
 import { DEFAULT_UNITS, UNIT_SYSTEMS, type UnitSystem } from '@shared/units';
 import { api, type Envelope } from '@/lib/api-client';
-import { authQueries, useCurrentUser } from '@/features/auth/api/auth';
+import { meQuery } from '@/lib/session';
 
 /**
  * Display preferences (#17): units and colour theme. A member's units live in the account (PATCH
@@ -62,7 +62,7 @@ export function applyTheme(choice: ThemeChoice = storedTheme()) {
 
 /** The units figures are shown in: the account's for a member, this browser's for a visitor. */
 export function useUnits(): UnitSystem {
-  const me = useCurrentUser();
+  const me = useQuery(meQuery());
   const local = useSyncExternalStore(subscribe, storedUnits, () => DEFAULT_UNITS);
   return me.data?.units ?? local;
 }
@@ -70,7 +70,7 @@ export function useUnits(): UnitSystem {
 /** Changes the units: saved in the account for a member (and in this browser for after sign-out). */
 export function useSetUnits() {
   const qc = useQueryClient();
-  const me = useCurrentUser();
+  const me = useQuery(meQuery());
   return useCallback(
     async (units: UnitSystem) => {
       write(KEYS.units, units);
@@ -78,12 +78,12 @@ export function useSetUnits() {
       if (!user) return;
       // Shown at once; the account is updated behind it and put back if the server says no.
       const shown: User = { ...user, units };
-      qc.setQueryData(authQueries.me().queryKey, shown);
+      qc.setQueryData(meQuery().queryKey, shown);
       try {
         const saved = (await api.patch<Envelope<{ user: User }>>('/api/account', { units })).data.user;
-        qc.setQueryData(authQueries.me().queryKey, saved);
+        qc.setQueryData(meQuery().queryKey, saved);
       } catch (err) {
-        qc.setQueryData(authQueries.me().queryKey, user);
+        qc.setQueryData(meQuery().queryKey, user);
         throw err;
       }
     },

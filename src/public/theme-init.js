@@ -1,3 +1,4 @@
+/* global localStorage, document */
 // Puts a chosen colour theme (light or dark) on the page before it is painted; "system" (the default)
 // leaves it to prefers-color-scheme. The same key is written by src/lib/preferences.ts.
 try {

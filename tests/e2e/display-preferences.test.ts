@@ -23,7 +23,9 @@ const result = (page: Page, key: string) => page.locator(`[data-result="${key}"]
 /** The page background's relative luminance (WCAG 2.x formula), 0 black … 1 white. */
 const backgroundLuminance = (page: Page) =>
   page.evaluate(() => {
-    const m = getComputedStyle(document.body).backgroundColor.match(/\d+(\.\d+)?/g)!.map(Number);
+    const m = getComputedStyle(document.body)
+      .backgroundColor.match(/\d+(\.\d+)?/g)!
+      .map(Number);
     const lin = (c: number) => (c / 255 <= 0.03928 ? c / 255 / 12.92 : ((c / 255 + 0.055) / 1.055) ** 2.4);
     return 0.2126 * lin(m[0]) + 0.7152 * lin(m[1]) + 0.0722 * lin(m[2]);
   });
@@ -68,7 +70,12 @@ describe('display preferences: units and theme', () => {
     expect(await row(/Final drive ratio/)).toMatch(/\d\.\d\d:1.*\d\.\d\d:1/);
     expect(await row(/Rollout/)).toMatch(/\d\.\d\d\d in/);
     expect(await row(/top speed/)).toMatch(/\d\.\d mph/);
-    expect(await page.getByTestId('fields-table').getByRole('row', { name: /Tyre diameter/ }).textContent()).toMatch(/\d\.\d\d\d in/);
+    expect(
+      await page
+        .getByTestId('fields-table')
+        .getByRole('row', { name: /Tyre diameter/ })
+        .textContent(),
+    ).toMatch(/\d\.\d\d\d in/);
 
     const me = await page.evaluate(async () => (await (await fetch('/api/auth/me')).json()).data.user.units);
     expect(me).toBe('imperial');
@@ -169,5 +176,22 @@ describe('display preferences: units and theme', () => {
     await page.getByRole('group', { name: 'Display' }).waitFor();
     await page.screenshot({ path: '.test-artifacts/screenshots/dark-display-open-390.png' });
     await context.close();
+  }, 90_000);
+
+  it('on a phone a toast sits in the page flow above the content, never floating over it', async () => {
+    const page = await signedInPage(suite.browser, suite.server.baseUrl, 'mira', { width: 390, height: 844 });
+    await page.goto(`${suite.server.baseUrl}/guides`);
+    await waitForApp(page);
+    await page.getByRole('button', { name: 'Menu' }).click();
+    await page.getByRole('banner').getByRole('button', { name: 'Sign out' }).click();
+    const inFlow = page.getByTestId('phone-toasts');
+    await inFlow.getByText('Signed out').waitFor(WAIT);
+    // The floating stack is hidden at this width, and the message is laid out before the page's heading.
+    expect(await page.locator('[data-sonner-toaster]').evaluateAll((els) => els.every((el) => getComputedStyle(el).display === 'none'))).toBe(true);
+    const [t, h] = [(await inFlow.boundingBox())!, (await page.locator('main h1').first().boundingBox())!];
+    expect(t.y + t.height).toBeLessThanOrEqual(h.y);
+    await inFlow.getByRole('button', { name: 'Dismiss' }).click();
+    await inFlow.waitFor({ state: 'detached' });
+    await page.context().close();
   }, 90_000);
 });

@@ -21,10 +21,7 @@ export function PhoneToasts() {
 
   useEffect(() => {
     const timers = live.map((t) =>
-      setTimeout(
-        () => setGone((g) => new Set(g).add(t.id)),
-        typeof t.duration === 'number' && Number.isFinite(t.duration) ? t.duration : DEFAULT_MS,
-      ),
+      setTimeout(() => setGone((g) => new Set(g).add(t.id)), typeof t.duration === 'number' && Number.isFinite(t.duration) ? t.duration : DEFAULT_MS),
     );
     return () => timers.forEach(clearTimeout);
     // Re-armed when the set of shown toasts changes.

@@ -153,7 +153,9 @@ function ThrottleChart({ results, inputs, c }: ChartProps) {
           />
           <Tooltip
             {...TOOLTIP}
-            formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`} labelFormatter={(l) => `${l} % stick`} />
+            formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`}
+            labelFormatter={(l) => `${l} % stick`}
+          />
           {at !== undefined && <ReferenceLine x={at} stroke={INK_FAINT} strokeDasharray="4 3" />}
           <Line type="linear" dataKey="linear" name="Linear" stroke={INK_FAINT} strokeDasharray="4 4" dot={false} isAnimationActive={false} />
           <Line type="monotone" dataKey="outputPct" name="Your curve" stroke={COPPER} strokeWidth={2.5} dot={false} isAnimationActive={false} />

@@ -42,7 +42,11 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
           note: `${len(r.rolloutMm, other, 'rollout')} per motor turn`,
           primary: true,
         },
-        { key: 'kmhPer1000Rpm', label: 'Speed per 1,000 motor rpm', value: formatQuantity('speed', typeof r.kmhPer1000Rpm === 'number' ? r.kmhPer1000Rpm : null, units, 2) },
+        {
+          key: 'kmhPer1000Rpm',
+          label: 'Speed per 1,000 motor rpm',
+          value: formatQuantity('speed', typeof r.kmhPer1000Rpm === 'number' ? r.kmhPer1000Rpm : null, units, 2),
+        },
         { key: 'tyreCircumferenceMm', label: 'Tyre circumference', value: len(r.tyreCircumferenceMm, units) },
       ];
     case 'motor':
