@@ -178,6 +178,33 @@ describe('display preferences: units and theme', () => {
     await context.close();
   }, 90_000);
 
+  it('at 200 % zoom (640 CSS px) the guide history keeps each edit note whole and its actions in view', async () => {
+    const page = await signedInPage(suite.browser, suite.server.baseUrl, 'owen', { width: 640, height: 450 });
+    await page.goto(`${suite.server.baseUrl}/guides/stock-2wd-buggy-harbour-flats-clay`);
+    await waitForApp(page);
+    const list = page.getByRole('list', { name: 'Versions of this guide, newest first' });
+    await list.waitFor(WAIT);
+    expect(await page.locator('table:has(caption:text("Versions of this guide"))').isVisible()).toBe(false);
+    await list.scrollIntoViewIfNeeded();
+    const items = await list.locator(':scope > li').evaluateAll((lis) =>
+      lis.map((li) => {
+        const box = li.getBoundingClientRect();
+        const actions = [...li.querySelectorAll('a, button')].map((el) => el.getBoundingClientRect());
+        return { right: box.right, actionsInside: actions.every((r) => r.right <= window.innerWidth && r.left >= 0), text: li.textContent ?? '' };
+      }),
+    );
+    expect(items.length).toBeGreaterThan(1);
+    for (const it of items) {
+      expect(it.right).toBeLessThanOrEqual(640);
+      expect(it.actionsInside).toBe(true);
+    }
+    // An older version offers "Compare with live" (and, for a moderator, Restore), on screen.
+    expect(items.some((i) => i.text.includes('Compare with live'))).toBe(true);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    await page.screenshot({ path: '.test-artifacts/screenshots/history-zoom200.png' });
+    await page.context().close();
+  }, 90_000);
+
   it('on a phone a toast sits in the page flow above the content, never floating over it', async () => {
     const page = await signedInPage(suite.browser, suite.server.baseUrl, 'mira', { width: 390, height: 844 });
     await page.goto(`${suite.server.baseUrl}/guides`);
