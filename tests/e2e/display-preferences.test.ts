@@ -77,6 +77,14 @@ describe('display preferences: units and theme', () => {
         .textContent(),
     ).toMatch(/\d\.\d\d\d in/);
 
+    // The astroturf guide's notes warn at 80 °C; B goes up from a 25- to a 30-tooth pinion: the heat caution shows.
+    await page.goto(`${suite.server.baseUrl}/setups/compare?a=guide:mod-2wd-buggy-brackwater-astroturf&b=guide:mod-touring-car-park-asphalt`);
+    await page
+      .getByTestId('cautions')
+      .getByText(/Bigger pinion on a setup that runs hot/)
+      .waitFor(WAIT);
+    expect(await page.getByTestId('cautions').textContent()).toMatch(/from a 25- to a 30-tooth pinion/);
+
     const me = await page.evaluate(async () => (await (await fetch('/api/auth/me')).json()).data.user.units);
     expect(me).toBe('imperial');
     expect(errors).toEqual([]);
