@@ -85,6 +85,12 @@ describe('display preferences: units and theme', () => {
       .waitFor(WAIT);
     expect(await page.getByTestId('cautions').textContent()).toMatch(/from a 25- to a 30-tooth pinion/);
 
+    // The account page shows the same choice, and changing it there changes it everywhere.
+    await page.goto(`${suite.server.baseUrl}/account`);
+    const unitsGroup = page.getByRole('group', { name: 'Units for figures' });
+    await unitsGroup.waitFor(WAIT);
+    expect(await unitsGroup.getByRole('radio', { name: /Imperial/ }).isChecked()).toBe(true);
+
     const me = await page.evaluate(async () => (await (await fetch('/api/auth/me')).json()).data.user.units);
     expect(me).toBe('imperial');
     expect(errors).toEqual([]);
