@@ -57,7 +57,7 @@ describe('display preferences: units and theme', () => {
 
     // A guide's worked examples follow too.
     await page.goto(`${suite.server.baseUrl}/guides/mod-4wd-buggy-harbour-flats-clay`);
-    await revealWorkedExamples(page);
+    await revealWorkedExamples(page, 90_000);
     const shown = await page.locator('[data-worked-example] [data-result] dd').allTextContents();
     expect(shown.some((t) => / (in|mph)$/.test(t))).toBe(true);
     expect(shown.some((t) => / (mm|km\/h)$/.test(t))).toBe(false);
@@ -77,13 +77,26 @@ describe('display preferences: units and theme', () => {
         .textContent(),
     ).toMatch(/\d\.\d\d\d in/);
 
-    // The astroturf guide's notes warn at 80 °C; B goes up from a 25- to a 30-tooth pinion: the heat caution shows.
-    await page.goto(`${suite.server.baseUrl}/setups/compare?a=guide:mod-2wd-buggy-brackwater-astroturf&b=guide:mod-touring-car-park-asphalt`);
+    // A pair of published baselines where B goes up in pinion from a setup whose notes warn of heat (the
+    // astroturf guide's notes name 80 °C): the comparison page shows the pinion heat caution.
+    const pair = await page.evaluate(async () => {
+      const lib = (await (await fetch('/api/setups')).json()).data.baselines as Array<{ guideSlug: string }>;
+      const from = lib.find((x) => x.guideSlug === 'mod-2wd-buggy-brackwater-astroturf')!;
+      for (const to of lib) {
+        if (to === from) continue;
+        const q = new URLSearchParams({ a: `guide:${from.guideSlug}`, b: `guide:${to.guideSlug}` });
+        const cmp = (await (await fetch(`/api/setups/compare?${q}`)).json()).data;
+        if (cmp.cautions.some((c: { code: string }) => c.code === 'heat-pinion-up')) return q.toString();
+      }
+      return null;
+    });
+    expect(pair).not.toBeNull();
+    await page.goto(`${suite.server.baseUrl}/setups/compare?${pair}`);
     await page
       .getByTestId('cautions')
       .getByText(/Bigger pinion on a setup that runs hot/)
       .waitFor(WAIT);
-    expect(await page.getByTestId('cautions').textContent()).toMatch(/from a 25- to a 30-tooth pinion/);
+    expect(await page.getByTestId('cautions').textContent()).toMatch(/from a \d+- to a \d+-tooth pinion, and A's notes warn of high temperatures/);
 
     // The account page shows the same choice, and changing it there changes it everywhere.
     await page.goto(`${suite.server.baseUrl}/account`);
@@ -95,7 +108,7 @@ describe('display preferences: units and theme', () => {
     expect(me).toBe('imperial');
     expect(errors).toEqual([]);
     await page.context().close();
-  }, 120_000);
+  }, 180_000);
 
   it("a visitor's units stay in the browser across a reload", async () => {
     const page = await (await suite.browser.newContext({ viewport: { width: 1366, height: 900 } })).newPage();
@@ -127,7 +140,7 @@ describe('display preferences: units and theme', () => {
       await page.locator('main h1').first().waitFor();
       if (path.startsWith('/calculators')) await page.locator('[data-chart] svg').first().waitFor(WAIT);
       if (path.startsWith('/setups')) await page.getByTestId('deltas-table').waitFor(WAIT);
-      if (path.startsWith('/guides')) await revealWorkedExamples(page);
+      if (path.startsWith('/guides')) await revealWorkedExamples(page, 90_000);
       expect(await seriousViolations(page), path).toBe('');
       await screenshot(page, `dark${path.replace(/[/?=&:]+/g, '-')}`);
     }
@@ -155,7 +168,7 @@ describe('display preferences: units and theme', () => {
     await expect.poll(() => backgroundLuminance(page)).toBeGreaterThan(0.8);
     expect(errors).toEqual([]);
     await context.close();
-  }, 180_000);
+  }, 240_000);
 
   it('on a 390 px phone: the switch sits beside Menu, the comparison says its wide table scrolls, and keyboard can scroll it', async () => {
     const context = await suite.browser.newContext({ viewport: { width: 390, height: 844 }, colorScheme: 'dark' });
