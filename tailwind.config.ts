@@ -5,13 +5,14 @@ export default {
   content: ['./index.html', './src/**/*.{ts,tsx}'],
   theme: {
     extend: {
+      // Each colour is a CSS variable (src/styles/index.css) so dark mode swaps the palette in one place.
       colors: {
-        paper: { DEFAULT: '#f6f0e4', deep: '#ede3d0', card: '#fbf8f1', line: '#dccfb6' },
-        ink: { DEFAULT: '#1d2a44', soft: '#3a4763', muted: '#5f6a80', faint: '#8a93a5' },
-        copper: { DEFAULT: '#a9572a', dark: '#8a4520', light: '#d98f5f', wash: '#f4e2d4' },
-        caution: { DEFAULT: '#8a5a00', wash: '#fbeecb', line: '#e6c56e' },
-        danger: { DEFAULT: '#9b2c2c', wash: '#f8e0dc', line: '#e3a59b' },
-        ok: { DEFAULT: '#2f6b4f', wash: '#ddefe4', line: '#9cc9b0' },
+        paper: { DEFAULT: 'var(--tw-paper)', deep: 'var(--tw-paper-deep)', card: 'var(--tw-paper-card)', line: 'var(--tw-paper-line)' },
+        ink: { DEFAULT: 'var(--tw-ink)', soft: 'var(--tw-ink-soft)', muted: 'var(--tw-ink-muted)', faint: 'var(--tw-ink-faint)' },
+        copper: { DEFAULT: 'var(--tw-copper)', dark: 'var(--tw-copper-dark)', light: 'var(--tw-copper-light)', wash: 'var(--tw-copper-wash)' },
+        caution: { DEFAULT: 'var(--tw-caution)', wash: 'var(--tw-caution-wash)', line: 'var(--tw-caution-line)' },
+        danger: { DEFAULT: 'var(--tw-danger)', wash: 'var(--tw-danger-wash)', line: 'var(--tw-danger-line)' },
+        ok: { DEFAULT: 'var(--tw-ok)', wash: 'var(--tw-ok-wash)', line: 'var(--tw-ok-line)' },
       },
       fontFamily: {
         sans: ['Inter', 'system-ui', 'sans-serif'],

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { LIMITS, ROLES } from '../constants';
+import { unitSystemSchema } from '../units';
 
 export const roleSchema = z.enum(ROLES);
 
@@ -10,6 +11,8 @@ export const userSchema = z.object({
   displayName: z.string(),
   role: roleSchema,
   emailVerified: z.boolean(),
+  /** Display units (#17). */
+  units: unitSystemSchema,
 });
 export type User = z.infer<typeof userSchema>;
 
@@ -59,7 +62,11 @@ export const changePasswordSchema = z.object({
   currentPassword: z.string().min(1, 'Enter your current password').max(LIMITS.passwordMax),
   newPassword: passwordSchema,
 });
-export const updateProfileSchema = z.object({ displayName: displayNameSchema });
+/** PATCH /api/account: any of the display name and the display units, at least one. */
+export const updateProfileSchema = z
+  .object({ displayName: displayNameSchema.optional(), units: unitSystemSchema.optional() })
+  .refine((v) => v.displayName !== undefined || v.units !== undefined, { message: 'Send a display name or units' });
+export type UpdateProfileInput = z.infer<typeof updateProfileSchema>;
 
 export const adminUserQuerySchema = z.object({
   q: z.string().trim().max(100).optional(),

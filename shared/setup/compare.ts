@@ -90,8 +90,25 @@ export function computedDeltas(a: SetupComputed, b: SetupComputed, atRpm: number
   ];
 }
 
+/**
+ * Whether a record's own words warn of heat: its notes or layout name a motor or controller temperature
+ * of 60 °C (140 °F) or more, or speak of heat ("hot", "heat", "overheating"), or its conditions were
+ * hot (air from 30 °C, track from 40 °C). Thresholds: common practice, no source (60 °C is where the
+ * temperature calculator's motor band turns from cool towards warm and hot; see shared/calc/temperature.ts).
+ */
+export function notesHeat(record: SetupRecord): boolean {
+  const text = [record.notes, record.conditions?.layout].filter(Boolean).join(' ');
+  for (const m of text.matchAll(/(\d{2,3}(?:[.,]\d+)?)\s*°\s*([CF])\b/g)) {
+    const v = Number(m[1].replace(',', '.'));
+    if ((m[2] === 'C' && v >= 60) || (m[2] === 'F' && v >= 140)) return true;
+  }
+  if (/\b(hot|heat|overheat\w*)\b/i.test(text)) return true;
+  const c = record.conditions;
+  return (c?.ambientTempC ?? -Infinity) >= 30 || (c?.trackTempC ?? -Infinity) >= 40;
+}
+
 /** Cautions raised by moving from A to B, beyond each record's own. */
-function changeCautions(a: SetupComputed, b: SetupComputed): CompareCaution[] {
+function changeCautions(a: SetupComputed, b: SetupComputed, recA?: SetupRecord, recB?: SetupRecord): CompareCaution[] {
   const out: CompareCaution[] = [];
   const ta = a.timing?.totalDeg;
   const tb = b.timing?.totalDeg;
@@ -112,6 +129,25 @@ function changeCautions(a: SetupComputed, b: SetupComputed): CompareCaution[] {
           `B runs ${roundSig(tb, 3)}° of total timing at ${b.timing!.atRpm.toLocaleString('en-GB')} rpm (A: ${roundSig(ta, 3)}°) on taller gearing (rollout ${ra} → ${rb} mm). ` +
           'More timing and taller gearing both heat the motor and controller, and together they add up fast. Change one at a time, check the motor a few minutes into the run, ' +
           "gear down if it climbs, and stay within the motor and controller makers' limits.",
+      });
+    }
+  }
+  // A bigger pinion on a setup whose notes warn of heat: say so even when the timing stays put.
+  const pa = recA?.gearing?.pinionTeeth;
+  const pb = recB?.gearing?.pinionTeeth;
+  if (recA && recB && pa !== undefined && pb !== undefined && pb > pa && !out.some((c) => c.code === 'heat-timing-and-gearing')) {
+    const who = notesHeat(recA) ? 'A' : notesHeat(recB) ? 'B' : null;
+    if (who) {
+      out.push({
+        level: 'caution',
+        code: 'heat-pinion-up',
+        source: 'compare',
+        side: 'b',
+        field: 'gearing.pinionTeeth',
+        message:
+          `B goes up from a ${pa}- to a ${pb}-tooth pinion, and ${who}'s notes warn of high temperatures. A bigger pinion loads the motor more on every lap: ` +
+          'go up one tooth at a time, check the motor and controller temperature a few minutes into the run, gear back down if it climbs, ' +
+          "and stay within the motor and controller makers' limits.",
       });
     }
   }
@@ -146,7 +182,7 @@ export function compareSetups(a: SetupRecord, b: SetupRecord, opts: ComputeOptio
     differences: fields.filter((f) => f.changed),
     computed: { a: ca, b: cb },
     deltas: computedDeltas(ca, cb, atRpm),
-    cautions: sortCautions([...own('b', cb), ...changeCautions(ca, cb), ...own('a', ca)]),
+    cautions: sortCautions([...own('b', cb), ...changeCautions(ca, cb, a, b), ...own('a', ca)]),
     atRpm,
   };
 }

@@ -4,6 +4,7 @@ import remarkGfm from 'remark-gfm';
 import rehypeSanitize from 'rehype-sanitize';
 import { isExternalHref, safeHref, sanitizeSchema, WORKED_EXAMPLE_LANGUAGE } from '@shared/markdown/safety';
 import { imageAttributes } from '@shared/markdown/images';
+import { TableScroll } from '@/components/ui/table-scroll';
 
 // No raw HTML ever reaches the page: react-markdown does not parse it, and the shared schema strips what remains.
 export const rehypePlugins = [[rehypeSanitize, sanitizeSchema]] as const;
@@ -58,9 +59,9 @@ export function Markdown({ children, renderWorkedExample, resolveHref, className
     },
     table({ children: tableChildren }) {
       return (
-        <div className="table-scroll">
+        <TableScroll label="Table">
           <table>{tableChildren}</table>
-        </div>
+        </TableScroll>
       );
     },
   };

@@ -8,8 +8,8 @@ import type { ExternalToast, ToasterProps } from 'sonner';
  * did, so a first-paint reader never downloads it). The toaster mounts first and the toast is raised
  * once it listens, so the live region exists before its first message (screen readers announce it).
  *
- * Placement: top-centre on phones, so a toast never covers the bottom rows of a table (where a saved
- * row or a failed upload usually is); bottom-right on wider screens, out of the reading column.
+ * Placement: bottom-right on wider screens, out of the reading column; on a phone, in the page's flow at
+ * the top of the content ({@link InPageToasts}), so a toast never covers a table or a form.
  */
 type Sonner = typeof import('sonner');
 let sonner: Promise<Sonner> | null = null;
@@ -33,7 +33,7 @@ export type ToastOptions = Pick<ExternalToast, 'description' | 'duration' | 'id'
 function show(kind: Kind, message: ReactNode, options?: ToastOptions) {
   wantToaster();
   void loadSonner()
-    .then((m) => mounted.then(() => m.toast[kind](message, options)))
+    .then((m) => Promise.all([mounted, isPhone() ? phoneMounted : null]).then(() => m.toast[kind](message, options)))
     .catch(() => undefined); // the chunk could not load (offline, stale build): the page itself still says what happened
 }
 
@@ -43,6 +43,7 @@ export const toast = {
 };
 
 const PHONE = '(max-width: 639px)';
+const isPhone = () => typeof window !== 'undefined' && window.matchMedia(PHONE).matches;
 function useIsPhone(): boolean {
   return useSyncExternalStore(
     (l) => {
@@ -65,9 +66,8 @@ const LazyToaster = lazy(() =>
   })),
 );
 
-/** Where toasts appear; rendered once, by the app provider. Draws nothing before the first toast. */
-export function Toasts() {
-  const isWanted = useSyncExternalStore(
+function useWanted() {
+  return useSyncExternalStore(
     (l) => {
       wantedListeners.add(l);
       return () => wantedListeners.delete(l);
@@ -75,11 +75,44 @@ export function Toasts() {
     () => wanted,
     () => false,
   );
+}
+
+/** Where toasts appear; rendered once, by the app provider. Draws nothing before the first toast. */
+export function Toasts() {
+  const isWanted = useWanted();
   const phone = useIsPhone();
   if (!isWanted) return null;
   return (
     <Suspense fallback={null}>
       <LazyToaster position={phone ? 'top-center' : 'bottom-right'} toastOptions={{ className: 'font-sans' }} />
+    </Suspense>
+  );
+}
+
+let markPhoneMounted: () => void = () => undefined;
+const phoneMounted = new Promise<void>((resolve) => (markPhoneMounted = resolve));
+
+const LazyPhoneToasts = lazy(() =>
+  import('./phone-toasts').then((m) => ({
+    default: function MountedPhoneToasts() {
+      // As with the toaster: the list has subscribed to sonner's toasts before this effect runs.
+      useEffect(() => markPhoneMounted(), []);
+      return <m.PhoneToasts />;
+    },
+  })),
+);
+
+/**
+ * On a phone, the same messages in the page's flow at the top of the content (the floating stack is hidden
+ * below 640 px, src/styles/index.css), so a toast never covers a table or a form. Loaded with the first toast.
+ */
+export function InPageToasts() {
+  const isWanted = useWanted();
+  const phone = useIsPhone();
+  if (!isWanted || !phone) return null;
+  return (
+    <Suspense fallback={null}>
+      <LazyPhoneToasts />
     </Suspense>
   );
 }

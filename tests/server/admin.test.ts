@@ -105,3 +105,51 @@ describe('PATCH /api/admin/users/:id', () => {
     expect((await client.patch(`/api/admin/users/${user.id}`, { role: 'superuser', reason })).body.error.details[0].path).toBe('body.role');
   });
 });
+
+describe('account', () => {
+  it('PATCH /api/account changes the display name', async () => {
+    const { client } = await signedInClient(t, 'member');
+    const res = await client.patch('/api/account', { displayName: 'Pit Lane Regular' });
+    expect(res.status).toBe(200);
+    expect((await client.get('/api/auth/me')).body.data.user.displayName).toBe('Pit Lane Regular');
+  });
+
+  it('PATCH /api/account keeps the display units (metric by default), alone or with the name', async () => {
+    const { client } = await signedInClient(t, 'member');
+    const before = (await client.get('/api/auth/me')).body.data.user;
+    expect(before.units).toBe('metric');
+    const res = await client.patch('/api/account', { units: 'imperial' });
+    expect(res.status).toBe(200);
+    expect(res.body.data.user).toMatchObject({ units: 'imperial', displayName: before.displayName });
+    expect((await client.get('/api/auth/me')).body.data.user.units).toBe('imperial');
+    await client.patch('/api/account', { displayName: 'Oval Night Regular', units: 'metric' });
+    expect((await client.get('/api/auth/me')).body.data.user).toMatchObject({ units: 'metric', displayName: 'Oval Night Regular' });
+    // Neither field, or a system we do not have: the one error shape, nothing changed.
+    for (const body of [{}, { units: 'furlongs' }, { units: 1 }]) {
+      const bad = await client.patch('/api/account', body);
+      expect(bad.status).toBe(400);
+      expect(bad.body.error.code).toBe('validation_failed');
+    }
+    expect((await client.get('/api/auth/me')).body.data.user.units).toBe('metric');
+  });
+
+  it('POST /api/account/password rotates the session and ends the others', async () => {
+    const { user, password } = await createUser(t);
+    const a = createClient(t.app);
+    const b = createClient(t.app);
+    await a.post('/api/auth/sign-in', { email: user.email, password });
+    await b.post('/api/auth/sign-in', { email: user.email, password });
+    a.resetCsrf();
+    const before = String((await a.get('/api/auth/me')).request.cookies ?? '');
+    const wrong = await a.post('/api/account/password', { currentPassword: 'nope-nope-nope-nope', newPassword: 'another-long-tidal-phrase-7' });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error.details[0].path).toBe('body.currentPassword');
+    const ok = await a.post('/api/account/password', { currentPassword: password, newPassword: 'another-long-tidal-phrase-7' });
+    expect(ok.status).toBe(200);
+    expect(String(ok.headers['set-cookie'])).toMatch(/tw\.sid=/);
+    expect(String(ok.headers['set-cookie'])).not.toContain(before || 'never-matches');
+    a.resetCsrf();
+    expect((await a.get('/api/auth/me')).body.data.user?.id).toBe(user.id);
+    expect((await b.get('/api/auth/me')).body.data.user).toBeNull();
+  });
+});

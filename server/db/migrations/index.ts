@@ -9,6 +9,7 @@ import { Images1796600000000 } from './1796600000000-images';
 import { RunMotor1796600000014 } from './1796600000014-run-motor';
 import { Watches1796700000000 } from './1796700000000-watches';
 import { AccountDeletionAndReturns1797200000001 } from './1797200000001-account-deletion-and-returns';
+import { UserUnits1797300000001 } from './1797300000001-user-units';
 import { AuditOrder1797400000001 } from './1797400000001-audit-order';
 
 /** Migrations in order; listed explicitly so tsx, vitest and the bundler-free CLI all load them the same way. */
@@ -23,5 +24,6 @@ export const migrations = [
   RunMotor1796600000014,
   Watches1796700000000,
   AccountDeletionAndReturns1797200000001,
+  UserUnits1797300000001,
   AuditOrder1797400000001,
 ];

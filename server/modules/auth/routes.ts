@@ -157,14 +157,14 @@ export const authRoutes = [
   defineRoute({
     method: 'patch',
     path: '/api/account',
-    summary: 'Change your display name',
+    summary: 'Change your display name or display units (metric or imperial)',
     tags: ['account'],
     access: 'member',
     owner: { resource: 'account', rule: 'self' },
     body: updateProfileSchema,
     response: userData,
     handler: async ({ body, user, req, ctx }) => {
-      const updated = presentUser(await authService(ctx).updateProfile(user.id, body.displayName));
+      const updated = presentUser(await authService(ctx).updateProfile(user.id, body));
       req.user = updated;
       return { data: { user: updated } };
     },

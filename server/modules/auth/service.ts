@@ -1,7 +1,7 @@
 import { IsNull, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { paths } from '../../../shared/paths';
 import { LIMITS } from '../../../shared/constants';
-import type { SignUpInput } from '../../../shared/schemas/user';
+import type { SignUpInput, UpdateProfileInput } from '../../../shared/schemas/user';
 import { AppError, validationFailed } from '../../lib/errors';
 import { hashPassword, passwordWeakness, verifyPassword } from '../../lib/passwords';
 import { hashToken, newToken } from '../../lib/tokens';
@@ -163,9 +163,10 @@ export function authService(ctx: AppContext) {
       return user;
     },
 
-    async updateProfile(userId: string, displayName: string) {
+    async updateProfile(userId: string, changes: UpdateProfileInput) {
       const user = await users().findOneByOrFail({ id: userId });
-      user.displayName = displayName;
+      if (changes.displayName !== undefined) user.displayName = changes.displayName;
+      if (changes.units !== undefined) user.units = changes.units;
       return users().save(user);
     },
 

@@ -1,5 +1,6 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
 import type { Role } from '../../../shared/constants';
+import type { UnitSystem } from '../../../shared/units';
 
 @Entity({ name: 'users' })
 export class UserEntity {
@@ -18,6 +19,10 @@ export class UserEntity {
 
   @Column({ type: 'text', default: 'member' })
   role: Role;
+
+  /** Display units (#17); figures are stored in SI whatever this says. */
+  @Column({ type: 'text', default: 'metric' })
+  units: UnitSystem;
 
   @Column({ type: 'timestamptz', name: 'email_verified_at', nullable: true })
   emailVerifiedAt: Date | null;

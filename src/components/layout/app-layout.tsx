@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { SavedCopyNotice, UpdateNotice } from './offline-notices';
-import { toast } from '@/lib/toast';
+import { InPageToasts, toast } from '@/lib/toast';
 import { hasRole, type Role } from '@shared/constants';
 import { isAuthPath } from '@shared/safe-next';
 import type { User } from '@shared/schemas/user';
@@ -9,6 +9,7 @@ import { useCurrentUser, useSignOut } from '@/features/auth/api/auth';
 import { firstName } from '@/lib/names';
 import { navExtras } from './nav-extras';
 import { NotebookMenu } from './notebook-menu';
+import { DisplayMenu } from './display-menu';
 
 type NavItem = { to: string; label: string; min?: Role };
 /** `notebook` stands for the Notebook entry (setups, run logs, motors), drawn by {@link NotebookMenu}. */
@@ -51,7 +52,7 @@ function HeaderSearch() {
     if (q.trim()) navigate(`/search?q=${encodeURIComponent(q.trim())}`);
   };
   return (
-    <form role="search" action="/search" method="get" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-52 xl:w-56">
+    <form role="search" action="/search" method="get" onSubmit={handleSubmit} className="w-full sm:w-72 lg:w-40 xl:w-48">
       <label className="sr-only" htmlFor="header-search">
         Search settings and guides
       </label>
@@ -128,15 +129,19 @@ export function AppLayout() {
       <header className="no-print border-b border-paper-line bg-paper/95 backdrop-blur">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-3 px-4 py-3">
           <Brand />
-          <button
-            type="button"
-            className="ml-auto rounded-md border border-ink/20 px-3 py-1.5 text-sm md:hidden"
-            aria-expanded={menuOpen}
-            aria-controls="main-nav"
-            onClick={() => setMenuOpen((o) => !o)}
-          >
-            Menu
-          </button>
+          {/* On a phone the Display switch sits beside Menu; from md up it sits beside the search box. */}
+          <div className="ml-auto flex items-center gap-2 md:hidden">
+            <DisplayMenu />
+            <button
+              type="button"
+              className="rounded-md border border-ink/20 px-3 py-1.5 text-sm"
+              aria-expanded={menuOpen}
+              aria-controls="main-nav"
+              onClick={() => setMenuOpen((o) => !o)}
+            >
+              Menu
+            </button>
+          </div>
           <nav
             id="main-nav"
             aria-label="Main"
@@ -163,11 +168,15 @@ export function AppLayout() {
           {/* The search box stays in view on a phone (one tap away on every page); the account links fold into the menu. */}
           <div className="flex w-full flex-col gap-3 sm:flex-row sm:items-center md:ml-auto md:w-auto">
             <HeaderSearch />
+            <div className="hidden md:block">
+              <DisplayMenu />
+            </div>
             <AccountMenu user={user} shown={menuOpen} />
           </div>
         </div>
       </header>
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-8">
+        <InPageToasts />
         <UpdateNotice />
         <SavedCopyNotice />
         <Outlet />

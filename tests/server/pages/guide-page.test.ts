@@ -74,9 +74,10 @@ describe('GET /guides/:slug (the page, drawn on the server)', () => {
       body: `Body ${hostile}\n\n<script>alert(2)</script>`,
     });
     const html = (await visitor.get(`/guides/${slug}`).expect(200)).text;
-    // Only the shell's own module script and the one data block are script elements.
+    // Only the shell's own scripts (the theme setter and the module) and the one data block are script elements.
     const scripts = [...html.matchAll(/<script\b[^>]*>/gi)].map((m) => m[0]);
-    expect(scripts).toHaveLength(2);
+    expect(scripts).toHaveLength(3);
+    expect(scripts.filter((s) => s === '<script src="/theme-init.js">')).toHaveLength(1);
     expect(scripts.filter((s) => /type="module"/.test(s))).toHaveLength(1);
     expect(html).not.toMatch(/<img[^>]*onerror/i);
     expect(html).toContain('<title>Crawler &lt;/script&gt;&lt;script&gt;window.__xss=1&lt;/script&gt;');

@@ -54,8 +54,10 @@ function checkHead(html: string, title: string, description: string) {
   const descriptions = metas.filter((m) => m.properties.name === 'description');
   expect(descriptions).toHaveLength(1);
   expect(descriptions[0].properties.content).toBe(description);
-  // The shell's own two scripts and nothing else; exactly one root, with the data block after it.
-  expect(elements(tree, 'script')).toHaveLength(2);
+  // The shell's own three scripts (theme setter, module, data block) and nothing else; exactly one root.
+  const scripts = elements(tree, 'script');
+  expect(scripts).toHaveLength(3);
+  expect(scripts.filter((s) => s.properties.src === '/theme-init.js')).toHaveLength(1);
   expect(elements(tree, 'div').filter((d) => d.properties.id === 'root')).toHaveLength(1);
 }
 

@@ -125,6 +125,26 @@ describe('compareSetups', () => {
     expect(compareSetups(timed(23, 16), timed(21, 24)).cautions.map((c) => c.code)).not.toContain('heat-timing-and-gearing');
   });
 
+  it('warns about heat when the pinion goes up on a setup whose notes warn of high temperatures', () => {
+    const geared = (pinion: number, notes?: string, ambientTempC?: number) =>
+      buildSetupRecord({
+        gearing: { spurTeeth: 81, pinionTeeth: pinion, internalRatio: 2.5, tyreDiameterMm: 60 },
+        ...(notes ? { notes } : {}),
+        ...(ambientTempC !== undefined ? { conditions: { surface: 'clay' as const, ambientTempC } } : {}),
+      });
+    const codes = (x: ReturnType<typeof geared>, y: ReturnType<typeof geared>) => compareSetups(x, y).cautions.map((c) => c.code);
+    // common practice: a taller pinion loads the motor; guides that note 75–80 °C motors are running near the usual limit
+    expect(codes(geared(23, 'Aim for under 75 °C after five minutes.'), geared(25))).toContain('heat-pinion-up');
+    expect(codes(geared(23, 'Check the motor: 176 °F is too hot.'), geared(24))).toContain('heat-pinion-up');
+    expect(codes(geared(23, undefined, 33), geared(24))).toContain('heat-pinion-up'); // hot day: 33 °C air
+    // No heat in the notes, or the pinion goes down or stays: no such caution.
+    expect(codes(geared(23, 'Blow dust out between rounds.'), geared(25))).not.toContain('heat-pinion-up');
+    expect(codes(geared(23, 'Aim for under 75 °C.'), geared(22))).not.toContain('heat-pinion-up');
+    expect(codes(geared(23, 'Aim for under 75 °C.'), geared(23))).not.toContain('heat-pinion-up');
+    // 45 °C is a warm pack, not a hot motor note.
+    expect(codes(geared(23, 'Packs come off at 45 °C.'), geared(25))).not.toContain('heat-pinion-up');
+  });
+
   it('deltas reverse sign when the sides swap, and a record compared with itself has no differences (property)', () => {
     fc.assert(
       fc.property(setupRecordArbitrary(library), setupRecordArbitrary(library), (x, y) => {

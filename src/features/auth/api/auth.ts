@@ -1,17 +1,14 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { SignUpAccepted, SignUpInput, User } from '@shared/schemas/user';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { SignUpAccepted, SignUpInput, UpdateProfileInput, User } from '@shared/schemas/user';
 import { api, resetCsrf, type Envelope } from '@/lib/api-client';
 import { forgetPrivateData } from '@/lib/offline/worker';
+import { meQuery } from '@/lib/session';
 
 /** Query-option factories for the session (keys general → specific). */
 export const authQueries = {
   all: () => ['auth'] as const,
-  me: () =>
-    queryOptions({
-      queryKey: [...authQueries.all(), 'me'] as const,
-      queryFn: async () => (await api.get<Envelope<{ user: User | null }>>('/api/auth/me')).data.user,
-      staleTime: 60_000,
-    }),
+  /** Defined in the client library (display preferences read it too); the key is ['auth', 'me']. */
+  me: () => meQuery(),
 };
 
 export function useCurrentUser() {
@@ -82,7 +79,7 @@ export function useResetPassword() {
 export function useUpdateProfile() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: async (input: { displayName: string }) => (await api.patch<Envelope<{ user: User }>>('/api/account', input)).data.user,
+    mutationFn: async (input: UpdateProfileInput) => (await api.patch<Envelope<{ user: User }>>('/api/account', input)).data.user,
     onSuccess: (user) => qc.setQueryData(authQueries.me().queryKey, user),
   });
 }

@@ -10,12 +10,14 @@ import { Card, Chip } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { applyServerErrors } from '@/lib/form-errors';
+import { useSetUnits } from '@/lib/preferences';
 import { useChangePassword, useUpdateProfile } from '../api/auth';
 
 const ROLE_WORDS: Record<User['role'], string> = { member: 'Member', moderator: 'Moderator', admin: 'Administrator' };
 
 export function AccountPanel({ user }: { user: User }) {
   const update = useUpdateProfile();
+  const setUnits = useSetUnits();
   const change = useChangePassword();
   const [pwError, setPwError] = useState<string | null>(null);
   const profile = useForm<z.input<typeof updateProfileSchema>>({
@@ -61,6 +63,34 @@ export function AccountPanel({ user }: { user: User }) {
           <dt className="text-ink-muted">E-mail confirmed</dt>
           <dd>{user.emailVerified ? 'Yes' : 'Not yet'}</dd>
         </dl>
+        <fieldset className="mt-4 text-sm">
+          <legend className="font-medium">Units for figures</legend>
+          <div className="mt-1 flex flex-wrap gap-x-5 gap-y-1">
+            {(
+              [
+                ['metric', 'Metric (mm, km/h, °C)'],
+                ['imperial', 'Imperial (in, mph, °F)'],
+              ] as const
+            ).map(([value, label]) => (
+              <label key={value} className="flex items-center gap-2">
+                <input
+                  type="radio"
+                  name="units"
+                  value={value}
+                  checked={user.units === value}
+                  onChange={() =>
+                    setUnits(value).then(
+                      () => toast.success(`Figures now show in ${value} units`),
+                      () => toast.error('Your units could not be saved; try again.'),
+                    )
+                  }
+                />
+                {label}
+              </label>
+            ))}
+          </div>
+          <p className="mt-1 text-xs text-ink-muted">Kept with your account, on every device. Also under Display in the header.</p>
+        </fieldset>
         <form onSubmit={handleProfile} noValidate className="mt-5 flex flex-col gap-3" aria-label="Profile">
           <TextField label="Display name" error={profile.formState.errors.displayName?.message} {...profile.register('displayName')} />
           <div>

@@ -1,14 +1,31 @@
 import { Bar, BarChart, CartesianGrid, Cell, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { CalculatorName } from '@shared/calc/registry';
+import { useMemo } from 'react';
+import { toDisplay, unitOf, type UnitSystem } from '@shared/units';
+import { usePalette } from '@/lib/preferences';
 
-// Colours from the notebook palette (tailwind.config.ts); recharts needs literal values.
-const COPPER = '#a9572a';
-const INK = '#1d2a44';
-const INK_FAINT = '#8a93a5';
-const GRID = '#dccfb6';
-const AXIS = { fontSize: 12, fill: '#3a4763' };
+// Colours from the notebook palette's variables (src/styles/index.css) as literal values, read again when
+// the palette changes (dark mode).
+const PALETTE = ['chart-1', 'chart-2', 'ink-faint', 'paper-line', 'copper-light', 'ink-soft', 'ink', 'paper-card'] as const;
+type Colours = ReturnType<typeof colours>;
+function colours(p: Record<(typeof PALETTE)[number], string>) {
+  return {
+    COPPER: p['chart-1'],
+    INK: p['chart-2'],
+    INK_FAINT: p['ink-faint'],
+    GRID: p['paper-line'],
+    BAR: p['copper-light'],
+    AXIS: { fontSize: 12, fill: p['ink-soft'] },
+    TOOLTIP: {
+      contentStyle: { background: p['paper-card'], borderColor: p['paper-line'], color: p.ink },
+      labelStyle: { color: p.ink },
+      itemStyle: { color: p.ink },
+    },
+  };
+}
 
-type Props = { name: CalculatorName; results: Record<string, unknown>; inputs: Record<string, string> };
+type Props = { name: CalculatorName; results: Record<string, unknown>; inputs: Record<string, string>; units?: UnitSystem };
+type ChartProps = Omit<Props, 'name'> & { c: Colours };
 
 /** An HTML legend: it wraps on a phone, where recharts' SVG legend would run into the plot. */
 function ChartKey({ items }: { items: { label: string; color: string; dashed?: boolean }[] }) {
@@ -38,7 +55,8 @@ function niceTicks(end: number): number[] {
 }
 const atNumber = (s: string | undefined) => (s !== undefined && s.trim() !== '' && Number.isFinite(Number(s)) ? Number(s) : undefined);
 
-function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
+function TimingChart({ results, inputs, c }: ChartProps) {
+  const { COPPER, INK, INK_FAINT, GRID, AXIS, TOOLTIP } = c;
   const points = results.points as { rpm: number; deg: number; fullThrottleDeg?: number }[];
   const hasStep = points.some((p) => p.fullThrottleDeg !== undefined);
   const at = atNumber(inputs.atRpm);
@@ -77,6 +95,7 @@ function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
             label={{ value: 'Timing (°)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }}
           />
           <Tooltip
+            {...TOOLTIP}
             formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })}°`}
             labelFormatter={(l) => `${Number(l).toLocaleString('en-GB')} rpm`}
           />
@@ -102,7 +121,8 @@ function TimingChart({ results, inputs }: Omit<Props, 'name'>) {
   );
 }
 
-function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
+function ThrottleChart({ results, inputs, c }: ChartProps) {
+  const { COPPER, INK_FAINT, GRID, AXIS, TOOLTIP } = c;
   const points = (results.points as { inputPct: number; outputPct: number }[]).map((p) => ({ ...p, linear: p.inputPct }));
   const at = atNumber(inputs.inputPct);
   return (
@@ -131,7 +151,11 @@ function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
             width={44}
             label={{ value: 'Output (%)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }}
           />
-          <Tooltip formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`} labelFormatter={(l) => `${l} % stick`} />
+          <Tooltip
+            {...TOOLTIP}
+            formatter={(v) => `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`}
+            labelFormatter={(l) => `${l} % stick`}
+          />
           {at !== undefined && <ReferenceLine x={at} stroke={INK_FAINT} strokeDasharray="4 3" />}
           <Line type="linear" dataKey="linear" name="Linear" stroke={INK_FAINT} strokeDasharray="4 4" dot={false} isAnimationActive={false} />
           <Line type="monotone" dataKey="outputPct" name="Your curve" stroke={COPPER} strokeWidth={2.5} dot={false} isAnimationActive={false} />
@@ -141,25 +165,31 @@ function ThrottleChart({ results, inputs }: Omit<Props, 'name'>) {
   );
 }
 
-function GearingChart({ results, inputs }: Omit<Props, 'name'>) {
-  const sweep = results.pinionSweep as { pinion: number; finalDriveRatio: number; rolloutMm: number }[];
+function GearingChart({ results, inputs, units = 'metric', c }: ChartProps) {
+  const { COPPER, GRID, BAR, AXIS, TOOLTIP } = c;
+  const sweep = (results.pinionSweep as { pinion: number; finalDriveRatio: number; rolloutMm: number }[]).map((p) => ({
+    ...p,
+    rollout: toDisplay('rollout', p.rolloutMm, units),
+  }));
+  const unit = unitOf('rollout', units);
   const current = atNumber(inputs.pinion);
   return (
     <ResponsiveContainer width="100%" height={260}>
       <BarChart data={sweep} margin={{ top: 12, right: 16, bottom: 22, left: 4 }}>
         <CartesianGrid stroke={GRID} strokeDasharray="3 3" vertical={false} />
         <XAxis dataKey="pinion" tick={AXIS} label={{ value: 'Pinion (teeth)', position: 'insideBottom', offset: -12, ...AXIS }} />
-        <YAxis tick={AXIS} width={44} label={{ value: 'Rollout (mm)', angle: -90, position: 'insideLeft', offset: 10, ...AXIS }} />
+        <YAxis tick={AXIS} width={44} label={{ value: `Rollout (${unit})`, angle: -90, position: 'insideLeft', offset: 10, ...AXIS }} />
         <Tooltip
+          {...TOOLTIP}
           formatter={(v, _n, item) => [
-            `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: 1 })} mm (FDR ${(item.payload as { finalDriveRatio: number }).finalDriveRatio.toFixed(2)})`,
+            `${Number(v).toLocaleString('en-GB', { maximumFractionDigits: units === 'imperial' ? 3 : 1 })} ${unit} (FDR ${(item.payload as { finalDriveRatio: number }).finalDriveRatio.toFixed(2)}:1)`,
             'Rollout',
           ]}
           labelFormatter={(l) => `${l}-tooth pinion`}
         />
-        <Bar dataKey="rolloutMm" name="Rollout" isAnimationActive={false}>
+        <Bar dataKey="rollout" name="Rollout" isAnimationActive={false}>
           {sweep.map((p) => (
-            <Cell key={p.pinion} fill={p.pinion === current ? COPPER : '#d9b79f'} />
+            <Cell key={p.pinion} fill={p.pinion === current ? COPPER : BAR} fillOpacity={p.pinion === current ? 1 : 0.55} />
           ))}
         </Bar>
       </BarChart>
@@ -174,15 +204,17 @@ const CAPTIONS: Partial<Record<CalculatorName, string>> = {
 };
 
 /** The chart for a calculator's results; loaded on demand (recharts is large). */
-export default function CalcChart({ name, results, inputs }: Props) {
+export default function CalcChart({ name, results, inputs, units }: Props) {
+  const palette = usePalette(PALETTE);
+  const c = useMemo(() => colours(palette), [palette]);
   const caption = CAPTIONS[name];
   if (!caption) return null;
   return (
     <figure className="m-0" data-chart={name}>
       <figcaption className="mb-1 font-sans text-xs font-semibold tracking-wider text-ink-muted uppercase">{caption}</figcaption>
-      {name === 'timing-curve' && <TimingChart results={results} inputs={inputs} />}
-      {name === 'throttle' && <ThrottleChart results={results} inputs={inputs} />}
-      {name === 'gearing' && <GearingChart results={results} inputs={inputs} />}
+      {name === 'timing-curve' && <TimingChart results={results} inputs={inputs} c={c} />}
+      {name === 'throttle' && <ThrottleChart results={results} inputs={inputs} c={c} />}
+      {name === 'gearing' && <GearingChart results={results} inputs={inputs} units={units} c={c} />}
     </figure>
   );
 }

@@ -1,5 +1,6 @@
 import { useId, type KeyboardEvent } from 'react';
 import type { CalcField } from '@shared/calc/types';
+import { formatQuantity, type UnitSystem } from '@shared/units';
 import type { CalcValues } from '../hooks/use-calculation';
 import { unitLabel } from './result-format';
 
@@ -12,7 +13,18 @@ type Props = {
   idPrefix?: string;
   /** Fields to show up front; the rest go under "More inputs". All are shown when left out. */
   primaryKeys?: ReadonlySet<string>;
+  /** Display units: in imperial, a millimetre or °C input shows its value in inches or °F beside it. */
+  units?: UnitSystem;
 };
+
+/** "= 2.44 in" under a millimetre input (and °F under a °C one) for someone who reads imperial. */
+function imperialHint(field: CalcField, raw: string | undefined): string | null {
+  const n = raw !== undefined && raw.trim() !== '' ? Number(raw) : Number.NaN;
+  if (!Number.isFinite(n)) return null;
+  if (field.unit === 'mm') return `= ${formatQuantity('length', n, 'imperial', 3)}`;
+  if (field.unit === '°C' || field.unit === 'C') return `= ${formatQuantity('temperature', n, 'imperial', 1)}`;
+  return null;
+}
 
 const decimals = (step: number) => (String(step).split('.')[1] ?? '').length;
 
@@ -28,14 +40,14 @@ function stepValue(field: CalcField, current: string, direction: 1 | -1, big: bo
 }
 
 /** Inputs generated from a calculator's fields: labels with units, hints, and each field's own error under it. */
-export function CalculatorForm({ fields, values, errors, onChange, idPrefix, primaryKeys }: Props) {
+export function CalculatorForm({ fields, values, errors, onChange, idPrefix, primaryKeys, units = 'metric' }: Props) {
   const auto = useId();
   const prefix = idPrefix ?? auto;
   const primary = primaryKeys ? fields.filter((f) => primaryKeys.has(f.key)) : fields;
   const more = primaryKeys ? fields.filter((f) => !primaryKeys.has(f.key)) : [];
   const moreHasError = more.some((f) => errors[f.key]);
   const grid = 'grid grid-cols-1 gap-x-4 gap-y-3 min-[420px]:grid-cols-2';
-  const render = (field: CalcField) => renderField(field, { values, errors, onChange, prefix });
+  const render = (field: CalcField) => renderField(field, { values, errors, onChange, prefix, units });
   return (
     <div className="flex flex-col gap-3">
       <div className={grid}>{primary.map(render)}</div>
@@ -58,17 +70,20 @@ function renderField(
     errors,
     onChange,
     prefix,
+    units,
   }: {
     values: CalcValues;
     errors: Record<string, string>;
     onChange: Props['onChange'];
     prefix: string;
+    units: UnitSystem;
   },
 ) {
   {
     const id = `${prefix}-${field.key}`;
     const error = errors[field.key];
     const unit = unitLabel(field.unit);
+    const hint = units === 'imperial' && field.kind === 'number' ? imperialHint(field, values[field.key]) : null;
     const describedBy = [error ? `${id}-error` : null, field.help ? `${id}-help` : null].filter(Boolean).join(' ') || undefined;
     const label = (
       <label htmlFor={id} className="flex items-baseline justify-between gap-2 text-sm font-medium text-ink">
@@ -76,7 +91,12 @@ function renderField(
           {field.label}
           {field.optional && field.kind === 'number' && <span className="ml-1 text-xs font-normal text-ink-muted">(optional)</span>}
         </span>
-        {unit && <span className="text-xs font-normal text-ink-muted">{unit}</span>}
+        {unit && (
+          <span className="text-xs font-normal text-ink-muted">
+            {unit}
+            {hint && <span data-imperial-hint> {hint}</span>}
+          </span>
+        )}
       </label>
     );
     const control = `w-full rounded-md border bg-white/85 px-2.5 py-1.5 text-[0.95rem] text-ink shadow-inner focus:border-copper ${error ? 'border-danger' : 'border-ink/25'}`;

@@ -2,6 +2,7 @@ import { lazy, Suspense, type ReactNode } from 'react';
 import { getCalculator, isCalculatorName } from '@shared/calc/registry';
 import type { CalcWarning } from '@shared/calc/types';
 import { Notice } from '@/components/ui/notice';
+import { useUnits } from '@/lib/preferences';
 import type { CalcValues } from '../hooks/use-calculation';
 import { useCalculation } from '../hooks/use-calculation';
 import { CalculatorForm } from './calculator-form';
@@ -45,6 +46,7 @@ type Props = {
 export function CalculatorPanel({ name, values, onChange, actions, idPrefix, showHelp = true, primaryKeys }: Props) {
   const calculator = getCalculator(name);
   const calc = useCalculation(name, values);
+  const units = useUnits();
   if (!calculator || !isCalculatorName(name)) {
     return (
       <Notice tone="danger" title="Unknown calculator">
@@ -58,7 +60,15 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
   return (
     <div className="grid gap-5 md:grid-cols-[minmax(0,1fr)_minmax(0,1.15fr)]">
       <div className="flex min-w-0 flex-col gap-3">
-        <CalculatorForm fields={fields} values={values} errors={calc.fieldErrors} onChange={onChange} idPrefix={idPrefix} primaryKeys={primaryKeys} />
+        <CalculatorForm
+          fields={fields}
+          values={values}
+          errors={calc.fieldErrors}
+          onChange={onChange}
+          idPrefix={idPrefix}
+          primaryKeys={primaryKeys}
+          units={units}
+        />
         {general && (
           <p className="text-sm text-danger" role="alert">
             {general}
@@ -71,7 +81,7 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
           <div className={calc.stale ? 'opacity-45 grayscale transition' : 'transition'} data-results-state={calc.stale ? 'stale' : 'fresh'}>
             {calc.stale && <p className="mb-2 font-sans text-xs font-semibold text-ink-muted">Last good result — fix the highlighted input to update.</p>}
             <dl className="grid grid-cols-2 gap-x-4 gap-y-3">
-              {resultLines(name, results, values).map((line) => (
+              {resultLines(name, results, values, units).map((line) => (
                 <div key={line.key} className={`min-w-0 ${line.key === 'neutralFeel' || line.key === 'band' ? 'col-span-2' : ''}`} data-result={line.key}>
                   <dt className="font-sans text-xs font-medium tracking-wide text-ink-muted uppercase">{line.label}</dt>
                   <dd
@@ -84,7 +94,7 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
               ))}
             </dl>
             {hasChart(name) && (
-              <div className="mt-4 rounded-md border border-paper-line bg-white/60 p-2 pt-3">
+              <div className="mt-4 rounded-md border border-paper-line bg-white/60 p-2 pt-3" data-units={units}>
                 <CalcErrorBoundary
                   fallback={() => <p className="p-4 text-sm text-ink-muted">The chart could not be drawn; the numbers above are still right.</p>}
                 >
@@ -95,7 +105,7 @@ export function CalculatorPanel({ name, values, onChange, actions, idPrefix, sho
                       </div>
                     }
                   >
-                    <CalcChart name={name} results={results} inputs={values} />
+                    <CalcChart name={name} results={results} inputs={values} units={units} />
                   </Suspense>
                 </CalcErrorBoundary>
               </div>

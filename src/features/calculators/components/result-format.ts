@@ -1,4 +1,5 @@
 import type { CalculatorName } from '@shared/calc/registry';
+import { formatQuantity, formatRatio, type UnitSystem } from '@shared/units';
 
 /** One line of a result list; `primary` lines are shown large. */
 export type ResultLine = { key: string; label: string; value: string; note?: string; primary?: boolean };
@@ -19,15 +20,34 @@ const CHECK_LABELS: Record<string, string> = {
   'above-window': 'above the usual window',
 };
 
-/** The results worth reading, labelled with units, per calculator (inputs help phrase a few of them). */
-export function resultLines(name: CalculatorName, r: R, inputs: Record<string, string>): ResultLine[] {
+const len = (v: unknown, units: UnitSystem, q: 'length' | 'rollout' = 'length') => formatQuantity(q, typeof v === 'number' ? v : null, units);
+const speed = (v: unknown, units: UnitSystem) => formatQuantity('speed', typeof v === 'number' ? v : null, units);
+const temp = (v: unknown, units: UnitSystem, digits = 1) => formatQuantity('temperature', typeof v === 'number' ? v : null, units, digits);
+const ratio = (v: unknown) => formatRatio(typeof v === 'number' ? v : null);
+
+/**
+ * The results worth reading, labelled with units, per calculator (inputs help phrase a few of them).
+ * Lengths, speeds and temperatures follow the person's display units (#17); calculators compute in SI.
+ */
+export function resultLines(name: CalculatorName, r: R, inputs: Record<string, string>, units: UnitSystem = 'metric'): ResultLine[] {
+  const other: UnitSystem = units === 'metric' ? 'imperial' : 'metric';
   switch (name) {
     case 'gearing':
       return [
-        { key: 'finalDriveRatio', label: 'Final drive ratio', value: `${num(r.finalDriveRatio, 3)} : 1`, primary: true },
-        { key: 'rolloutMm', label: 'Rollout', value: `${num(r.rolloutMm, 2)} mm`, note: `${num(r.rolloutIn, 3)} in per motor turn`, primary: true },
-        { key: 'kmhPer1000Rpm', label: 'Speed per 1,000 motor rpm', value: `${num(r.kmhPer1000Rpm, 3)} km/h` },
-        { key: 'tyreCircumferenceMm', label: 'Tyre circumference', value: `${num(r.tyreCircumferenceMm, 1)} mm` },
+        { key: 'finalDriveRatio', label: 'Final drive ratio', value: ratio(r.finalDriveRatio), primary: true },
+        {
+          key: 'rolloutMm',
+          label: 'Rollout',
+          value: len(r.rolloutMm, units, 'rollout'),
+          note: `${len(r.rolloutMm, other, 'rollout')} per motor turn`,
+          primary: true,
+        },
+        {
+          key: 'kmhPer1000Rpm',
+          label: 'Speed per 1,000 motor rpm',
+          value: formatQuantity('speed', typeof r.kmhPer1000Rpm === 'number' ? r.kmhPer1000Rpm : null, units, 2),
+        },
+        { key: 'tyreCircumferenceMm', label: 'Tyre circumference', value: len(r.tyreCircumferenceMm, units) },
       ];
     case 'motor':
       return [
@@ -41,17 +61,17 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
         {
           key: 'loadedKmh',
           label: 'Estimated top speed',
-          value: `${num(r.loadedKmh, 1)} km/h`,
-          note: `${num(r.loadedMph, 1)} mph at ${num(r.loadedRpm, 0)} rpm`,
+          value: speed(r.loadedKmh, units),
+          note: `${speed(r.loadedKmh, other)} at ${num(r.loadedRpm, 0)} rpm`,
           primary: true,
         },
         {
           key: 'noLoadKmh',
           label: 'No-load speed',
-          value: `${num(r.noLoadKmh, 1)} km/h`,
-          note: `${num(r.noLoadMph, 1)} mph at ${num(r.noLoadRpm, 0)} rpm`,
+          value: speed(r.noLoadKmh, units),
+          note: `${speed(r.noLoadKmh, other)} at ${num(r.noLoadRpm, 0)} rpm`,
         },
-        { key: 'finalDriveRatio', label: 'Final drive ratio', value: `${num(r.finalDriveRatio, 3)} : 1` },
+        { key: 'finalDriveRatio', label: 'Final drive ratio', value: ratio(r.finalDriveRatio) },
       ];
     case 'timing-curve': {
       const lines: ResultLine[] = [];
@@ -126,14 +146,16 @@ export function resultLines(name: CalculatorName, r: R, inputs: Record<string, s
     }
     case 'temperature': {
       const limits = r.bandLimitsC as { warmFromC: number; hotFromC: number; tooHotAboveC: number };
+      // Both scales are the point of this calculator; the preferred one comes first.
+      const c: ResultLine = { key: 'c', label: 'Celsius', value: `${num(r.c, 1)} °C`, primary: true };
+      const f: ResultLine = { key: 'f', label: 'Fahrenheit', value: `${num(r.f, 1)} °F`, primary: true };
       return [
-        { key: 'c', label: 'Celsius', value: `${num(r.c, 1)} °C`, primary: true },
-        { key: 'f', label: 'Fahrenheit', value: `${num(r.f, 1)} °F`, primary: true },
+        ...(units === 'imperial' ? [f, c] : [c, f]),
         {
           key: 'band',
           label: `Band for a ${PART_LABELS[String(r.part)] ?? 'part'}`,
           value: BAND_LABELS[String(r.band)] ?? String(r.band),
-          note: `warm from ${limits.warmFromC} °C, hot from ${limits.hotFromC} °C, too hot above ${limits.tooHotAboveC} °C`,
+          note: `warm from ${temp(limits.warmFromC, units, 0)}, hot from ${temp(limits.hotFromC, units, 0)}, too hot above ${temp(limits.tooHotAboveC, units, 0)}`,
         },
       ];
     }

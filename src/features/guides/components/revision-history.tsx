@@ -140,8 +140,9 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
   };
   return (
     <div className="flex flex-col gap-4">
-      {/* On a phone the versions stack as a list; from the small breakpoint up they line up in a table. */}
-      <ol className="flex flex-col divide-y divide-paper-line border-y border-paper-line sm:hidden" aria-label="Versions of this guide, newest first">
+      {/* On a phone and at 200 % zoom (640 CSS px) the versions stack as a list, so each edit note reads in full
+          and every action stays in view; from the md breakpoint up they line up in a table. */}
+      <ol className="flex flex-col divide-y divide-paper-line border-y border-paper-line md:hidden" aria-label="Versions of this guide, newest first">
         {rows.map((r) => (
           <li key={r.id} className={`flex flex-col gap-1 px-1 py-3 text-sm ${r.number === currentNumber ? 'bg-copper-wash/50' : ''}`}>
             <div className="flex items-center justify-between gap-2">
@@ -160,7 +161,7 @@ export function RevisionHistory({ slug, canModerate, currentNumber }: { slug: st
           </li>
         ))}
       </ol>
-      <div className="table-scroll hidden sm:block">
+      <div className="table-scroll hidden md:block">
         <table className="w-full border-collapse text-sm">
           <caption className="sr-only">Versions of this guide, newest first</caption>
           <thead>

@@ -13,6 +13,7 @@ import {
 import { PARAMETER_CATEGORIES } from '@shared/constants';
 import type { ParameterSummary } from '@shared/schemas/parameter';
 import { CATEGORY_INFO, displayUnit, formatRange } from './parameter-format';
+import { TableScroll } from '@/components/ui/table-scroll';
 
 const col = createColumnHelper<ParameterSummary>();
 const categoryRank = (c: string) => PARAMETER_CATEGORIES.indexOf(c as (typeof PARAMETER_CATEGORIES)[number]);
@@ -135,7 +136,7 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
         </nav>
       )}
 
-      <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+      <TableScroll label="Parameter library" className="rounded-lg border border-paper-line bg-paper-card">
         <table className="w-full border-collapse text-left text-sm">
           <caption className="sr-only">Parameter library{grouped ? ', grouped by category' : ''}. Column headers sort the table.</caption>
           <thead>
@@ -199,7 +200,7 @@ export function ParameterLibrary({ parameters }: { parameters: ParameterSummary[
             )}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
     </div>
   );
 }

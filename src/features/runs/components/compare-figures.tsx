@@ -1,11 +1,13 @@
 import type { RunCompare } from '@shared/schemas/run';
-import { FIGURE_ROWS } from './figures';
+import { useUnits } from '@/lib/preferences';
+import { FIGURE_ROWS, figureUnit, figureValue } from './figures';
 
 const show = (v: number | null, digits: number, scale = 1, signed = false) =>
   v === null ? '–' : `${signed && v > 0 ? '+' : ''}${(v * scale).toLocaleString('en-GB', { maximumFractionDigits: digits })}`;
 
 /** Both runs' figures side by side with b − a, and the settings that differ between their setups. */
 export function CompareFigures({ compare }: { compare: RunCompare }) {
+  const units = useUnits();
   return (
     <div className="flex flex-col gap-6">
       <table className="w-full text-sm tabular-nums" data-testid="compare-figures">
@@ -24,11 +26,11 @@ export function CompareFigures({ compare }: { compare: RunCompare }) {
             return (
               <tr key={d.key} className="border-t border-ink/10">
                 <th scope="row" className="py-1.5 pr-2 text-left font-normal">
-                  {row.label} <span className="text-xs text-ink-muted">({row.unit})</span>
+                  {row.label} <span className="text-xs text-ink-muted">({figureUnit(row, units)})</span>
                 </th>
-                <td className="py-1.5 pr-2 text-right">{show(d.a, row.digits, row.scale)}</td>
-                <td className="py-1.5 pr-2 text-right">{show(d.b, row.digits, row.scale)}</td>
-                <td className="py-1.5 text-right font-medium">{show(d.delta, row.digits, row.scale, true)}</td>
+                <td className="py-1.5 pr-2 text-right">{show(figureValue(row, d.a, units), row.digits, row.scale)}</td>
+                <td className="py-1.5 pr-2 text-right">{show(figureValue(row, d.b, units), row.digits, row.scale)}</td>
+                <td className="py-1.5 text-right font-medium">{show(figureValue(row, d.delta, units, true), row.digits, row.scale, true)}</td>
               </tr>
             );
           })}

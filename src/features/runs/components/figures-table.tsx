@@ -1,11 +1,13 @@
 import type { RunSummary } from '@shared/schemas/run';
 import { Notice } from '@/components/ui/notice';
-import { FIGURE_ROWS, showFigure } from './figures';
+import { useUnits } from '@/lib/preferences';
+import { FIGURE_ROWS, figureUnit, showFigure } from './figures';
 
 const BAND_WORDS = { cool: 'cool', warm: 'warm', hot: 'hot', 'too-hot': 'too hot' } as const;
 
 /** The run's figures with their notes, bands and the usual cautions. */
 export function FiguresTable({ summary }: { summary: RunSummary }) {
+  const units = useUnits();
   const band = (key: keyof RunSummary) => (key === 'maxMotorTempC' ? summary.motorBand : key === 'maxEscTempC' ? summary.escBand : null);
   return (
     <div className="flex flex-col gap-3">
@@ -23,7 +25,7 @@ export function FiguresTable({ summary }: { summary: RunSummary }) {
                 {r.note && <span className="block text-xs text-ink-muted">{r.note}</span>}
               </th>
               <td className="py-1.5 text-right tabular-nums whitespace-nowrap">
-                {showFigure(summary, r.key, r.digits, r.scale)} {r.unit}
+                {showFigure(summary, r.key, r.digits, r.scale, units)} {figureUnit(r, units)}
                 {band(r.key) && (
                   <span className={`ml-2 rounded px-1.5 text-xs ${band(r.key) === 'hot' || band(r.key) === 'too-hot' ? 'bg-danger-wash' : 'bg-paper-deep'}`}>
                     {BAND_WORDS[band(r.key)!]}

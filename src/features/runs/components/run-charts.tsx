@@ -3,6 +3,8 @@ import type uPlot from 'uplot';
 import type { RunSeries } from '@shared/schemas/run';
 import { CHANNEL_LABELS, type ValueChannel } from '@shared/runlog/vocabulary';
 import { Button } from '@/components/ui/button';
+import { formatQuantity, toDisplay, unitOf } from '@shared/units';
+import { usePalette, useUnits } from '@/lib/preferences';
 import { UPlotChart } from './uplot-chart';
 
 type Panel = { title: string; unit: string; channels: ValueChannel[] };
@@ -13,15 +15,20 @@ const PANELS: Panel[] = [
   { title: 'Current', unit: 'A', channels: ['current_a'] },
   { title: 'Pack voltage', unit: 'V', channels: ['pack_v'] },
 ];
-const COLOURS: Record<ValueChannel, string> = {
-  throttle_pct: '#1d2a44',
-  motor_rpm: '#b8693a',
-  motor_temp_c: '#a12d2d',
-  esc_temp_c: '#5a6b8c',
-  current_a: '#2f6b4f',
-  pack_v: '#6b4f8c',
-};
-const OTHER = '#8a8f99';
+/** Each channel's colour: a palette variable (src/styles/index.css), so the charts follow dark mode. */
+const COLOUR_VARS = {
+  throttle_pct: 'chart-2',
+  motor_rpm: 'chart-1',
+  motor_temp_c: 'danger',
+  esc_temp_c: 'ink-muted',
+  current_a: 'chart-3',
+  pack_v: 'chart-6',
+} as const satisfies Record<ValueChannel, string>;
+const PALETTE = [...new Set(Object.values(COLOUR_VARS)), 'ink-faint', 'chart-5', 'ink-soft', 'chart-grid'] as const;
+/** Temperature channels convert to °F for someone who reads imperial; the stored samples stay °C. */
+const TEMPERATURE: ReadonlySet<ValueChannel> = new Set(['motor_temp_c', 'esc_temp_c']);
+/** A hex colour with an alpha byte added (band fills), or the colour itself when it is not #rrggbb. */
+const withAlpha = (colour: string, alpha: string) => (/^#[0-9a-f]{6}$/i.test(colour) ? `${colour}${alpha}` : colour);
 
 export type ChartRun = { label: string; series: RunSeries; offsetS?: number };
 
@@ -35,6 +42,16 @@ const fmt = (v: number | null | undefined, digits = 1) =>
  * shifted by its offset.
  */
 export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: number) => number) | null }) {
+  const units = useUnits();
+  const palette = usePalette(PALETTE);
+  const tempUnit = unitOf('temperature', units);
+  const speedUnit = unitOf('speed', units);
+  /** A channel's reading as shown: temperatures in the chosen scale, everything else as logged. */
+  const shown = useCallback(
+    (c: ValueChannel, v: number | null | undefined) => (v === null || v === undefined ? v : TEMPERATURE.has(c) ? toDisplay('temperature', v, units) : v),
+    [units],
+  );
+  const channelUnit = (c: ValueChannel) => (TEMPERATURE.has(c) ? tempUnit : CHANNEL_LABELS[c].unit);
   const charts = useRef<uPlot[]>([]);
   const syncing = useRef(false);
   const [cursor, setCursor] = useState<{ t: number; values: Array<Partial<Record<ValueChannel, [number | null, number | null]>>> } | null>(null);
@@ -48,7 +65,9 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
     return { x: Array.from(all), lookups };
   }, [runs]);
 
-  const panels = PANELS.filter((p) => p.channels.some((c) => runs.some((r) => r.series.channels[c])));
+  const panels = PANELS.filter((p) => p.channels.some((c) => runs.some((r) => r.series.channels[c]))).map((p) =>
+    p.unit === '°C' ? { ...p, unit: tempUnit } : p,
+  );
   // The estimated road speed under motor speed: the first run's rpm through the setup's gearing (shared calculator).
   const road = toKmh && runs[0]?.series.channels.motor_rpm ? toKmh : null;
   const span = base.x.length ? [base.x[0], base.x[base.x.length - 1]] : [0, 1];
@@ -64,15 +83,15 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
             for (const c of panel.channels) {
               const ch = run.series.channels[c];
               if (!ch) continue;
-              const stroke = k === 0 ? COLOURS[c] : OTHER;
-              const pick = (arr: Array<number | null>) => base.lookups[k].map((i) => (i < 0 ? null : arr[i]));
+              const stroke = k === 0 ? palette[COLOUR_VARS[c]] : palette['ink-faint'];
+              const pick = (arr: Array<number | null>) => base.lookups[k].map((i) => (i < 0 ? null : (shown(c, arr[i]) ?? null)));
               data.push(pick(ch.max), pick(ch.min));
               const hi = data.length - 2;
               series.push(
                 { label: `${run.label}: ${CHANNEL_LABELS[c].label} high`, stroke, width: 1.25, spanGaps: true },
                 { label: `${run.label}: ${CHANNEL_LABELS[c].label} low`, stroke, width: 1, spanGaps: true },
               );
-              bands.push({ series: [hi, hi + 1], fill: `${stroke}33` });
+              bands.push({ series: [hi, hi + 1], fill: withAlpha(stroke, '33') });
             }
           });
           return { panel, data: data as uPlot.AlignedData, series, bands };
@@ -81,25 +100,26 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
           road
             ? (() => {
                 const rpm = runs[0].series.channels.motor_rpm!;
-                const pick = (arr: Array<number | null>) => base.lookups[0].map((i) => (i < 0 || arr[i] === null ? null : road(arr[i]!)));
-                const stroke = '#0f6e8c';
+                const pick = (arr: Array<number | null>) =>
+                  base.lookups[0].map((i) => (i < 0 || arr[i] === null ? null : toDisplay('speed', road(arr[i]!), units)));
+                const stroke = palette['chart-5'];
                 return [
                   {
-                    panel: { title: 'Road speed, estimated from gearing', unit: 'km/h', channels: [] as ValueChannel[] },
+                    panel: { title: 'Road speed, estimated from gearing', unit: speedUnit, channels: [] as ValueChannel[] },
                     data: [base.x, pick(rpm.max), pick(rpm.min)] as uPlot.AlignedData,
                     series: [
                       { label: 'Time (s)' },
                       { label: 'Road speed high', stroke, width: 1.25, spanGaps: true, dash: [6, 3] },
                       { label: 'Road speed low', stroke, width: 1, spanGaps: true, dash: [6, 3] },
                     ] as uPlot.Series[],
-                    bands: [{ series: [1, 2], fill: `${stroke}22` }] as uPlot.Band[],
+                    bands: [{ series: [1, 2], fill: withAlpha(stroke, '22') }] as uPlot.Band[],
                   },
                 ];
               })()
             : [],
         ),
     // eslint-disable-next-line react-hooks/exhaustive-deps -- panels derive from runs
-    [runs, base, road],
+    [runs, base, road, palette, units, shown],
   );
 
   // The whole run's span, read through a ref so the touch handlers attached at creation always see the current one.
@@ -156,10 +176,10 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
           legend: { show: false },
           scales: { x: { time: false } },
           axes: [
-            { stroke: '#3b4660', grid: { stroke: '#1d2a4415' }, size: 28, values: (_u, v) => v.map((s) => `${s}s`) },
+            { stroke: palette['ink-soft'], grid: { stroke: palette['chart-grid'] }, size: 28, values: (_u, v) => v.map((s) => `${s}s`) },
             {
-              stroke: '#3b4660',
-              grid: { stroke: '#1d2a4415' },
+              stroke: palette['ink-soft'],
+              grid: { stroke: palette['chart-grid'] },
               size: 52,
               values: (_u, v) => v.map((n) => (Math.abs(n) >= 10_000 ? `${n / 1000}k` : String(n))),
               label: `${panel.title} (${panel.unit})`,
@@ -207,7 +227,7 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
         };
         return opts;
       }),
-    [built, syncKey, base, runs],
+    [built, syncKey, base, runs, palette],
   );
 
   return (
@@ -243,9 +263,9 @@ export function RunCharts({ runs, toKmh }: { runs: ChartRun[]; toKmh?: ((rpm: nu
                 {runs.length > 1 && <span className="font-medium">{runs[k].label}:</span>}
                 {(Object.keys(vals) as ValueChannel[]).map((c) => (
                   <span key={c}>
-                    {CHANNEL_LABELS[c].label} {vals[c]![0] === vals[c]![1] ? fmt(vals[c]![1]) : `${fmt(vals[c]![0])}–${fmt(vals[c]![1])}`}{' '}
-                    {CHANNEL_LABELS[c].unit}
-                    {c === 'motor_rpm' && road && k === 0 && vals[c]![1] !== null ? ` (≈ ${fmt(road(vals[c]![1]!))} km/h)` : ''}
+                    {CHANNEL_LABELS[c].label}{' '}
+                    {vals[c]![0] === vals[c]![1] ? fmt(shown(c, vals[c]![1])) : `${fmt(shown(c, vals[c]![0]))}–${fmt(shown(c, vals[c]![1]))}`} {channelUnit(c)}
+                    {c === 'motor_rpm' && road && k === 0 && vals[c]![1] !== null ? ` (≈ ${formatQuantity('speed', road(vals[c]![1]!), units)})` : ''}
                   </span>
                 ))}
               </span>

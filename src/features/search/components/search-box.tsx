@@ -79,7 +79,7 @@ export function SearchBox() {
         e.preventDefault();
         if (value.trim()) go(`/search?q=${encodeURIComponent(value.trim())}`);
       }}
-      className="relative w-full sm:w-72 lg:w-52 xl:w-56"
+      className="relative w-full sm:w-72 lg:w-40 xl:w-48"
     >
       <label className="sr-only" htmlFor={`${listId}-input`}>
         Search settings, guides and setups

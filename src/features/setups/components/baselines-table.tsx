@@ -12,7 +12,10 @@ import {
 import { CLASSES, SURFACES } from '@shared/constants';
 import type { SetupBaseline } from '@shared/schemas/setup';
 import { guideSetupLinks } from '../api/setups';
-import { classLabel, fmt, surfaceLabel } from './labels';
+import { formatQuantity, formatRatio } from '@shared/units';
+import { useUnits } from '@/lib/preferences';
+import { classLabel, surfaceLabel } from './labels';
+import { TableScroll } from '@/components/ui/table-scroll';
 
 const col = createColumnHelper<SetupBaseline>();
 
@@ -37,6 +40,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
   const setSearch = setParam('q');
   const setCls = setParam('class');
   const setSurface = setParam('surface');
+  const units = useUnits();
 
   const columns = useMemo(
     () => [
@@ -56,10 +60,10 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
       col.accessor((b) => b.summary.finalDriveRatio, {
         id: 'fdr',
         header: 'Final drive',
-        cell: (c) => (c.getValue() === null ? '—' : `${fmt(c.getValue(), 2)}:1`),
+        cell: (c) => formatRatio(c.getValue()),
         sortUndefined: 'last',
       }),
-      col.accessor((b) => b.summary.rolloutMm, { id: 'rollout', header: 'Rollout', cell: (c) => (c.getValue() === null ? '—' : `${fmt(c.getValue(), 1)} mm`) }),
+      col.accessor((b) => b.summary.rolloutMm, { id: 'rollout', header: 'Rollout', cell: (c) => formatQuantity('rollout', c.getValue(), units) }),
       col.display({
         id: 'actions',
         header: () => <span className="sr-only">Downloads and compare</span>,
@@ -80,7 +84,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
         },
       }),
     ],
-    [],
+    [units],
   );
 
   const data = useMemo(
@@ -140,7 +144,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
           </select>
         </label>
       </div>
-      <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+      <TableScroll label="Published baseline setups" className="rounded-lg border border-paper-line bg-paper-card">
         <table className="w-full min-w-[52rem] border-collapse text-sm" data-testid="baselines-table">
           <caption className="sr-only">Published baseline setups, {rows.length} shown</caption>
           <thead>
@@ -190,7 +194,7 @@ export function BaselinesTable({ baselines }: { baselines: SetupBaseline[] }) {
             )}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
     </div>
   );
 }

@@ -8,6 +8,7 @@ const TITLES: Record<string, string> = {
   'cutoff-above-full': 'Cutoff at or above a full cell',
   'high-timing': 'High total timing: heat',
   'heat-timing-and-gearing': 'More timing on taller gearing: heat',
+  'heat-pinion-up': 'Bigger pinion on a setup that runs hot',
   'tall-gearing': 'Tall gearing: heat',
   'high-rpm': 'Motor speed beyond many ratings',
   'high-speed': 'High speed',

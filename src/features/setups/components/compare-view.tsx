@@ -3,11 +3,14 @@ import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { SETUP_SECTIONS } from '@shared/setup/fields';
 import type { SetupDelta } from '@shared/setup/compare';
+import { formatFixed, formatRatio, toDisplay, unitOf, type Quantity, type UnitSystem } from '@shared/units';
+import { useUnits } from '@/lib/preferences';
 import { Card, Spinner } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { TableScroll } from '@/components/ui/table-scroll';
 import { setupQueries } from '../api/setups';
 import { CautionList } from './caution-list';
-import { fmt, showValue } from './labels';
+import { showValue } from './labels';
 
 function SetupPicker({ label, name, value, onChange }: { label: string; name: string; value: string; onChange: (v: string) => void }) {
   const library = useQuery(setupQueries.library());
@@ -42,15 +45,34 @@ function SetupPicker({ label, name, value, onChange }: { label: string; name: st
   );
 }
 
-function deltaText(d: SetupDelta) {
+/** How each computed value reads: a fixed number of decimals per unit, so a column lines up (#17). */
+const SHOWN: Record<string, { digits: number; quantity?: Quantity; suffix?: string }> = {
+  ':1': { digits: 2 },
+  mm: { digits: 2, quantity: 'rollout' },
+  'km/h': { digits: 1, quantity: 'speed' },
+  rpm: { digits: 0, suffix: ' rpm' },
+  deg: { digits: 1, suffix: '°' },
+  V: { digits: 2, suffix: ' V' },
+};
+function shownAs(unit: string, units: UnitSystem) {
+  const s = SHOWN[unit] ?? { digits: 2, suffix: unit ? ` ${unit}` : '' };
+  if (!s.quantity) return { digits: s.digits, suffix: s.suffix ?? '', convert: (v: number) => v };
+  // Lengths and speeds convert linearly, so a difference converts like a value.
+  const q = s.quantity;
+  return { digits: units === 'imperial' && q === 'rollout' ? 3 : s.digits, suffix: ` ${unitOf(q, units)}`, convert: (v: number) => toDisplay(q, v, units) };
+}
+function deltaText(d: SetupDelta, units: UnitSystem) {
   if (d.delta === null) return '—';
   if (d.delta === 0) return 'no change';
-  const digits = d.unit === 'rpm' ? 0 : d.unit === 'V' ? 2 : 2;
-  const unit = d.unit === ':1' ? '' : d.unit === 'deg' ? '°' : ` ${d.unit}`;
-  return `${d.delta > 0 ? '+' : '−'}${fmt(Math.abs(d.delta), digits)}${unit}`;
+  const s = shownAs(d.unit, units);
+  return `${d.delta > 0 ? '+' : '−'}${formatFixed(Math.abs(s.convert(d.delta)), s.digits)}${d.unit === ':1' ? '' : s.suffix}`;
 }
-const valueText = (v: number | null, unit: string) =>
-  v === null ? '—' : unit === ':1' ? `${fmt(v, 2)}:1` : unit === 'deg' ? `${fmt(v, 1)}°` : `${fmt(v, unit === 'rpm' ? 0 : 2)} ${unit}`;
+function valueText(v: number | null, unit: string, units: UnitSystem) {
+  if (v === null) return '—';
+  if (unit === ':1') return formatRatio(v);
+  const s = shownAs(unit, units);
+  return `${formatFixed(s.convert(v), s.digits)}${s.suffix}`;
+}
 
 /** The rpm the timing is read at: a draft while typing, committed to the URL on Enter or leaving the field. */
 function RpmField({ rpm, onCommit }: { rpm: number | undefined; onCommit: (value: string) => void }) {
@@ -107,6 +129,7 @@ export function CompareView() {
     );
   };
   const cmp = useQuery({ ...setupQueries.compare(a, b, rpm), enabled: !!a && !!b });
+  const units = useUnits();
   const labels = cmp.data ? { a: `A: ${cmp.data.a.label}`, b: `B: ${cmp.data.b.label}` } : { a: 'A', b: 'B' };
   // Column heads stay short (A, B) so the tables fit a phone; the legend names them.
   const legend = cmp.data && (
@@ -141,7 +164,7 @@ export function CompareView() {
             <h2 id="deltas-title" className="mb-2 text-lg font-semibold">
               Computed differences
             </h2>
-            <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+            <TableScroll label="Computed differences" className="rounded-lg border border-paper-line bg-paper-card">
               <table className="w-full text-sm" data-testid="deltas-table">
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
@@ -165,14 +188,14 @@ export function CompareView() {
                       <th scope="row" className="px-3 py-2 text-left font-medium">
                         {d.label}
                       </th>
-                      <td className="px-3 py-2 tabular-nums">{valueText(d.a, d.unit)}</td>
-                      <td className="px-3 py-2 tabular-nums">{valueText(d.b, d.unit)}</td>
-                      <td className="px-3 py-2 font-semibold tabular-nums">{deltaText(d)}</td>
+                      <td className="px-3 py-2 text-right tabular-nums">{valueText(d.a, d.unit, units)}</td>
+                      <td className="px-3 py-2 text-right tabular-nums">{valueText(d.b, d.unit, units)}</td>
+                      <td className="px-3 py-2 text-right font-semibold tabular-nums">{deltaText(d, units)}</td>
                     </tr>
                   ))}
                 </tbody>
               </table>
-            </div>
+            </TableScroll>
             <p className="mt-1 text-xs text-ink-muted">
               Speeds at each pack's nominal voltage, with the motor reaching {Math.round((cmp.data.computed.a.speed?.loadFactor ?? 0.85) * 100)} % of its
               no-load rpm. Estimates, not measurements.
@@ -188,7 +211,7 @@ export function CompareView() {
                 <input type="checkbox" checked={onlyChanged} onChange={(e) => set('only', e.target.checked ? 'changed' : '')} /> Show only differences
               </label>
             </div>
-            <div className="table-scroll rounded-lg border border-paper-line bg-paper-card">
+            <TableScroll label="Every field" className="rounded-lg border border-paper-line bg-paper-card">
               <table className="w-full text-sm" data-testid="fields-table">
                 <thead>
                   <tr className="border-b-2 border-ink/20 bg-paper-deep text-left">
@@ -227,15 +250,15 @@ export function CompareView() {
                             )}
                             {f.label}
                           </th>
-                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.a, f.unit)}</td>
-                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.b, f.unit)}</td>
+                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.a, f.unit, units)}</td>
+                          <td className="px-3 py-1.5 tabular-nums">{showValue(f.path, f.b, f.unit, units)}</td>
                         </tr>
                       ))}
                     </tbody>
                   );
                 })}
               </table>
-            </div>
+            </TableScroll>
           </section>
         </>
       )}

@@ -1,17 +1,25 @@
 import type { SetupComputed } from '@shared/setup/computed';
+import { formatQuantity, formatRatio } from '@shared/units';
+import { useUnits } from '@/lib/preferences';
 import { fmt } from './labels';
 
 /** The key computed values of a record as a compact definition list. */
 export function ComputedValues({ computed, dense = false }: { computed: SetupComputed; dense?: boolean }) {
   const { gearing, pack, motor, speed, timing } = computed;
+  const units = useUnits();
+  const other = units === 'metric' ? 'imperial' : 'metric';
   const items: [string, string, string?][] = [
-    ['Final drive ratio', gearing ? `${fmt(gearing.finalDriveRatio, 2)}:1` : '—'],
-    ['Rollout', gearing ? `${fmt(gearing.rolloutMm, 1)} mm` : '—', gearing ? `${fmt(gearing.rolloutIn, 3)} in per motor turn` : undefined],
+    ['Final drive ratio', gearing ? formatRatio(gearing.finalDriveRatio) : '—'],
+    [
+      'Rollout',
+      gearing ? formatQuantity('rollout', gearing.rolloutMm, units) : '—',
+      gearing ? `${formatQuantity('rollout', gearing.rolloutMm, other)} per motor turn` : undefined,
+    ],
     ['No-load motor speed', motor ? `${fmt(motor.noLoadRpm, 0)} rpm` : '—', motor ? `at ${fmt(motor.volts)} V nominal` : 'needs the motor kV'],
     [
       'Estimated top speed',
-      speed ? `${fmt(speed.loadedKmh, 1)} km/h` : '—',
-      speed ? `${fmt(speed.loadedMph, 1)} mph; ${Math.round(speed.loadFactor * 100)} % of no-load rpm` : undefined,
+      speed ? formatQuantity('speed', speed.loadedKmh, units) : '—',
+      speed ? `${formatQuantity('speed', speed.loadedKmh, other)}; ${Math.round(speed.loadFactor * 100)} % of no-load rpm` : undefined,
     ],
     ['Pack', pack ? `${fmt(pack.fullV)} V full · ${fmt(pack.nominalV)} V nominal` : '—', pack?.storageV ? `storage ${fmt(pack.storageV)} V` : undefined],
     [

@@ -2,6 +2,8 @@ import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { Spinner } from '@/components/ui/card';
 import { ApiError } from '@/lib/api-client';
+import { formatQuantity, formatRatio } from '@shared/units';
+import { useUnits } from '@/lib/preferences';
 import { guideSetupLinks, setupQueries } from '../api/setups';
 import { fmt } from './labels';
 import { RecordTable } from './record-table';
@@ -10,6 +12,7 @@ import { RecordTable } from './record-table';
 export function PrintSheet({ slug }: { slug: string }) {
   const q = useQuery(setupQueries.guide(slug));
   const names = useQuery(setupQueries.escSettings());
+  const units = useUnits();
   if (q.isPending) return <Spinner label="Loading the setup sheet…" />;
   if (q.error)
     return (
@@ -52,10 +55,10 @@ export function PrintSheet({ slug }: { slug: string }) {
       </header>
       <section className="mb-4 grid grid-cols-3 gap-3 border border-black p-3 text-sm sm:grid-cols-6 print:grid-cols-6" aria-label="Computed values">
         {[
-          ['Final drive', computed.gearing ? `${fmt(computed.gearing.finalDriveRatio)}:1` : '—'],
-          ['Rollout', computed.gearing ? `${fmt(computed.gearing.rolloutMm, 1)} mm` : '—'],
+          ['Final drive', computed.gearing ? formatRatio(computed.gearing.finalDriveRatio) : '—'],
+          ['Rollout', computed.gearing ? formatQuantity('rollout', computed.gearing.rolloutMm, units) : '—'],
           ['No-load', computed.motor ? `${fmt(computed.motor.noLoadRpm, 0)} rpm` : '—'],
-          ['Top speed (est.)', computed.speed ? `${fmt(computed.speed.loadedKmh, 1)} km/h` : '—'],
+          ['Top speed (est.)', computed.speed ? formatQuantity('speed', computed.speed.loadedKmh, units) : '—'],
           ['Pack full / nominal', computed.pack ? `${fmt(computed.pack.fullV)} / ${fmt(computed.pack.nominalV)} V` : '—'],
           ['Cutoff', computed.pack?.cutoffV ? `${fmt(computed.pack.cutoffV)} V` : 'not set'],
         ].map(([label, value]) => (

@@ -1,9 +1,11 @@
 import type { SetupRecord } from '@shared/schemas/setup-record';
 import { flattenSetup, SETUP_SECTIONS } from '@shared/setup/fields';
+import { useUnits } from '@/lib/preferences';
 import { showValue } from './labels';
 
 /** Every field of a record, section by section (the body of the print sheet). */
 export function RecordTable({ record, names }: { record: SetupRecord; names?: Record<string, string> }) {
+  const units = useUnits();
   const leaves = flattenSetup(record, names).filter((l) => l.section !== 'provenance' && l.section !== 'notes');
   return (
     <div className="grid gap-x-8 gap-y-4 sm:grid-cols-2 print:grid-cols-2">
@@ -19,7 +21,7 @@ export function RecordTable({ record, names }: { record: SetupRecord; names?: Re
                     <th scope="row" className="py-1 pr-3 text-left font-normal text-ink-soft print:text-black">
                       {l.label}
                     </th>
-                    <td className="py-1 text-right font-medium tabular-nums">{showValue(l.path, l.value, l.unit)}</td>
+                    <td className="py-1 text-right font-medium tabular-nums">{showValue(l.path, l.value, l.unit, units)}</td>
                   </tr>
                 ))}
             </tbody>
