@@ -51,9 +51,7 @@ export async function deleteAccount(ctx: AppContext, userId: string, currentPass
         WHERE r.author_id = $1 AND r.state IN ('published', 'archived')`,
       [userId],
     );
-    const [{ n: published }] = await m.query(`SELECT count(*)::int AS n FROM revisions WHERE author_id = $1 AND state IN ('published', 'archived')`, [
-      userId,
-    ]);
+    const [{ n: published }] = await m.query(`SELECT count(*)::int AS n FROM revisions WHERE author_id = $1 AND state IN ('published', 'archived')`, [userId]);
 
     const at = new Date();
     await m.getRepository(UserEntity).update(
@@ -87,7 +85,8 @@ export async function deleteAccount(ctx: AppContext, userId: string, currentPass
   });
 
   for (const d of touched) publishedCache(ctx).invalidate(d.kind, d.slug);
-  for (const key of keys) await ctx.storage.delete(key).catch((err: unknown) => ctx.logger.error({ err, key }, 'account deletion: could not remove a stored file'));
+  for (const key of keys)
+    await ctx.storage.delete(key).catch((err: unknown) => ctx.logger.error({ err, key }, 'account deletion: could not remove a stored file'));
 }
 
 /** Removes what is the person's alone; returns the storage keys to delete once the transaction commits. */
@@ -99,7 +98,7 @@ async function removePrivateData(m: EntityManager, userId: string): Promise<stri
   // Runs stay only where a published or superseded version shows them as evidence (part of that version).
   const runs = deleted<{ raw_key: string; data_key: string }>(
     await m.query(
-    `DELETE FROM runs r WHERE r.owner_id = $1 AND NOT EXISTS (
+      `DELETE FROM runs r WHERE r.owner_id = $1 AND NOT EXISTS (
         SELECT 1 FROM run_evidence e JOIN revisions v ON v.id = e.revision_id WHERE e.run_id = r.id AND v.state IN ('published', 'archived'))
       RETURNING raw_key, data_key`,
       [userId],

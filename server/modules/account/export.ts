@@ -126,7 +126,10 @@ export async function collectExport(ctx: AppContext, userId: string): Promise<{ 
 
   entries.push({ name: 'watches.json', body: json(await watches.list(actor)) });
 
-  entries.unshift({ name: 'README.md', body: readme(exportedAt, { revisions: revisions.length, setups: setups.length, runs: runs.length, motors: motors.length }, missing) });
+  entries.unshift({
+    name: 'README.md',
+    body: readme(exportedAt, { revisions: revisions.length, setups: setups.length, runs: runs.length, motors: motors.length }, missing),
+  });
   return { entries, missing };
 }
 

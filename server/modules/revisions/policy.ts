@@ -72,7 +72,8 @@ export function mayDiscard(actor: Actor, rev: RevisionFacts): Decision {
   const who = authorOnly(actor, rev);
   if (!who.ok) return who;
   if (rev.state === 'in_review') return deny(409, 'revision_in_review', 'This revision is waiting for review; withdraw it first to discard it');
-  if (!EDITABLE_STATES.includes(rev.state)) return deny(409, 'immutable_revision', 'A published or superseded version stays in the history; it cannot be discarded');
+  if (!EDITABLE_STATES.includes(rev.state))
+    return deny(409, 'immutable_revision', 'A published or superseded version stays in the history; it cannot be discarded');
   return ALLOW;
 }
 

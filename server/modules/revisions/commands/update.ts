@@ -34,10 +34,12 @@ const UNIQUE_VIOLATION = '23505';
 async function followTitle(m: EntityManager, doc: DocumentEntity, title: string) {
   const wanted = slugify(title) || 'guide';
   if (doc.slug === wanted || new RegExp(`^${wanted}-\\d+$`).test(doc.slug)) return;
-  const taken: Array<{ slug: string }> = await m.query(
-    `SELECT slug FROM documents WHERE kind = $1 AND id <> $2 AND (slug = $3 OR slug LIKE $4)`,
-    [doc.kind, doc.id, wanted, `${wanted}-%`],
-  );
+  const taken: Array<{ slug: string }> = await m.query(`SELECT slug FROM documents WHERE kind = $1 AND id <> $2 AND (slug = $3 OR slug LIKE $4)`, [
+    doc.kind,
+    doc.id,
+    wanted,
+    `${wanted}-%`,
+  ]);
   const used = new Set(taken.map((r) => r.slug));
   let slug = wanted;
   for (let n = 2; used.has(slug); n++) slug = `${wanted}-${n}`;
