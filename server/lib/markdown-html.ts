@@ -82,7 +82,9 @@ function readerShape(opts: RenderOptions) {
         return;
       }
       if (el.tagName === 'table' && !(parent.type === 'element' && classes(parent).includes('table-scroll'))) {
-        parent.children[index] = { type: 'element', tagName: 'div', properties: { className: ['table-scroll'] }, children: [el as ElementContent] };
+        // The frame TableScroll draws before it has measured the table (src/components/ui/table-scroll.tsx).
+        const scroller: ElementContent = { type: 'element', tagName: 'div', properties: { className: ['table-scroll'] }, children: [el as ElementContent] };
+        parent.children[index] = { type: 'element', tagName: 'div', properties: { className: ['min-w-0'] }, children: [scroller] };
         return 'skip';
       }
     });

@@ -157,8 +157,9 @@ describe('security headers in production', () => {
 
   it('hashed assets are served with a script-safe content type and long caching', async () => {
     const html = (await request(t.app).get('/').set(https)).text;
-    const src = /<script[^>]+src="([^"]+)"/.exec(html)?.[1];
-    expect(src).toMatch(/^\/assets\//);
+    // The first hashed script (the theme is set earlier by /theme-init.js, a file of its own that is not hashed).
+    const src = /<script[^>]+src="(\/assets\/[^"]+)"/.exec(html)?.[1];
+    expect(src).toMatch(/^\/assets\/.+\.js$/);
     const res = await request(t.app).get(src!).set(https);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^(text|application)\/javascript/);
@@ -166,6 +167,13 @@ describe('security headers in production', () => {
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['cross-origin-resource-policy']).toBe('same-origin');
     expectPermissionsPolicy(res);
+    // The unhashed theme script: a script type too, and never cached as immutable (its address does not change with it).
+    expect(html).toContain('<script src="/theme-init.js"></script>');
+    const theme = await request(t.app).get('/theme-init.js').set(https);
+    expect(theme.status).toBe(200);
+    expect(theme.headers['content-type']).toMatch(/^(text|application)\/javascript/);
+    expect(theme.headers['x-content-type-options']).toBe('nosniff');
+    expect(theme.headers['cache-control'] ?? '').not.toMatch(/immutable/);
   });
 
   it('does not mount the local mail viewer or list it in the API document', async () => {
