@@ -96,7 +96,12 @@ export async function revealWorkedExamples(page: Page, timeout = 30_000) {
     const handle = await page.$('[data-example-placeholder]');
     if (!handle) return;
     await handle.scrollIntoViewIfNeeded().catch(() => {}); // it may have been replaced already
-    await page.waitForFunction((el) => !el.isConnected, handle, { timeout: Math.max(1, deadline - Date.now()) }).catch(() => {});
+    const replaced = await page
+      .waitForFunction((el) => !el.isConnected, handle, { timeout: Math.max(1, Math.min(15_000, deadline - Date.now())) })
+      .then(() => true)
+      .catch(() => false);
+    // Still there: scroll it out of view and back, as a reader would, so the page sees it come near again.
+    if (!replaced) await handle.evaluate((el) => el.isConnected && window.scrollTo(0, 0)).catch(() => {});
   }
   throw new Error('worked-example cards did not load');
 }

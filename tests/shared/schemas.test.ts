@@ -18,10 +18,13 @@ describe('shared/schemas/user', () => {
     expect(signUpSchema.safeParse({ ...base, password: 'a'.repeat(129) }).success).toBe(false);
   });
 
-  it('needs a role or a disabled flag in an admin patch', () => {
+  it('needs a role or a disabled flag in an admin patch, and a reason for all but enabling', () => {
     expect(adminUserPatchSchema.safeParse({}).success).toBe(false);
-    expect(adminUserPatchSchema.safeParse({ disabled: true }).success).toBe(true);
-    expect(adminUserPatchSchema.safeParse({ role: 'owner' }).success).toBe(false);
+    expect(adminUserPatchSchema.safeParse({ disabled: true, reason: 'Posting copied manuals' }).success).toBe(true);
+    expect(adminUserPatchSchema.safeParse({ disabled: false }).success).toBe(true);
+    expect(adminUserPatchSchema.safeParse({ disabled: true }).success).toBe(false);
+    expect(adminUserPatchSchema.safeParse({ role: 'moderator' }).success).toBe(false);
+    expect(adminUserPatchSchema.safeParse({ role: 'owner', reason: 'Runs the club nights' }).success).toBe(false);
   });
 });
 
