@@ -1,7 +1,6 @@
-import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
-import { useLocation } from 'react-router-dom';
 import { toast } from '@/lib/toast';
 import type { UnitSystem } from '@shared/units';
+import { useDisclosure } from '@/lib/use-disclosure';
 import { THEMES, useSetUnits, useTheme, useUnits, type ThemeChoice } from '@/lib/preferences';
 
 const UNIT_CHOICES: Array<{ value: UnitSystem; label: string; hint: string }> = [
@@ -16,36 +15,11 @@ const THEME_LABELS: Record<ThemeChoice, string> = { system: 'System', light: 'Li
  * elsewhere closes it, Escape puts focus back on the button.
  */
 export function DisplayMenu() {
-  const [open, setOpen] = useState(false);
-  const box = useRef<HTMLDivElement>(null);
-  const button = useRef<HTMLButtonElement>(null);
-  const panelId = useId();
-  const location = useLocation();
+  const { open, setOpen, box, button, panelId, onKey: handleKey } = useDisclosure();
   const units = useUnits();
   const setUnits = useSetUnits();
   const [theme, setTheme] = useTheme();
 
-  useEffect(() => setOpen(false), [location.pathname]);
-  useEffect(() => {
-    if (!open) return;
-    const away = (e: Event) => {
-      if (box.current && !box.current.contains(e.target as Node)) setOpen(false);
-    };
-    document.addEventListener('pointerdown', away);
-    document.addEventListener('focusin', away);
-    return () => {
-      document.removeEventListener('pointerdown', away);
-      document.removeEventListener('focusin', away);
-    };
-  }, [open]);
-
-  const handleKey = (e: KeyboardEvent) => {
-    if (e.key !== 'Escape' || !open) return;
-    e.preventDefault();
-    e.stopPropagation();
-    setOpen(false);
-    button.current?.focus();
-  };
   const chooseUnits = (u: UnitSystem) => {
     setUnits(u).catch(() => toast.error('Your units could not be saved to your account; they apply on this device.'));
   };

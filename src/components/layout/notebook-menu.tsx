@@ -1,5 +1,6 @@
-import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
-import { NavLink, useLocation } from 'react-router-dom';
+import { type KeyboardEvent } from 'react';
+import { NavLink } from 'react-router-dom';
+import { useDisclosure } from '@/lib/use-disclosure';
 
 /** The racer's own records, reached from one header entry. */
 export const NOTEBOOK_LINKS = [
@@ -14,37 +15,12 @@ export const NOTEBOOK_LINKS = [
  * focus back on the button; arrow keys move between the links. On a phone it unfolds inside the main menu.
  */
 export function NotebookMenu({ onNavigate }: { onNavigate?: () => void }) {
-  const [open, setOpen] = useState(false);
-  const button = useRef<HTMLButtonElement>(null);
-  const box = useRef<HTMLDivElement>(null);
-  const listId = useId();
-  const location = useLocation();
+  const { open, setOpen, box, button, panelId: listId, location, onKey } = useDisclosure();
   const active = NOTEBOOK_LINKS.some((l) => location.pathname === l.to || location.pathname.startsWith(`${l.to}/`));
-
-  // Closes on a page change and on a click or focus outside.
-  useEffect(() => setOpen(false), [location.pathname]);
-  useEffect(() => {
-    if (!open) return;
-    const away = (e: Event) => {
-      if (box.current && !box.current.contains(e.target as Node)) setOpen(false);
-    };
-    document.addEventListener('pointerdown', away);
-    document.addEventListener('focusin', away);
-    return () => {
-      document.removeEventListener('pointerdown', away);
-      document.removeEventListener('focusin', away);
-    };
-  }, [open]);
 
   const links = () => Array.from(box.current?.querySelectorAll<HTMLAnchorElement>('ul a') ?? []);
   const handleKey = (e: KeyboardEvent) => {
-    if (e.key === 'Escape' && open) {
-      e.preventDefault();
-      e.stopPropagation();
-      setOpen(false);
-      button.current?.focus();
-      return;
-    }
+    if (onKey(e)) return;
     if (e.key !== 'ArrowDown' && e.key !== 'ArrowUp') return;
     e.preventDefault();
     if (!open) setOpen(true);
